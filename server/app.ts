@@ -1,0 +1,103 @@
+import { randomUUID } from 'node:crypto'
+import { existsSync } from 'node:fs'
+import { join } from 'node:path'
+import cookieParser from 'cookie-parser'
+import express, { type RequestHandler } from 'express'
+import { rateLimit } from 'express-rate-limit'
+import helmet from 'helmet'
+import { pinoHttp } from 'pino-http'
+import type { Db } from './db/index'
+import { authRepo } from './features/auth/auth.repo'
+import { authRoutes, sessionMiddleware } from './features/auth/auth.routes'
+import { authService } from './features/auth/auth.service'
+import { tokenKey } from './features/auth/auth.tokens'
+import { healthRoutes } from './features/health/health.routes'
+import { lakesRepo } from './features/lakes/lakes.repo'
+import { lakesRoutes } from './features/lakes/lakes.routes'
+import { lakesService } from './features/lakes/lakes.service'
+import { usersRepo } from './features/users/users.repo'
+import { usersRoutes } from './features/users/users.routes'
+import { usersService } from './features/users/users.service'
+import { errorHandler, HttpError, notFound } from './http/errors'
+import { sameOrigin } from './http/origin'
+import type { Logger } from './logger'
+
+export interface AppDeps {
+  db: Db
+  logger: Logger
+  sessionSecret: string
+  /** Secure cookies everywhere but local development and tests over plain HTTP. */
+  secureCookies: boolean
+  appOrigin?: string
+  /** The built client (vite build output); served with an SPA fallback when present. */
+  staticDir?: string
+  /** Vite's dev middleware, for `npm run dev`. */
+  devMiddleware?: RequestHandler
+  /** Sign-in and sign-up attempts per window per client address. */
+  authRateLimit?: { windowMs: number; limit: number }
+}
+
+export function createApp(deps: AppDeps): express.Express {
+  const app = express()
+  app.disable('x-powered-by')
+
+  const auth = authService(authRepo(deps.db), tokenKey(deps.sessionSecret))
+  const limits = deps.authRateLimit ?? { windowMs: 15 * 60_000, limit: 20 }
+  const limiter = rateLimit({
+    ...limits,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: () => {
+      throw new HttpError(429, 'rate_limited', 'Too many attempts. Wait a few minutes and try again.')
+    },
+  })
+
+  app.use(
+    pinoHttp({
+      logger: deps.logger,
+      genReqId: (req, res) => {
+        const id = randomUUID()
+        res.setHeader('x-request-id', id)
+        return id
+      },
+      // Log the route, not the query string, which may carry tokens later (unsubscribe links).
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({
+          id: req.id,
+          method: req.method,
+          path: req.url.split('?')[0],
+        }),
+      },
+    }),
+  )
+  app.use(
+    helmet({
+      // Vite's dev client injects inline scripts; the built app does not need them.
+      contentSecurityPolicy: deps.devMiddleware ? false : undefined,
+    }),
+  )
+
+  const api = express.Router()
+  api.use(express.json({ limit: '100kb' }))
+  api.use(cookieParser())
+  api.use(sameOrigin(deps.appOrigin))
+  api.use(sessionMiddleware(auth))
+  api.use(healthRoutes(deps.db))
+  api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limiter }))
+  api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
+  api.use(lakesRoutes(lakesService(lakesRepo(deps.db))))
+  api.use(notFound)
+  app.use('/api', api)
+
+  if (deps.devMiddleware) {
+    app.use(deps.devMiddleware)
+  } else if (deps.staticDir && existsSync(deps.staticDir)) {
+    const index = join(deps.staticDir, 'index.html')
+    app.use(express.static(deps.staticDir, { index: false, maxAge: '1h' }))
+    app.get('/{*splat}', (_req, res) => res.sendFile(index))
+  }
+
+  app.use(notFound)
+  app.use(errorHandler)
+  return app
+}

@@ -1,0 +1,2 @@
+export * from './lakes'
+export * from './users'

@@ -1,0 +1,23 @@
+import type { MultiPolygon, Polygon } from '../../../shared/geo/types'
+import { doublePrecision, jsonb, pgTable, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { timestamps } from './columns'
+
+export const lakes = pgTable(
+  'lakes',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    slug: text().notNull(),
+    name: text().notNull(),
+    region: text().notNull(),
+    timeZone: text().notNull(),
+    /** Normal pool elevation, metres above the datum. */
+    normalPoolM: doublePrecision().notNull(),
+    /** The shoreline as GeoJSON in WGS84; interior rings are islands. */
+    shoreline: jsonb().$type<Polygon | MultiPolygon>().notNull(),
+    areaKm2: doublePrecision().notNull(),
+    centerLon: doublePrecision().notNull(),
+    centerLat: doublePrecision().notNull(),
+    ...timestamps,
+  },
+  (t) => [uniqueIndex('lakes_slug_key').on(t.slug)],
+)

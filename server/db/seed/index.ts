@@ -1,0 +1,43 @@
+import { lakeAreaM2, lakeCenter } from '../../../shared/geo/polygon'
+import { hashPassword } from '../../features/auth/passwords'
+import type { Db } from '../index'
+import { lakes, users } from '../schema/index'
+import type { Role } from '../../../shared/schemas/auth'
+import { DEMO_LAKES, demoShoreline } from './demo-lakes'
+
+/** Development only: `npm start` refuses to seed these when NODE_ENV=production. */
+export const DEMO_PASSWORD = 'chopline-demo'
+export const DEMO_USERS: { email: string; role: Role }[] = [
+  { email: 'angler@chopline.test', role: 'angler' },
+  { email: 'guide@chopline.test', role: 'guide' },
+  { email: 'admin@chopline.test', role: 'admin' },
+]
+
+/** Idempotent: a second run adds nothing and leaves edited users and lakes alone. */
+export async function seedDemo(db: Db): Promise<void> {
+  const passwordHash = await hashPassword(DEMO_PASSWORD)
+  await db
+    .insert(users)
+    .values(DEMO_USERS.map((u) => ({ ...u, passwordHash })))
+    .onConflictDoNothing({ target: users.email })
+
+  const rows = DEMO_LAKES.map((shape) => {
+    const shoreline = demoShoreline(shape)
+    const [centerLon, centerLat] = lakeCenter(shoreline)
+    return {
+      slug: shape.slug,
+      name: shape.name,
+      region: shape.region,
+      timeZone: shape.timeZone,
+      normalPoolM: shape.normalPoolM,
+      shoreline,
+      areaKm2: Math.round(lakeAreaM2(shoreline) / 1e4) / 100,
+      centerLon,
+      centerLat,
+    }
+  })
+  await db
+    .insert(lakes)
+    .values(rows)
+    .onConflictDoNothing({ target: lakes.slug })
+}

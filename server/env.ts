@@ -1,0 +1,25 @@
+import { z } from 'zod'
+
+const Env = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  /** When unset, `npm start` runs a private cluster under .data/ and points this at it. */
+  DATABASE_URL: z.url().optional(),
+  /** HS256 key for session tokens; generated into .data/ in development when unset. */
+  SESSION_SECRET: z.string().min(32, 'SESSION_SECRET must be at least 32 characters').optional(),
+  /** The public origin, e.g. https://chopline.example; state-changing requests must come from it. */
+  APP_ORIGIN: z.url().optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  CHOPLINE_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
+})
+export type Env = z.infer<typeof Env>
+
+/** The only reader of process.env. */
+export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const parsed = Env.safeParse(source)
+  if (!parsed.success) {
+    throw new Error(`Invalid environment:\n${z.prettifyError(parsed.error)}`)
+  }
+  return parsed.data
+}

@@ -1,0 +1,64 @@
+import { Router, type CookieOptions, type RequestHandler, type Response } from 'express'
+import { PasswordChangeInput, SignInInput, SignUpInput } from '../../../shared/schemas/auth'
+import { currentUser, requireSignIn } from '../../http/access'
+import { input, validate } from '../../http/validate'
+import type { AuthService, IssuedSession } from './auth.service'
+import { SESSION_COOKIE } from './auth.tokens'
+
+export interface AuthRouteOptions {
+  secureCookies: boolean
+  /** express-rate-limit middleware for sign-in and sign-up. */
+  limiter: RequestHandler
+}
+
+export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
+  const cookie: CookieOptions = {
+    httpOnly: true,
+    sameSite: 'lax',
+    secure: opts.secureCookies,
+    path: '/',
+  }
+  const respondWithSession = (res: Response, status: number, session: IssuedSession) => {
+    res.cookie(SESSION_COOKIE, session.token, { ...cookie, expires: session.expiresAt })
+    res.status(status).json({ user: session.user })
+  }
+
+  const router = Router()
+
+  router.post('/auth/signup', opts.limiter, validate({ body: SignUpInput }), async (req, res) => {
+    respondWithSession(res, 201, await auth.signUp(input(SignUpInput, req.body)))
+  })
+
+  router.post('/auth/signin', opts.limiter, validate({ body: SignInInput }), async (req, res) => {
+    respondWithSession(res, 200, await auth.signIn(input(SignInInput, req.body)))
+  })
+
+  router.post('/auth/signout', async (req, res) => {
+    if (req.auth) await auth.signOut(req.auth.sessionId)
+    res.clearCookie(SESSION_COOKIE, cookie)
+    res.status(204).end()
+  })
+
+  router.get('/me', requireSignIn, (req, res) => {
+    res.json({ user: currentUser(req) })
+  })
+
+  router.post('/me/password', requireSignIn, validate({ body: PasswordChangeInput }), async (req, res) => {
+    const body = input(PasswordChangeInput, req.body)
+    respondWithSession(res, 200, await auth.changePassword(currentUser(req), body))
+  })
+
+  return router
+}
+
+/** Reads the session cookie and, when it names a live session, sets req.auth. */
+export function sessionMiddleware(auth: AuthService): RequestHandler {
+  return async (req, _res, next) => {
+    const token: unknown = req.cookies?.[SESSION_COOKIE]
+    if (typeof token === 'string' && token) {
+      const found = await auth.authenticate(token)
+      if (found) req.auth = found
+    }
+    next()
+  }
+}

@@ -1,0 +1,70 @@
+import type { PasswordChangeInput, SignInInput, SignUpInput, User } from '../../../shared/schemas/auth'
+import { HttpError } from '../../http/errors'
+import type { AuthRepo, publicUserColumns } from './auth.repo'
+import { decoyPasswordHash, hashPassword, verifyPassword } from './passwords'
+import { SESSION_DAYS, signSessionToken, type SessionClaims, verifySessionToken } from './auth.tokens'
+
+type UserRow = { [K in keyof typeof publicUserColumns]: (typeof publicUserColumns)[K]['_']['data'] }
+
+export function toUser(row: UserRow): User {
+  return { id: row.id, email: row.email, role: row.role, createdAt: row.createdAt.toISOString() }
+}
+
+export interface IssuedSession {
+  user: User
+  token: string
+  expiresAt: Date
+}
+
+const INVALID_CREDENTIALS = new HttpError(401, 'invalid_credentials', 'E-mail or password is incorrect.')
+
+export function authService(repo: AuthRepo, key: Uint8Array) {
+  async function issue(user: User): Promise<IssuedSession> {
+    const expiresAt = new Date(Date.now() + SESSION_DAYS * 86_400_000)
+    const sessionId = await repo.createSession(user.id, expiresAt)
+    const token = await signSessionToken(key, { userId: user.id, sessionId }, expiresAt)
+    return { user, token, expiresAt }
+  }
+
+  return {
+    async signUp(input: SignUpInput): Promise<IssuedSession> {
+      const row = await repo.insertUser(input.email, await hashPassword(input.password))
+      if (!row) {
+        throw new HttpError(409, 'email_taken', 'An account with this e-mail already exists.', {
+          email: 'An account with this e-mail already exists. Sign in instead.',
+        })
+      }
+      return issue(toUser(row))
+    },
+
+    async signIn(input: SignInInput): Promise<IssuedSession> {
+      const row = await repo.findByEmail(input.email)
+      const ok = await verifyPassword(row?.passwordHash ?? (await decoyPasswordHash()), input.password)
+      if (!row || !ok) throw INVALID_CREDENTIALS
+      return issue(toUser(row))
+    },
+
+    async authenticate(token: string): Promise<{ user: User; sessionId: string } | null> {
+      const claims: SessionClaims | null = await verifySessionToken(key, token)
+      if (!claims) return null
+      const row = await repo.liveSessionUser(claims.sessionId, claims.userId)
+      return row ? { user: toUser(row), sessionId: claims.sessionId } : null
+    },
+
+    signOut: (sessionId: string) => repo.revokeSession(sessionId),
+
+    /** A new password ends every session, this one included, and opens a fresh one here. */
+    async changePassword(user: User, input: PasswordChangeInput): Promise<IssuedSession> {
+      const row = await repo.findById(user.id)
+      if (!row || !(await verifyPassword(row.passwordHash, input.currentPassword))) {
+        throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
+          currentPassword: 'That is not your current password.',
+        })
+      }
+      await repo.setPasswordHash(user.id, await hashPassword(input.newPassword))
+      await repo.revokeAllSessions(user.id)
+      return issue(user)
+    },
+  }
+}
+export type AuthService = ReturnType<typeof authService>

@@ -1,0 +1,71 @@
+import type { Server } from 'node:http'
+import { fileURLToPath, pathToFileURL } from 'node:url'
+import { createApp, type AppDeps } from './app'
+import { createDb } from './db/index'
+import { migrateDb } from './db/migrate'
+import { loadEnv } from './env'
+import { createLogger } from './logger'
+
+export const clientDir = fileURLToPath(new URL('../dist', import.meta.url))
+
+export interface ServeOptions extends AppDeps {
+  host: string
+  port: number
+  /** Runs after the HTTP server has closed: end the pool, stop what was started for it. */
+  onClose?: () => Promise<void>
+}
+
+/** Listens, and on SIGINT/SIGTERM stops taking requests, lets open ones finish, then runs onClose. */
+export function serve(opts: ServeOptions): Promise<Server> {
+  const app = createApp(opts)
+  return new Promise((resolve, reject) => {
+    const server = app.listen(opts.port, opts.host, (err?: Error) => {
+      if (err) return reject(err)
+      resolve(server)
+    })
+    let closing = false
+    const shutdown = (signal: string) => {
+      if (closing) return
+      closing = true
+      opts.logger.info({ signal }, 'shutting down')
+      server.close(async () => {
+        await opts.db.$client.end()
+        await opts.onClose?.()
+        process.exit(0)
+      })
+      server.closeIdleConnections()
+      setTimeout(() => server.closeAllConnections(), 5_000).unref()
+    }
+    process.once('SIGINT', () => shutdown('SIGINT'))
+    process.once('SIGTERM', () => shutdown('SIGTERM'))
+  })
+}
+
+/** Production entry: an external PostgreSQL and a secret from the environment. */
+async function main() {
+  const env = loadEnv()
+  if (!env.DATABASE_URL || !env.SESSION_SECRET) {
+    throw new Error('DATABASE_URL and SESSION_SECRET must be set (npm start sets them up locally).')
+  }
+  const logger = createLogger(env.LOG_LEVEL)
+  const db = createDb(env.DATABASE_URL)
+  await migrateDb(db)
+  await serve({
+    db,
+    logger,
+    host: env.HOST,
+    port: env.PORT,
+    sessionSecret: env.SESSION_SECRET,
+    secureCookies: env.NODE_ENV === 'production',
+    appOrigin: env.APP_ORIGIN,
+    staticDir: clientDir,
+  })
+  logger.info(`Chopline listening on http://${env.HOST}:${env.PORT}`)
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  main().catch((err: unknown) => {
+    console.error(err instanceof Error ? err.message : err)
+    process.exit(1)
+  })
+}

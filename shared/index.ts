@@ -1,0 +1,6 @@
+export * from './schemas/auth'
+export * from './schemas/errors'
+export * from './schemas/health'
+export * from './schemas/lakes'
+export * from './schemas/paging'
+export * from './schemas/users'

@@ -1,0 +1,54 @@
+import { z } from 'zod'
+
+export const ROLES = ['angler', 'guide', 'admin'] as const
+export const Role = z.enum(ROLES)
+export type Role = z.infer<typeof Role>
+
+export const PASSWORD_MIN_LENGTH = 10
+
+export const Email = z
+  .string({ error: 'Enter your e-mail address.' })
+  .trim()
+  .toLowerCase()
+  .pipe(z.email({ error: 'Enter a valid e-mail address.' }).max(254))
+
+const NewPassword = z
+  .string({ error: 'Enter a password.' })
+  .min(PASSWORD_MIN_LENGTH, {
+    error: `Use at least ${PASSWORD_MIN_LENGTH} characters for your password.`,
+  })
+  .max(200, { error: 'Use at most 200 characters for your password.' })
+
+export const SignUpInput = z.object({ email: Email, password: NewPassword })
+export type SignUpInput = z.infer<typeof SignUpInput>
+
+export const SignInInput = z.object({
+  email: Email,
+  password: z.string({ error: 'Enter your password.' }).min(1, { error: 'Enter your password.' }),
+})
+export type SignInInput = z.infer<typeof SignInInput>
+
+export const PasswordChangeInput = z.object({
+  currentPassword: z.string().min(1, { error: 'Enter your current password.' }),
+  newPassword: NewPassword,
+})
+export type PasswordChangeInput = z.infer<typeof PasswordChangeInput>
+
+/** What the API ever says about a user: never a hash, never a token. */
+export const User = z.object({
+  id: z.uuid(),
+  email: z.string(),
+  role: Role,
+  createdAt: z.iso.datetime(),
+})
+export type User = z.infer<typeof User>
+
+export const Me = z.object({ user: User })
+export type Me = z.infer<typeof Me>
+
+const ROLE_RANK: Record<Role, number> = { angler: 0, guide: 1, admin: 2 }
+
+/** Roles are nested: a guide can do all an angler can, an admin all a guide can. */
+export function roleAllows(role: Role, needed: Role): boolean {
+  return ROLE_RANK[role] >= ROLE_RANK[needed]
+}

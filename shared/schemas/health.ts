@@ -1,0 +1,7 @@
+import { z } from 'zod'
+
+export const Health = z.object({
+  status: z.enum(['ok', 'degraded']),
+  database: z.enum(['up', 'down']),
+})
+export type Health = z.infer<typeof Health>

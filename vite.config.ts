@@ -1,0 +1,42 @@
+import { fileURLToPath, URL } from 'node:url'
+import vue from '@vitejs/plugin-vue'
+import { defineConfig } from 'vitest/config'
+
+const alias = {
+  '@': fileURLToPath(new URL('./src', import.meta.url)),
+  '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
+}
+
+export default defineConfig({
+  plugins: [vue()],
+  resolve: { alias },
+  build: { outDir: 'dist', chunkSizeWarningLimit: 700 },
+  test: {
+    // Each project file gets its own database from the template made in the global setup.
+    globalSetup: ['tests/setup/postgres.ts'],
+    projects: [
+      {
+        extends: true,
+        test: { name: 'shared', environment: 'node', include: ['tests/shared/**/*.test.ts'] },
+      },
+      {
+        extends: true,
+        test: { name: 'server', environment: 'node', include: ['tests/server/**/*.test.ts'] },
+      },
+      {
+        extends: true,
+        test: { name: 'client', environment: 'jsdom', include: ['tests/src/**/*.test.ts'] },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['tests/e2e/**/*.test.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+        },
+      },
+    ],
+  },
+})
