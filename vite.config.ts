@@ -10,10 +10,9 @@ const alias = {
 export default defineConfig({
   plugins: [vue()],
   resolve: { alias },
+  publicDir: false,
   build: { outDir: 'dist', chunkSizeWarningLimit: 700 },
   test: {
-    // Each project file gets its own database from the template made in the global setup.
-    globalSetup: ['tests/setup/postgres.ts'],
     projects: [
       {
         extends: true,
@@ -21,7 +20,13 @@ export default defineConfig({
       },
       {
         extends: true,
-        test: { name: 'server', environment: 'node', include: ['tests/server/**/*.test.ts'] },
+        test: {
+          name: 'server',
+          environment: 'node',
+          include: ['tests/server/**/*.test.ts'],
+          // A throwaway cluster per run; each test file copies its template database.
+          globalSetup: ['tests/setup/postgres.ts'],
+        },
       },
       {
         extends: true,
@@ -33,6 +38,7 @@ export default defineConfig({
           name: 'e2e',
           environment: 'node',
           include: ['tests/e2e/**/*.test.ts'],
+          globalSetup: ['tests/setup/postgres.ts'],
           testTimeout: 60_000,
           hookTimeout: 60_000,
         },

@@ -48,7 +48,11 @@ export function createApp(deps: AppDeps): express.Express {
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     handler: () => {
-      throw new HttpError(429, 'rate_limited', 'Too many attempts. Wait a few minutes and try again.')
+      throw new HttpError(
+        429,
+        'rate_limited',
+        'Too many attempts. Wait a few minutes and try again.',
+      )
     },
   })
 
@@ -67,13 +71,18 @@ export function createApp(deps: AppDeps): express.Express {
           method: req.method,
           path: req.url.split('?')[0],
         }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
       },
     }),
   )
   app.use(
     helmet({
       // Vite's dev client injects inline scripts; the built app does not need them.
-      contentSecurityPolicy: deps.devMiddleware ? false : undefined,
+      contentSecurityPolicy: deps.devMiddleware
+        ? false
+        : { directives: { upgradeInsecureRequests: deps.secureCookies ? [] : null } },
+      // HSTS only where the app is served over HTTPS.
+      strictTransportSecurity: deps.secureCookies,
     }),
   )
 

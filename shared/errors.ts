@@ -10,14 +10,30 @@ export class DomainError extends Error {
   }
 }
 
-export function assertFinite(value: number, field: string, opts: { min?: number; max?: number } = {}): void {
+export function assertFinite(
+  value: number,
+  field: string,
+  opts: { min?: number; max?: number } = {},
+): void {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
-    throw new DomainError('invalid_number', `${field} must be a finite number, got ${String(value)}.`, field)
+    throw new DomainError(
+      'invalid_number',
+      `${field} must be a finite number, got ${String(value)}.`,
+      field,
+    )
   }
   if (opts.min !== undefined && value < opts.min) {
-    throw new DomainError('invalid_number', `${field} must be at least ${opts.min}, got ${value}.`, field)
+    throw new DomainError(
+      'invalid_number',
+      `${field} must be at least ${opts.min}, got ${value}.`,
+      field,
+    )
   }
   if (opts.max !== undefined && value > opts.max) {
-    throw new DomainError('invalid_number', `${field} must be at most ${opts.max}, got ${value}.`, field)
+    throw new DomainError(
+      'invalid_number',
+      `${field} must be at most ${opts.max}, got ${value}.`,
+      field,
+    )
   }
 }

@@ -14,7 +14,8 @@ export const dataDir = fileURLToPath(new URL('../../.data', import.meta.url))
 function localSecret(name: string, bytes: number): string {
   mkdirSync(dataDir, { recursive: true, mode: 0o755 })
   const file = join(dataDir, name)
-  if (!existsSync(file)) writeFileSync(file, randomBytes(bytes).toString('base64url'), { mode: 0o600 })
+  if (!existsSync(file))
+    writeFileSync(file, randomBytes(bytes).toString('base64url'), { mode: 0o600 })
   return readFileSync(file, 'utf8').trim()
 }
 

@@ -1,7 +1,6 @@
 import { execFile, execFileSync } from 'node:child_process'
 import { createHash } from 'node:crypto'
 import { chmodSync, chownSync, existsSync, mkdirSync, readdirSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { promisify } from 'node:util'
 
@@ -36,7 +35,9 @@ export function findPgBin(log: (line: string) => void = console.log): string {
   const found = lookForPgBin()
   if (found) return found
   if (!isRoot) {
-    throw new Error(`PostgreSQL server binaries not found. Install them with:\n  sudo sh -c '${APT_INSTALL}'`)
+    throw new Error(
+      `PostgreSQL server binaries not found. Install them with:\n  sudo sh -c '${APT_INSTALL}'`,
+    )
   }
   log(`PostgreSQL not found; installing Debian's package: ${APT_INSTALL}`)
   execFileSync('sh', ['-c', APT_INSTALL], { stdio: 'inherit' })
@@ -107,7 +108,7 @@ export async function startCluster(opts: ClusterOptions): Promise<Cluster> {
   prepareDir(dataDir, owner)
   if (!reachable(dataDir)) {
     // A project under a 0700 home is out of the server user's reach.
-    dataDir = join(tmpdir(), `chopline-pg-${shortHash(opts.dataDir)}`)
+    dataDir = join('/tmp', `chopline-pg-${shortHash(opts.dataDir)}`)
     prepareDir(dataDir, owner)
     log(`${opts.dataDir} is not reachable by the postgres user; using ${dataDir}`)
   }
@@ -118,14 +119,23 @@ export async function startCluster(opts: ClusterOptions): Promise<Cluster> {
   if (!existsSync(join(dataDir, 'PG_VERSION'))) {
     log(`Creating a PostgreSQL cluster in ${dataDir}`)
     await pg(binDir, 'initdb', [
-      '-D', dataDir, '-U', 'postgres', '-E', 'UTF8', '--locale=C.UTF-8',
-      '--auth-local=trust', '--auth-host=scram-sha-256',
+      '-D',
+      dataDir,
+      '-U',
+      'postgres',
+      '-E',
+      'UTF8',
+      '--locale=C.UTF-8',
+      '--auth-local=trust',
+      '--auth-host=scram-sha-256',
     ])
     const settings = [
       `listen_addresses = '127.0.0.1'`,
       `port = ${opts.port}`,
       `unix_socket_directories = '${socketDir}'`,
-      ...(opts.durable ? [] : ['fsync = off', 'synchronous_commit = off', 'full_page_writes = off']),
+      ...(opts.durable
+        ? []
+        : ['fsync = off', 'synchronous_commit = off', 'full_page_writes = off']),
     ]
     const conf = join(dataDir, 'postgresql.conf')
     const [cmd, argv] = asServerUser('sh', ['-c', `cat >> '${conf}'`])
@@ -136,17 +146,44 @@ export async function startCluster(opts: ClusterOptions): Promise<Cluster> {
   if (startedHere) {
     // A kill -9 leaves postmaster.pid behind; pg_ctl status said no server owns it.
     rmSync(join(dataDir, 'postmaster.pid'), { force: true })
-    await pg(binDir, 'pg_ctl', ['-D', dataDir, '-l', join(dataDir, 'server.log'), '-w', '-t', '30', 'start'])
+    await pg(binDir, 'pg_ctl', [
+      '-D',
+      dataDir,
+      '-l',
+      join(dataDir, 'server.log'),
+      '-w',
+      '-t',
+      '30',
+      'start',
+    ])
   }
 
-  const psql = (sql: string) => pg(binDir, 'psql', ['-h', socketDir, '-p', String(opts.port), '-U', 'postgres', '-d', 'postgres', '-v', 'ON_ERROR_STOP=1', '-tAc', sql])
+  const psql = (sql: string) =>
+    pg(binDir, 'psql', [
+      '-h',
+      socketDir,
+      '-p',
+      String(opts.port),
+      '-U',
+      'postgres',
+      '-d',
+      'postgres',
+      '-v',
+      'ON_ERROR_STOP=1',
+      '-tAc',
+      sql,
+    ])
   const literal = (s: string) => `'${s.replaceAll("'", "''")}'`
   const ident = (s: string) => `"${s.replaceAll('"', '""')}"`
-  const hasRole = (await psql(`SELECT 1 FROM pg_roles WHERE rolname = ${literal(opts.user)}`)).stdout.trim()
+  const hasRole = (
+    await psql(`SELECT 1 FROM pg_roles WHERE rolname = ${literal(opts.user)}`)
+  ).stdout.trim()
   await psql(
     `${hasRole ? 'ALTER' : 'CREATE'} ROLE ${ident(opts.user)} LOGIN CREATEDB PASSWORD ${literal(opts.password)}`,
   )
-  const hasDb = (await psql(`SELECT 1 FROM pg_database WHERE datname = ${literal(opts.database)}`)).stdout.trim()
+  const hasDb = (
+    await psql(`SELECT 1 FROM pg_database WHERE datname = ${literal(opts.database)}`)
+  ).stdout.trim()
   if (!hasDb) await psql(`CREATE DATABASE ${ident(opts.database)} OWNER ${ident(opts.user)}`)
 
   const url = (database = opts.database) =>

@@ -58,5 +58,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return
   }
   req.log.error({ err, requestId: req.id }, 'unexpected error')
-  res.status(500).json(body('internal', `Something went wrong on our side (request ${String(req.id)}).`))
+  res
+    .status(500)
+    .json(body('internal', `Something went wrong on our side (request ${String(req.id)}).`))
 }

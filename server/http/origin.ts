@@ -15,7 +15,11 @@ export function sameOrigin(appOrigin: string | undefined): RequestHandler {
     if (claimed === undefined) return next()
     const expected = appOrigin ?? `${req.protocol}://${req.get('host')}`
     if (claimed !== expected) {
-      throw new HttpError(403, 'cross_origin', 'This request came from another site and was refused.')
+      throw new HttpError(
+        403,
+        'cross_origin',
+        'This request came from another site and was refused.',
+      )
     }
     next()
   }

@@ -10,27 +10,50 @@ export function polygonsOf(lake: LakeGeometry): Ring[][] {
 /** Checks what a lake geometry must be before any computation: closed rings of finite WGS84 positions. */
 export function assertLakeGeometry(lake: LakeGeometry): void {
   if (!lake || (lake.type !== 'Polygon' && lake.type !== 'MultiPolygon')) {
-    throw new DomainError('invalid_geometry', 'A lake must be a GeoJSON Polygon or MultiPolygon.', 'lake')
+    throw new DomainError(
+      'invalid_geometry',
+      'A lake must be a GeoJSON Polygon or MultiPolygon.',
+      'lake',
+    )
   }
   const polygons = polygonsOf(lake)
-  if (!polygons.length) throw new DomainError('invalid_geometry', 'The lake has no polygons.', 'lake')
+  if (!polygons.length)
+    throw new DomainError('invalid_geometry', 'The lake has no polygons.', 'lake')
   polygons.forEach((rings, i) => {
-    if (!rings.length) throw new DomainError('invalid_geometry', `Polygon ${i} has no rings.`, 'lake')
+    if (!rings.length)
+      throw new DomainError('invalid_geometry', `Polygon ${i} has no rings.`, 'lake')
     rings.forEach((ring, j) => {
       const where = `polygon ${i}, ring ${j}`
       if (!Array.isArray(ring) || ring.length < 4) {
-        throw new DomainError('invalid_geometry', `The ring at ${where} needs at least 4 positions.`, 'lake')
+        throw new DomainError(
+          'invalid_geometry',
+          `The ring at ${where} needs at least 4 positions.`,
+          'lake',
+        )
       }
       for (const p of ring) {
         const [lon, lat] = p
-        if (!Number.isFinite(lon) || !Number.isFinite(lat) || Math.abs(lon) > 180 || Math.abs(lat) > 90) {
-          throw new DomainError('invalid_geometry', `The ring at ${where} has a position outside WGS84.`, 'lake')
+        if (
+          !Number.isFinite(lon) ||
+          !Number.isFinite(lat) ||
+          Math.abs(lon) > 180 ||
+          Math.abs(lat) > 90
+        ) {
+          throw new DomainError(
+            'invalid_geometry',
+            `The ring at ${where} has a position outside WGS84.`,
+            'lake',
+          )
         }
       }
       const first = ring[0]!
       const last = ring[ring.length - 1]!
       if (first[0] !== last[0] || first[1] !== last[1]) {
-        throw new DomainError('invalid_geometry', `The ring at ${where} is open: its last position must repeat its first.`, 'lake')
+        throw new DomainError(
+          'invalid_geometry',
+          `The ring at ${where} is open: its last position must repeat its first.`,
+          'lake',
+        )
       }
     })
   })

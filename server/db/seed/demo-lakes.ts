@@ -131,7 +131,9 @@ export function demoShoreline(shape: DemoLakeShape): Polygon {
   const minRadius = Math.min(...radii)
   // Counter-clockwise in map terms means bearings decreasing.
   const shore = bearings
-    .map((b, i) => toPosition(shape.center, radii[i]! * Math.sin(b * DEG), radii[i]! * Math.cos(b * DEG)))
+    .map((b, i) =>
+      toPosition(shape.center, radii[i]! * Math.sin(b * DEG), radii[i]! * Math.cos(b * DEG)),
+    )
     .reverse()
   const islands = shape.islands.map((island) => {
     const cx = island.distance * minRadius * Math.sin(island.atDeg * DEG)
@@ -141,7 +143,11 @@ export function demoShoreline(shape: DemoLakeShape): Polygon {
       Array.from({ length: ISLAND_VERTICES }, (_, i) => {
         const b = (360 * i) / ISLAND_VERTICES
         const r = size * (1 + 0.2 * Math.cos(3 * b * DEG + island.atDeg))
-        return toPosition(shape.center, cx + r * Math.sin(b * DEG), cy + 0.7 * r * Math.cos(b * DEG))
+        return toPosition(
+          shape.center,
+          cx + r * Math.sin(b * DEG),
+          cy + 0.7 * r * Math.cos(b * DEG),
+        )
       }),
     )
   })

@@ -36,8 +36,5 @@ export async function seedDemo(db: Db): Promise<void> {
       centerLat,
     }
   })
-  await db
-    .insert(lakes)
-    .values(rows)
-    .onConflictDoNothing({ target: lakes.slug })
+  await db.insert(lakes).values(rows).onConflictDoNothing({ target: lakes.slug })
 }

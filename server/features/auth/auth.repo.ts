@@ -32,7 +32,10 @@ export function authRepo(db: Db) {
       await db.update(users).set({ passwordHash }).where(eq(users.id, userId))
     },
     async createSession(userId: string, expiresAt: Date) {
-      const [row] = await db.insert(sessions).values({ userId, expiresAt }).returning({ id: sessions.id })
+      const [row] = await db
+        .insert(sessions)
+        .values({ userId, expiresAt })
+        .returning({ id: sessions.id })
       return row!.id
     },
     /** The user behind a live (unrevoked, unexpired) session. */

@@ -43,10 +43,15 @@ export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
     res.json({ user: currentUser(req) })
   })
 
-  router.post('/me/password', requireSignIn, validate({ body: PasswordChangeInput }), async (req, res) => {
-    const body = input(PasswordChangeInput, req.body)
-    respondWithSession(res, 200, await auth.changePassword(currentUser(req), body))
-  })
+  router.post(
+    '/me/password',
+    requireSignIn,
+    validate({ body: PasswordChangeInput }),
+    async (req, res) => {
+      const body = input(PasswordChangeInput, req.body)
+      respondWithSession(res, 200, await auth.changePassword(currentUser(req), body))
+    },
+  )
 
   return router
 }

@@ -1,8 +1,18 @@
-import type { PasswordChangeInput, SignInInput, SignUpInput, User } from '../../../shared/schemas/auth'
+import type {
+  PasswordChangeInput,
+  SignInInput,
+  SignUpInput,
+  User,
+} from '../../../shared/schemas/auth'
 import { HttpError } from '../../http/errors'
 import type { AuthRepo, publicUserColumns } from './auth.repo'
 import { decoyPasswordHash, hashPassword, verifyPassword } from './passwords'
-import { SESSION_DAYS, signSessionToken, type SessionClaims, verifySessionToken } from './auth.tokens'
+import {
+  SESSION_DAYS,
+  signSessionToken,
+  type SessionClaims,
+  verifySessionToken,
+} from './auth.tokens'
 
 type UserRow = { [K in keyof typeof publicUserColumns]: (typeof publicUserColumns)[K]['_']['data'] }
 
@@ -16,7 +26,11 @@ export interface IssuedSession {
   expiresAt: Date
 }
 
-const INVALID_CREDENTIALS = new HttpError(401, 'invalid_credentials', 'E-mail or password is incorrect.')
+const INVALID_CREDENTIALS = new HttpError(
+  401,
+  'invalid_credentials',
+  'E-mail or password is incorrect.',
+)
 
 export function authService(repo: AuthRepo, key: Uint8Array) {
   async function issue(user: User): Promise<IssuedSession> {
@@ -39,7 +53,10 @@ export function authService(repo: AuthRepo, key: Uint8Array) {
 
     async signIn(input: SignInInput): Promise<IssuedSession> {
       const row = await repo.findByEmail(input.email)
-      const ok = await verifyPassword(row?.passwordHash ?? (await decoyPasswordHash()), input.password)
+      const ok = await verifyPassword(
+        row?.passwordHash ?? (await decoyPasswordHash()),
+        input.password,
+      )
       if (!row || !ok) throw INVALID_CREDENTIALS
       return issue(toUser(row))
     },

@@ -22,7 +22,10 @@ export async function signSessionToken(key: Uint8Array, claims: SessionClaims, e
 }
 
 /** The claims of a valid token, or null for anything forged, expired or malformed. */
-export async function verifySessionToken(key: Uint8Array, token: string): Promise<SessionClaims | null> {
+export async function verifySessionToken(
+  key: Uint8Array,
+  token: string,
+): Promise<SessionClaims | null> {
   try {
     const { payload } = await jwtVerify(token, key, { algorithms: ['HS256'] })
     if (typeof payload.sub !== 'string' || typeof payload.sid !== 'string') return null

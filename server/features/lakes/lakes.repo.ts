@@ -8,7 +8,9 @@ export function lakesRepo(db: Db) {
   return {
     async list(query: LakeListQuery) {
       const pattern = query.q && `%${escapeLike(query.q)}%`
-      const where = pattern ? or(ilike(lakes.name, pattern), ilike(lakes.region, pattern)) : undefined
+      const where = pattern
+        ? or(ilike(lakes.name, pattern), ilike(lakes.region, pattern))
+        : undefined
       const columns = {
         id: lakes.id,
         slug: lakes.slug,

@@ -25,7 +25,11 @@ export function usersRepo(db: Db) {
       return { rows, total: total?.n ?? 0 }
     },
     async setRole(id: string, role: Role) {
-      const [row] = await db.update(users).set({ role }).where(eq(users.id, id)).returning(publicUserColumns)
+      const [row] = await db
+        .update(users)
+        .set({ role })
+        .where(eq(users.id, id))
+        .returning(publicUserColumns)
       return row
     },
   }

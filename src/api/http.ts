@@ -1,0 +1,67 @@
+import type { z } from 'zod'
+import { ApiErrorBody } from '@shared/schemas/errors'
+
+/** A failed API call, carrying the server's code and per-field messages. */
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields: Record<string, string> = {},
+  ) {
+    super(message)
+    this.name = 'ApiError'
+  }
+}
+
+interface RequestOptions {
+  method?: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE'
+  body?: unknown
+  query?: Record<string, string | number | undefined>
+}
+
+/** One way to call the API: same-origin cookies, JSON both ways, responses parsed by the shared schema. */
+export async function apiRequest<S extends z.ZodType>(
+  schema: S,
+  path: string,
+  opts: RequestOptions = {},
+): Promise<z.output<S>> {
+  const res = await send(path, opts)
+  return schema.parse(await res.json())
+}
+
+/** For endpoints that answer 204 No Content. */
+export async function apiCommand(path: string, opts: RequestOptions = {}): Promise<void> {
+  await send(path, { method: 'POST', ...opts })
+}
+
+async function send(path: string, opts: RequestOptions): Promise<Response> {
+  const params = new URLSearchParams()
+  for (const [k, v] of Object.entries(opts.query ?? {}))
+    if (v !== undefined && v !== '') params.set(k, String(v))
+  const url = `/api${path}${params.size ? `?${params}` : ''}`
+  let res: Response
+  try {
+    res = await fetch(url, {
+      method: opts.method ?? 'GET',
+      credentials: 'same-origin',
+      headers: opts.body === undefined ? {} : { 'content-type': 'application/json' },
+      body: opts.body === undefined ? undefined : JSON.stringify(opts.body),
+    })
+  } catch {
+    throw new ApiError(
+      0,
+      'offline',
+      'Chopline cannot be reached. Check your connection and try again.',
+    )
+  }
+  if (!res.ok) {
+    const parsed = ApiErrorBody.safeParse(await res.json().catch(() => null))
+    if (parsed.success) {
+      const { code, message, fields } = parsed.data.error
+      throw new ApiError(res.status, code, message, fields)
+    }
+    throw new ApiError(res.status, 'http_error', `The server answered ${res.status}.`)
+  }
+  return res
+}

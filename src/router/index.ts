@@ -1,0 +1,69 @@
+import { createRouter, createWebHistory } from 'vue-router'
+import type { Role } from '@shared/schemas/auth'
+import { useAuthStore } from '@/stores/auth'
+import HomeView from '@/views/HomeView.vue'
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** The least role that may open the page; absent for public pages. */
+    role?: Role
+    /** Pages for signed-out visitors only (sign in, sign up). */
+    guestOnly?: boolean
+    title?: string
+  }
+}
+
+const router = createRouter({
+  history: createWebHistory(),
+  routes: [
+    { path: '/', name: 'home', component: HomeView, meta: { title: 'Chopline' } },
+    {
+      path: '/signin',
+      name: 'signin',
+      component: () => import('@/views/SignInView.vue'),
+      meta: { guestOnly: true, title: 'Sign in' },
+    },
+    {
+      path: '/signup',
+      name: 'signup',
+      component: () => import('@/views/SignUpView.vue'),
+      meta: { guestOnly: true, title: 'Create an account' },
+    },
+    {
+      path: '/lakes',
+      name: 'lakes',
+      component: () => import('@/views/LakesView.vue'),
+      meta: { role: 'angler', title: 'Lakes' },
+    },
+    {
+      path: '/admin/users',
+      name: 'admin-users',
+      component: () => import('@/views/AdminUsersView.vue'),
+      meta: { role: 'admin', title: 'Users' },
+    },
+    {
+      path: '/:pathMatch(.*)*',
+      name: 'not-found',
+      component: () => import('@/views/NotFoundView.vue'),
+      meta: { title: 'Not found' },
+    },
+  ],
+})
+
+router.beforeEach(async (to) => {
+  const auth = useAuthStore()
+  if (!auth.checked) await auth.load().catch(() => undefined)
+  if (to.meta.guestOnly && auth.signedIn) return { name: 'lakes' }
+  if (!to.meta.role) return true
+  if (!auth.signedIn) return { name: 'signin', query: { redirect: to.fullPath } }
+  if (!auth.can(to.meta.role))
+    return { name: 'not-found', params: { pathMatch: to.path.slice(1).split('/') } }
+  return true
+})
+
+router.afterEach((to) => {
+  document.title =
+    to.meta.title && to.meta.title !== 'Chopline' ? `${to.meta.title} · Chopline` : 'Chopline'
+})
+
+export default router

@@ -1,0 +1,48 @@
+import { acceptHMRUpdate, defineStore } from 'pinia'
+import { computed, ref } from 'vue'
+import {
+  roleAllows,
+  type Role,
+  type SignInInput,
+  type SignUpInput,
+  type User,
+} from '@shared/schemas/auth'
+import { authApi } from '@/api/auth'
+import { ApiError } from '@/api/http'
+
+export const useAuthStore = defineStore('auth', () => {
+  const user = ref<User | null>(null)
+  /** Whether /api/me has been asked once since the page loaded. */
+  const checked = ref(false)
+
+  const signedIn = computed(() => user.value !== null)
+  const can = (role: Role) => user.value !== null && roleAllows(user.value.role, role)
+
+  async function load() {
+    try {
+      user.value = (await authApi.me()).user
+    } catch (err) {
+      if (!(err instanceof ApiError) || err.status !== 401) throw err
+      user.value = null
+    } finally {
+      checked.value = true
+    }
+  }
+
+  async function signIn(input: SignInInput) {
+    user.value = (await authApi.signIn(input)).user
+  }
+
+  async function signUp(input: SignUpInput) {
+    user.value = (await authApi.signUp(input)).user
+  }
+
+  async function signOut() {
+    await authApi.signOut()
+    user.value = null
+  }
+
+  return { user, checked, signedIn, can, load, signIn, signUp, signOut }
+})
+
+if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useAuthStore, import.meta.hot))

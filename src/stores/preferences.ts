@@ -1,0 +1,24 @@
+import { acceptHMRUpdate, defineStore } from 'pinia'
+import { ref, watch } from 'vue'
+
+export type ColorScheme = 'light' | 'dark'
+
+const KEY = 'chopline.colorScheme'
+
+function initialScheme(): ColorScheme {
+  const saved = localStorage.getItem(KEY)
+  if (saved === 'light' || saved === 'dark') return saved
+  return window.matchMedia?.('(prefers-color-scheme: dark)').matches ? 'dark' : 'light'
+}
+
+/** Device-level display choices; per-user settings (units, home lake) live on the server. */
+export const usePreferencesStore = defineStore('preferences', () => {
+  const colorScheme = ref<ColorScheme>(initialScheme())
+  watch(colorScheme, (value) => localStorage.setItem(KEY, value))
+  const toggleColorScheme = () => {
+    colorScheme.value = colorScheme.value === 'dark' ? 'light' : 'dark'
+  }
+  return { colorScheme, toggleColorScheme }
+})
+
+if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(usePreferencesStore, import.meta.hot))

@@ -1,0 +1,38 @@
+import type { GlobalThemeOverrides } from 'naive-ui'
+
+const font = "'Barlow', system-ui, -apple-system, 'Segoe UI', sans-serif"
+
+/** Colours taken from water: tannin, olive, jade, lake blue, glacier. */
+export const palette = {
+  lake: '#1f5f7a',
+  lakeHover: '#2a7896',
+  lakePressed: '#174a5f',
+  tannin: '#7a5230',
+  olive: '#6f7334',
+  jade: '#3f8f74',
+  lakeBlue: '#2f7fa8',
+  glacier: '#9fd3e0',
+}
+
+export const themeOverrides: GlobalThemeOverrides = {
+  common: {
+    fontFamily: font,
+    fontFamilyMono: "ui-monospace, 'SFMono-Regular', Menlo, monospace",
+    fontSize: '15px',
+    primaryColor: palette.lake,
+    primaryColorHover: palette.lakeHover,
+    primaryColorPressed: palette.lakePressed,
+    primaryColorSuppl: palette.lakeHover,
+    borderRadius: '6px',
+  },
+}
+
+export const darkThemeOverrides: GlobalThemeOverrides = {
+  common: {
+    ...themeOverrides.common,
+    primaryColor: palette.glacier,
+    primaryColorHover: '#b8e2eb',
+    primaryColorPressed: '#7fbccc',
+    primaryColorSuppl: '#b8e2eb',
+  },
+}

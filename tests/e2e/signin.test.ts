@@ -1,0 +1,67 @@
+import type { AddressInfo } from 'node:net'
+import type { Server } from 'node:http'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed/index'
+import { clientDir } from '../../server/index'
+import { artifactsDir, launchBrowser } from '../helpers/browser'
+import { createTestDb } from '../helpers/db'
+import { testApp } from '../helpers/app'
+
+let ctx: Awaited<ReturnType<typeof createTestDb>>
+let server: Server
+let browser: Awaited<ReturnType<typeof launchBrowser>>
+let base: string
+
+beforeAll(async () => {
+  ctx = await createTestDb()
+  await seedDemo(ctx.db)
+  // The built client (npm test runs vite build first), served exactly as npm start serves it.
+  server = testApp(ctx.db, { staticDir: clientDir }).listen(0, '127.0.0.1')
+  await new Promise((resolve) => server.once('listening', resolve))
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
+  browser = await launchBrowser()
+})
+
+afterAll(async () => {
+  await browser?.close()
+  server?.close()
+  await ctx?.drop()
+})
+
+describe('sign-in in Chromium', () => {
+  it('signs the demo angler in through the real page and lands on Lakes', async () => {
+    const page = await browser.context.newPage()
+    await page.goto(`${base}/lakes`)
+    // A guarded page sends a signed-out visitor to sign in, remembering where they were going.
+    await page.waitForURL(/\/signin\?redirect=/)
+    await page.getByLabel('E-mail').fill('angler@chopline.test')
+    await page.getByLabel('Password').fill(DEMO_PASSWORD)
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.waitForURL(`${base}/lakes`)
+    await expect.poll(() => page.getByRole('heading', { name: 'Lakes' }).isVisible()).toBe(true)
+    await page.getByText('Quillmere Reservoir').waitFor()
+    await expect
+      .poll(() => page.getByRole('navigation', { name: 'Main' }).innerText())
+      .not.toContain('Users')
+    await page.screenshot({ path: join(artifactsDir, 'signin-lakes.png'), fullPage: true })
+    await page.close()
+  })
+
+  it('shows the server message for a wrong password and the admin link for an admin', async () => {
+    // Signed in, /signin would send us on to Lakes.
+    await browser.context.clearCookies()
+    const page = await browser.context.newPage()
+    await page.goto(`${base}/signin`)
+    await page.getByLabel('E-mail').fill('admin@chopline.test')
+    await page.getByLabel('Password').fill('not the password')
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.getByRole('alert').filter({ hasText: 'E-mail or password is incorrect.' }).waitFor()
+    await page.getByLabel('Password').fill(DEMO_PASSWORD)
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.getByRole('link', { name: 'Users' }).click()
+    await page.getByText('guide@chopline.test').waitFor()
+    await page.screenshot({ path: join(artifactsDir, 'admin-users.png'), fullPage: true })
+    await page.close()
+  })
+})

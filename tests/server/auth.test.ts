@@ -1,0 +1,192 @@
+import { Writable } from 'node:stream'
+import { count, eq } from 'drizzle-orm'
+import { pino } from 'pino'
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { users } from '../../server/db/schema/index'
+import { SESSION_COOKIE } from '../../server/features/auth/auth.tokens'
+import { createTestDb } from '../helpers/db'
+import { PASSWORD, signedInAgent, testApp } from '../helpers/app'
+
+let ctx: Awaited<ReturnType<typeof createTestDb>>
+let app: ReturnType<typeof testApp>
+const logLines: string[] = []
+
+beforeAll(async () => {
+  ctx = await createTestDb()
+  const sink = new Writable({
+    write(chunk, _enc, done) {
+      logLines.push(String(chunk))
+      done()
+    },
+  })
+  app = testApp(ctx.db, { logger: pino({ level: 'info' }, sink) })
+})
+afterAll(() => ctx.drop())
+
+function sessionCookie(res: request.Response): string {
+  const raw = ([] as string[]).concat(res.headers['set-cookie'] ?? [])
+  const cookie = raw.find((c) => c.startsWith(`${SESSION_COOKIE}=`))
+  if (!cookie) throw new Error('no session cookie')
+  return cookie
+}
+
+describe('sign-up, sign-in, sign-out', () => {
+  it('round-trips a session through an httpOnly, SameSite=Lax cookie', async () => {
+    const signup = await request(app)
+      .post('/api/auth/signup')
+      .send({ email: '  Casey@Example.TEST ', password: PASSWORD })
+      .expect(201)
+    expect(signup.body.user).toMatchObject({ email: 'casey@example.test', role: 'angler' })
+    expect(Object.keys(signup.body.user).sort()).toEqual(['createdAt', 'email', 'id', 'role'])
+    const cookie = sessionCookie(signup)
+    expect(cookie).toMatch(/HttpOnly/i)
+    expect(cookie).toMatch(/SameSite=Lax/i)
+
+    const signin = await request(app)
+      .post('/api/auth/signin')
+      .send({ email: 'casey@example.test', password: PASSWORD })
+      .expect(200)
+    const session = sessionCookie(signin).split(';')[0]!
+    // The token travels only in the cookie, never in a body.
+    expect(JSON.stringify(signin.body)).not.toContain(session.split('=')[1])
+
+    const me = await request(app).get('/api/me').set('Cookie', session).expect(200)
+    expect(me.body.user.email).toBe('casey@example.test')
+
+    await request(app).post('/api/auth/signout').set('Cookie', session).expect(204)
+    // The same token after sign-out is a revoked session.
+    const after = await request(app).get('/api/me').set('Cookie', session).expect(401)
+    expect(after.body.error.code).toBe('unauthenticated')
+  })
+
+  it('answers an unknown e-mail and a wrong password the same way', async () => {
+    await request(app)
+      .post('/api/auth/signup')
+      .send({ email: 'jo@example.test', password: PASSWORD })
+      .expect(201)
+    const wrong = await request(app)
+      .post('/api/auth/signin')
+      .send({ email: 'jo@example.test', password: 'not the password' })
+      .expect(401)
+    const unknown = await request(app)
+      .post('/api/auth/signin')
+      .send({ email: 'nobody@example.test', password: 'not the password' })
+      .expect(401)
+    expect(wrong.body).toEqual(unknown.body)
+    expect(wrong.body.error.code).toBe('invalid_credentials')
+  })
+
+  it('refuses a second account for the same e-mail with a field message', async () => {
+    await request(app)
+      .post('/api/auth/signup')
+      .send({ email: 'dup@example.test', password: PASSWORD })
+      .expect(201)
+    const res = await request(app)
+      .post('/api/auth/signup')
+      .send({ email: 'DUP@example.test', password: PASSWORD })
+      .expect(409)
+    expect(res.body.error.fields.email).toMatch(/already exists/)
+  })
+
+  it('rejects a forged token', async () => {
+    const res = await request(app)
+      .get('/api/me')
+      .set('Cookie', `${SESSION_COOKIE}=eyJhbGciOiJIUzI1NiJ9.eyJzdWIiOiJ4Iiwic2lkIjoieSJ9.bad`)
+      .expect(401)
+    expect(res.body.error.code).toBe('unauthenticated')
+  })
+
+  it('ends every session when the password changes', async () => {
+    const agent = await signedInAgent(app, ctx.db, 'pat@example.test')
+    const other = request.agent(app)
+    await other
+      .post('/api/auth/signin')
+      .send({ email: 'pat@example.test', password: PASSWORD })
+      .expect(200)
+    await agent
+      .post('/api/me/password')
+      .send({ currentPassword: PASSWORD, newPassword: 'a brand new password' })
+      .expect(200)
+    await other.get('/api/me').expect(401)
+    // The agent that changed it holds the fresh session.
+    await agent.get('/api/me').expect(200)
+    const wrong = await agent
+      .post('/api/me/password')
+      .send({ currentPassword: 'nope', newPassword: 'another new password' })
+      .expect(400)
+    expect(wrong.body.error.fields.currentPassword).toBeTruthy()
+  })
+})
+
+describe('bad input', () => {
+  it.each([
+    [{}, ['email', 'password']],
+    [{ email: 'not-an-email', password: PASSWORD }, ['email']],
+    [{ email: 'ok@example.test', password: 'short' }, ['password']],
+    [{ email: 42, password: ['x'] }, ['email', 'password']],
+  ])('sign-up with %j gets 400 naming %j and writes nothing', async (body, fields) => {
+    const [before] = await ctx.db.select({ n: count() }).from(users)
+    const res = await request(app).post('/api/auth/signup').send(body).expect(400)
+    expect(res.body.error.code).toBe('invalid_input')
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(fields)
+    const [after] = await ctx.db.select({ n: count() }).from(users)
+    expect(after!.n).toBe(before!.n)
+  })
+
+  it('gets 400 for malformed JSON, 413 for a huge body, JSON 404 for an unknown route', async () => {
+    const malformed = await request(app)
+      .post('/api/auth/signin')
+      .set('content-type', 'application/json')
+      .send('{"email":')
+      .expect(400)
+    expect(malformed.body.error.code).toBe('invalid_json')
+    const huge = await request(app)
+      .post('/api/auth/signin')
+      .send({ email: 'a@example.test', password: 'x'.repeat(200_000) })
+      .expect(413)
+    expect(huge.body.error.code).toBe('payload_too_large')
+    const missing = await request(app).get('/api/no-such-thing').expect(404)
+    expect(missing.body.error).toMatchObject({ code: 'not_found' })
+  })
+})
+
+describe('defences', () => {
+  it('refuses a state-changing request from another origin', async () => {
+    const res = await request(app)
+      .post('/api/auth/signin')
+      .set('Origin', 'https://evil.example')
+      .send({ email: 'jo@example.test', password: PASSWORD })
+      .expect(403)
+    expect(res.body.error.code).toBe('cross_origin')
+  })
+
+  it('rate-limits sign-in with 429', async () => {
+    const limited = testApp(ctx.db, { authRateLimit: { windowMs: 60_000, limit: 3 } })
+    for (let i = 0; i < 3; i++) {
+      await request(limited)
+        .post('/api/auth/signin')
+        .send({ email: 'x@example.test', password: 'wrong' })
+        .expect(401)
+    }
+    const res = await request(limited)
+      .post('/api/auth/signin')
+      .send({ email: 'x@example.test', password: 'wrong' })
+      .expect(429)
+    expect(res.body.error.code).toBe('rate_limited')
+  })
+
+  it('never writes a password, hash or session token to the log', async () => {
+    const res = await request(app)
+      .post('/api/auth/signup')
+      .send({ email: 'log@example.test', password: PASSWORD })
+    const token = sessionCookie(res).split(';')[0]!.split('=')[1]!
+    await request(app).get('/api/me').set('Cookie', `${SESSION_COOKIE}=${token}`).expect(200)
+    const [row] = await ctx.db.select().from(users).where(eq(users.email, 'log@example.test'))
+    const log = logLines.join('')
+    expect(log).toContain('request completed')
+    expect(log).not.toContain(PASSWORD)
+    expect(log).not.toContain(token)
+    expect(log).not.toContain(row!.passwordHash)
+  })
+})
