@@ -1,0 +1,155 @@
+import { assertFinite, DomainError } from '../errors'
+import { effectiveFetch, fetchLength, shoreIndex } from '../geo/fetch'
+import { inWaterXy } from '../geo/polygon'
+import type { LakeGeometry, Position } from '../geo/types'
+import { waveGrowth } from './waves'
+
+/** cos of the angle between where the bank looks out and where the wind comes from: 1 onto the bank, -1 off it. */
+export function onshoreComponent(bankFacingDeg: number, windFromDeg: number): number {
+  assertFinite(bankFacingDeg, 'bankFacingDeg')
+  assertFinite(windFromDeg, 'windFromDeg')
+  return Math.cos(((windFromDeg - bankFacingDeg) * Math.PI) / 180)
+}
+
+/** The 16 compass points, clockwise from north. */
+export const COMPASS_16 = Array.from({ length: 16 }, (_, i) => i * 22.5)
+const COMPASS_NAMES = [
+  'N',
+  'NNE',
+  'NE',
+  'ENE',
+  'E',
+  'ESE',
+  'SE',
+  'SSE',
+  'S',
+  'SSW',
+  'SW',
+  'WSW',
+  'W',
+  'WNW',
+  'NW',
+  'NNW',
+]
+
+export function compassName(deg: number): string {
+  return COMPASS_NAMES[Math.round((((deg % 360) + 360) % 360) / 22.5) % 16]!
+}
+
+export interface ExposureRow {
+  windFromDeg: number
+  fetchM: number
+  effectiveFetchM: number
+}
+
+/** What the server stores for each saved bank, so a day plan never recomputes geometry. */
+export interface ExposureTable {
+  point: Position
+  facingDeg: number
+  rows: ExposureRow[]
+}
+
+/** The middle of a bank's polyline, measured along it. */
+export function bankMidpoint(points: Position[]): Position {
+  if (points.length < 1)
+    throw new DomainError('invalid_geometry', 'A bank needs at least one point.', 'points')
+  if (points.length === 1) return points[0]!
+  // Degrees of longitude shrink with latitude; this weighting is enough to find a middle.
+  const k = Math.cos((points[0]![1] * Math.PI) / 180)
+  const lens = points
+    .slice(1)
+    .map((p, i) => Math.hypot((p[0] - points[i]![0]) * k, p[1] - points[i]![1]))
+  let half = lens.reduce((a, b) => a + b, 0) / 2
+  for (let i = 0; i < lens.length; i++) {
+    if (half <= lens[i]!) {
+      const f = lens[i]! ? half / lens[i]! : 0
+      const a = points[i]!
+      const b = points[i + 1]!
+      return [a[0] + (b[0] - a[0]) * f, a[1] + (b[1] - a[1]) * f]
+    }
+    half -= lens[i]!
+  }
+  return points[points.length - 1]!
+}
+
+/**
+ * The true bearing a bank looks out over the water: square to the line from its first to its last
+ * point, on the side where the water is.
+ */
+export function bankFacing(lake: LakeGeometry, points: Position[]): number {
+  if (points.length < 2)
+    throw new DomainError('invalid_geometry', 'A bank needs at least two points.', 'points')
+  const index = shoreIndex(lake)
+  const { project } = index.projection
+  const a = project(points[0]!)
+  const b = project(points[points.length - 1]!)
+  const m = project(bankMidpoint(points))
+  const len = Math.hypot(b[0] - a[0], b[1] - a[1])
+  if (len < 1)
+    throw new DomainError('invalid_geometry', 'A bank must be at least 1 m long.', 'points')
+  // Left normal of a -> b, then flip it if that side is land.
+  let nx = -(b[1] - a[1]) / len
+  let ny = (b[0] - a[0]) / len
+  if (!inWaterXy(index.rings, [m[0] + nx * 5, m[1] + ny * 5])) {
+    nx = -nx
+    ny = -ny
+  }
+  // On the tangent plane near the lake, grid and true north differ by well under a degree.
+  const north = index.projection.bearingVector(bankMidpoint(points), 0)
+  const east: [number, number] = [north[1], -north[0]]
+  const deg =
+    (Math.atan2(nx * east[0] + ny * east[1], nx * north[0] + ny * north[1]) * 180) / Math.PI
+  return (deg + 360) % 360
+}
+
+export function exposureTable(lake: LakeGeometry, points: Position[]): ExposureTable {
+  const point = bankMidpoint(points)
+  return {
+    point,
+    facingDeg: bankFacing(lake, points),
+    rows: COMPASS_16.map((windFromDeg) => ({
+      windFromDeg,
+      fetchM: fetchLength(lake, point, windFromDeg),
+      effectiveFetchM: effectiveFetch(lake, point, windFromDeg),
+    })),
+  }
+}
+
+/** Effective fetch for any direction, interpolated between the two nearest compass points. */
+export function fetchFromTable(table: ExposureTable, windFromDeg: number): number {
+  const deg = ((windFromDeg % 360) + 360) % 360
+  const i = Math.floor(deg / 22.5) % 16
+  const f = (deg - i * 22.5) / 22.5
+  const a = table.rows[i]!.effectiveFetchM
+  const b = table.rows[(i + 1) % 16]!.effectiveFetchM
+  return a + (b - a) * f
+}
+
+export type ExposureClass = 'lee' | 'side wind' | 'windward' | 'rough'
+
+export interface BankExposure {
+  exposure: ExposureClass
+  onshore: number
+  fetchM: number
+  waveHeightM: number
+}
+
+/**
+ * Our classes: lee when the wind blows off the bank (onshore < -0.34, i.e. more than 110° off) or
+ * crosses too little water to raise a ripple; side wind within ±70° of along-shore; windward when it
+ * blows onto the bank; rough when waves there reach 0.3 m (1 ft), a chop a small boat notices.
+ */
+export function bankExposure(
+  table: ExposureTable,
+  windFromDeg: number,
+  windMs: number,
+): BankExposure {
+  const onshore = onshoreComponent(table.facingDeg, windFromDeg)
+  const fetchM = fetchFromTable(table, windFromDeg)
+  const waveHeightM = onshore > 0 ? waveGrowth(windMs, fetchM).heightM : 0
+  let exposure: ExposureClass
+  if (onshore < -0.34 || fetchM < 50 || windMs < 1) exposure = 'lee'
+  else if (onshore < 0.34) exposure = 'side wind'
+  else exposure = waveHeightM >= 0.3 ? 'rough' : 'windward'
+  return { exposure, onshore, fetchM, waveHeightM }
+}

@@ -1,0 +1,203 @@
+import type { LakeGeometry, Position } from '../geo/types'
+import type { ClarityClass } from './clarity'
+import { bankExposure, exposureTable, type BankExposure, type ExposureTable } from './exposure'
+import type { SeasonalPhase } from './season'
+import type { Cover, Sky } from './tackle-rules'
+
+export interface Bank {
+  id: string
+  name: string
+  /** Two or more points along the shoreline. */
+  points: Position[]
+  cover: Cover[]
+  depthM?: number
+  /** Stored when the bank is saved; computed here when absent. */
+  exposure?: ExposureTable
+}
+
+export interface WindowWeather {
+  windFromDeg: number
+  windMs: number
+  gustMs: number
+  sky: Sky
+  /** Low sun (dawn, dusk) rather than midday light. */
+  lowLight?: boolean
+}
+
+export interface RankConditions {
+  clarity: ClarityClass
+  waterC: number
+  phase: SeasonalPhase
+}
+
+export type ScoreKey = 'wind' | 'cover' | 'depth' | 'clarity' | 'light' | 'safety'
+
+export interface ScoreComponent {
+  key: ScoreKey
+  points: number
+  reason: string
+}
+
+export interface RankedBank {
+  id: string
+  name: string
+  rank: number
+  /** The sum of the components' points. */
+  score: number
+  components: ScoreComponent[]
+  exposure: BankExposure
+}
+
+/** Cover each phase favours (common practice), 1 = prime. */
+const PHASE_COVER: Record<SeasonalPhase, Partial<Record<Cover, number>>> = {
+  winter: { rock: 1, wood: 0.5 },
+  'early-pre-spawn': { wood: 1, 'sparse-grass': 1, rock: 1 },
+  'pre-spawn': { rock: 1, 'sparse-grass': 1, wood: 1 },
+  spawn: { 'sparse-grass': 1, docks: 1, wood: 0.5 },
+  'post-spawn': { docks: 1, wood: 0.5, 'sparse-grass': 0.5 },
+  summer: { 'dense-grass': 1, docks: 1, rock: 1 },
+  fall: { wood: 1, 'sparse-grass': 1, rock: 0.5 },
+}
+
+/** Depth a cast off the bank that suits each phase, metres (common practice; about 10 ft before the spawn). */
+const PHASE_DEPTH_M: Record<SeasonalPhase, [number, number]> = {
+  winter: [4, 9],
+  'early-pre-spawn': [2, 4],
+  'pre-spawn': [2, 4],
+  spawn: [0.5, 2],
+  'post-spawn': [1.5, 4],
+  summer: [3, 7],
+  fall: [1, 3.5],
+}
+
+const SHADE: Cover[] = ['docks', 'dense-grass', 'wood']
+
+function windPoints(x: BankExposure, w: WindowWeather, c: RankConditions): ScoreComponent {
+  const calmColdSun = c.phase === 'early-pre-spawn' && w.windMs < 2.5 && w.sky === 'sun'
+  if (calmColdSun) {
+    return x.exposure === 'lee'
+      ? {
+          key: 'wind',
+          points: 1,
+          reason: 'Calm, sunny early pre-spawn: sheltered water warms first.',
+        }
+      : { key: 'wind', points: 0.5, reason: 'Calm day; little wind reaches any bank.' }
+  }
+  switch (x.exposure) {
+    case 'windward': {
+      const strength = w.windMs >= 2.5 ? 1 : 0.5
+      return {
+        key: 'wind',
+        points: 2 * x.onshore * strength,
+        reason: 'Wind blows onto this bank and stirs bait along it.',
+      }
+    }
+    case 'rough':
+      return {
+        key: 'wind',
+        points: 1,
+        reason: `Wind onto the bank, but waves near ${x.waveHeightM.toFixed(1)} m make it hard to fish.`,
+      }
+    case 'side wind':
+      return { key: 'wind', points: 0.5, reason: 'Wind runs along this bank.' }
+    case 'lee':
+      return { key: 'wind', points: 0, reason: 'Sheltered from the wind.' }
+  }
+}
+
+function coverPoints(bank: Bank, c: RankConditions): ScoreComponent {
+  const favoured = PHASE_COVER[c.phase]
+  const scores = bank.cover.map((cover) => favoured[cover] ?? 0).sort((a, b) => b - a)
+  const points = (scores[0] ?? 0) + 0.25 * scores.slice(1).reduce((a, b) => a + b, 0)
+  const best = bank.cover.filter((cover) => (favoured[cover] ?? 0) >= 1)
+  return {
+    key: 'cover',
+    points,
+    reason: best.length
+      ? `${best.join(', ')} suits the ${c.phase} phase.`
+      : `Cover here is not what the ${c.phase} phase favours.`,
+  }
+}
+
+function depthPoints(bank: Bank, c: RankConditions): ScoreComponent {
+  if (bank.depthM === undefined)
+    return { key: 'depth', points: 0, reason: 'Depth off the bank not recorded.' }
+  const [lo, hi] = PHASE_DEPTH_M[c.phase]
+  const off = bank.depthM < lo ? lo - bank.depthM : bank.depthM > hi ? bank.depthM - hi : 0
+  const points = off === 0 ? 1 : off <= 1 ? 0.5 : 0
+  return {
+    key: 'depth',
+    points,
+    reason: `${bank.depthM.toFixed(1)} m a cast out; ${lo}-${hi} m suits the ${c.phase} phase.`,
+  }
+}
+
+function clarityPoints(bank: Bank, x: BankExposure, c: RankConditions): ScoreComponent {
+  const dirty = c.clarity === 'stained' || c.clarity === 'muddy'
+  if (dirty && bank.cover.some((cover) => cover !== 'open' && cover !== 'rock')) {
+    return {
+      key: 'clarity',
+      points: 0.5,
+      reason: 'Stained water pulls fish tight to shallow cover.',
+    }
+  }
+  if (!dirty && x.onshore > 0.34 && x.exposure !== 'lee') {
+    return { key: 'clarity', points: 0.5, reason: 'A ripple on clear water makes fish less wary.' }
+  }
+  return {
+    key: 'clarity',
+    points: 0,
+    reason: `Clarity (${c.clarity}) neither helps nor hurts here.`,
+  }
+}
+
+function lightPoints(bank: Bank, w: WindowWeather): ScoreComponent {
+  if (w.lowLight || w.sky === 'overcast') {
+    return { key: 'light', points: 0.5, reason: 'Low light lets fish roam the bank.' }
+  }
+  if (w.sky === 'sun' && bank.cover.some((cover) => SHADE.includes(cover))) {
+    return { key: 'light', points: 0.5, reason: 'Bright sun: shade under this cover holds fish.' }
+  }
+  return { key: 'light', points: 0, reason: 'Light is neutral here.' }
+}
+
+function safetyPoints(x: BankExposure, w: WindowWeather): ScoreComponent {
+  if (x.waveHeightM >= 0.6)
+    return {
+      key: 'safety',
+      points: -3,
+      reason: 'Waves of 2 ft or more here: unsafe for a small boat.',
+    }
+  if (x.waveHeightM >= 0.3)
+    return { key: 'safety', points: -1, reason: 'A 1 ft chop builds on this bank.' }
+  if (w.gustMs >= 11.3 && x.onshore > 0)
+    return { key: 'safety', points: -1, reason: 'Gusts past 22 kt push the boat onto this bank.' }
+  return { key: 'safety', points: 0, reason: 'No safety concern from wind or waves here.' }
+}
+
+/** Saved banks ranked for one window of wind and light; each score is the sum of named components. */
+export function rankBanks(input: {
+  lake: LakeGeometry
+  banks: Bank[]
+  window: WindowWeather
+  conditions: RankConditions
+}): RankedBank[] {
+  const { lake, banks, window: w, conditions: c } = input
+  const ranked = banks.map((bank) => {
+    const table = bank.exposure ?? exposureTable(lake, bank.points)
+    const x = bankExposure(table, w.windFromDeg, w.windMs)
+    const components = [
+      windPoints(x, w, c),
+      coverPoints(bank, c),
+      depthPoints(bank, c),
+      clarityPoints(bank, x, c),
+      lightPoints(bank, w),
+      safetyPoints(x, w),
+    ]
+    const score = components.reduce((sum, part) => sum + part.points, 0)
+    return { id: bank.id, name: bank.name, rank: 0, score, components, exposure: x }
+  })
+  ranked.sort((a, b) => b.score - a.score || a.name.localeCompare(b.name))
+  ranked.forEach((r, i) => (r.rank = i + 1))
+  return ranked
+}

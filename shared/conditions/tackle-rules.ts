@@ -1,0 +1,427 @@
+import type { ClarityClass } from './clarity'
+import type { SeasonalPhase } from './season'
+
+export const COVERS = ['wood', 'sparse-grass', 'dense-grass', 'rock', 'docks', 'open'] as const
+export type Cover = (typeof COVERS)[number]
+
+export type LureFamily =
+  | 'spinnerbait'
+  | 'squarebill crankbait'
+  | 'lipless crankbait'
+  | 'jerkbait'
+  | 'jig'
+  | 'soft-plastic worm'
+  | 'topwater'
+  | 'swimbait'
+  | 'bladed jig'
+
+export type Blade = 'colorado' | 'willow' | 'indiana' | 'willow-colorado' | 'double-willow'
+export type Sky = 'sun' | 'partly' | 'overcast'
+
+export interface TackleInput {
+  clarity: ClarityClass
+  waterC: number
+  phase: SeasonalPhase
+  windMs: number
+  sky: Sky
+  cover: Cover[]
+  /** Water depth a cast off the bank, metres. */
+  depthM?: number
+}
+
+export interface TackleDetails {
+  blade?: Blade
+  bladeFinish?: string
+  size?: string
+  colors: string[]
+  trailer?: string
+  trailerHook?: boolean
+  retrieve: string
+}
+
+/**
+ * A row of the tackle table. A `fit` row decides that the family suits the day and by how much;
+ * a detail row (no fit) only sets how to rig and fish it. Later rows override earlier ones.
+ */
+export interface TackleRule {
+  id: string
+  family: LureFamily
+  when: (x: TackleInput) => boolean
+  fit?: number
+  set?: Partial<TackleDetails>
+  why: string
+  source: 'common practice' | 'from memory'
+}
+
+const dirty = (x: TackleInput) => x.clarity === 'stained' || x.clarity === 'muddy'
+const clearish = (x: TackleInput) =>
+  x.clarity === 'clear' || x.clarity === 'very-clear' || x.clarity === 'lightly-stained'
+const has = (x: TackleInput, ...covers: Cover[]) => covers.some((c) => x.cover.includes(c))
+const inPhase = (x: TackleInput, ...phases: SeasonalPhase[]) => phases.includes(x.phase)
+/** Wind that breaks the surface: about 2.5 m/s (light breeze, Beaufort 2) and up. */
+const breezy = (x: TackleInput) => x.windMs >= 2.5
+const spring = (x: TackleInput) => inPhase(x, 'early-pre-spawn', 'pre-spawn')
+
+/** How each family is rigged before any detail row applies. */
+export const FAMILY_DEFAULTS: Record<LureFamily, TackleDetails> = {
+  spinnerbait: {
+    blade: 'double-willow',
+    bladeFinish: 'gold and silver',
+    size: '3/8 oz',
+    colors: ['white'],
+    trailerHook: false,
+    retrieve: 'erratic: twitches, pauses, and let it fall beside cover',
+  },
+  'squarebill crankbait': {
+    size: '1.5 size, runs 1-1.5 m',
+    colors: ['shad'],
+    retrieve: 'bang it off cover and pause after each contact',
+  },
+  'lipless crankbait': {
+    size: '1/2 oz',
+    colors: ['chrome shad'],
+    retrieve: 'yo-yo: rip it free of the grass and let it fall',
+  },
+  jerkbait: {
+    size: '110 mm suspending',
+    colors: ['ghost shad'],
+    retrieve: 'twitch-twitch-pause; the colder the water, the longer the pause',
+  },
+  jig: {
+    size: '3/8-1/2 oz',
+    colors: ['green pumpkin'],
+    trailer: 'craw',
+    retrieve: 'pitch to cover, then hop and drag along the bottom',
+  },
+  'soft-plastic worm': {
+    size: '7 in, Texas-rigged',
+    colors: ['green pumpkin'],
+    retrieve: 'slow drag and lift; let it settle by cover',
+  },
+  topwater: {
+    size: 'walking bait, 100-125 mm',
+    colors: ['bone'],
+    retrieve: 'walk it with pauses beside cover and shade',
+  },
+  swimbait: {
+    size: '3.5-4.5 in paddle tail',
+    colors: ['natural shad'],
+    retrieve: 'steady and slow, just above the grass or along breaks',
+  },
+  'bladed jig': {
+    size: '3/8 oz',
+    colors: ['white'],
+    trailer: 'swimbait',
+    retrieve: 'tick the top of the grass; rip it free when it hangs',
+  },
+}
+
+export const TACKLE_RULES: TackleRule[] = [
+  // Spinnerbait (blade bait)
+  {
+    id: 'blade-wind',
+    family: 'spinnerbait',
+    when: breezy,
+    fit: 2,
+    why: 'Some wind that breaks the surface helps a blade bait.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-stained',
+    family: 'spinnerbait',
+    when: dirty,
+    fit: 1.5,
+    why: 'In stained water the blade’s thump and flash help fish find it.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-wood',
+    family: 'spinnerbait',
+    when: (x) => has(x, 'wood'),
+    fit: 1,
+    why: 'Blade baits come through laydowns with fewer snags than bladed jigs.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-windblown-prime',
+    family: 'spinnerbait',
+    when: (x) => breezy(x) && has(x, 'rock', 'sparse-grass'),
+    fit: 1,
+    why: 'Windblown banks and points with rock and sparse grass are prime blade-bait water.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-early-prespawn-sun',
+    family: 'spinnerbait',
+    when: (x) =>
+      x.phase === 'early-pre-spawn' &&
+      x.waterC >= 6 &&
+      x.waterC <= 9.5 &&
+      dirty(x) &&
+      !breezy(x) &&
+      x.sky === 'sun',
+    fit: 2.5,
+    set: { retrieve: 'slow-roll it close to wood and grass in the sun' },
+    why: 'Early pre-spawn, mid-40s °F, stained, calm and sunny: fish sun near wood and grass, so slow-roll near cover.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-colorado-stained',
+    family: 'spinnerbait',
+    when: dirty,
+    set: {
+      blade: 'colorado',
+      bladeFinish: 'gold; painted blades as a second option',
+      size: 'single Colorado, size 6-7',
+      colors: ['white', 'chartreuse'],
+    },
+    why: 'About 2 ft of visibility or less: a large single Colorado blade thumps more; white/chartreuse skirts show up.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-willow-default',
+    family: 'spinnerbait',
+    when: (x) => x.clarity === 'lightly-stained' || x.clarity === 'clear',
+    set: { blade: 'double-willow', bladeFinish: 'gold and silver' },
+    why: 'A gold-and-silver willow combination serves most clarities; willow blades flash more.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-very-clear',
+    family: 'spinnerbait',
+    when: (x) => x.clarity === 'very-clear',
+    set: {
+      blade: 'double-willow',
+      bladeFinish: 'larger blade silver, smaller gold',
+      colors: ['translucent shad'],
+    },
+    why: 'Very clear water: translucent shad-like skirts; for more flash make the larger blade silver and the smaller gold.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-no-trailer',
+    family: 'spinnerbait',
+    when: () => true,
+    set: { trailer: undefined },
+    why: 'Trailers are mostly left off (about 95 % of the time).',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-swimbait-trailer',
+    family: 'spinnerbait',
+    when: (x) => x.waterC < 12 && dirty(x) && spring(x),
+    set: { trailer: 'large swimbait' },
+    why: 'Cold, dirty early spring: a large swimbait trailer adds bulk and lift so the bait can be fished slower.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-split-tail-trailer',
+    family: 'spinnerbait',
+    when: (x) => x.waterC < 12 && !dirty(x) && spring(x),
+    set: { trailer: 'slender split-tail' },
+    why: 'A slender split-tail trailer adds lift with a slim profile for cold, clearer water.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-trailer-hook-open',
+    family: 'spinnerbait',
+    when: (x) => !has(x, 'wood', 'sparse-grass', 'dense-grass') && has(x, 'rock', 'open', 'docks'),
+    set: { trailerHook: true },
+    why: 'On rock or open water add a trailer hook (and after a few short strikes).',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-trailer-hook-snag',
+    family: 'spinnerbait',
+    when: (x) => has(x, 'wood', 'sparse-grass', 'dense-grass'),
+    set: { trailerHook: false },
+    why: 'Trailer hooks snag in grass and wood: leave it off here.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-slow-roll-deep',
+    family: 'spinnerbait',
+    when: (x) => (x.depthM ?? 0) >= 3 && x.waterC < 12,
+    set: { retrieve: 'steady slow-roll, deep along the bottom' },
+    why: 'The retrieve is steady only when slow-rolling deep along the bottom.',
+    source: 'common practice',
+  },
+
+  // Squarebill crankbait
+  {
+    id: 'squarebill-shallow-cover',
+    family: 'squarebill crankbait',
+    when: (x) =>
+      x.waterC >= 10 &&
+      x.waterC <= 26 &&
+      has(x, 'wood', 'rock', 'docks') &&
+      (x.depthM ?? 1.5) <= 2.5,
+    fit: 2,
+    why: 'A squarebill deflects off shallow wood and rock in water from about 50 °F.',
+    source: 'common practice',
+  },
+  {
+    id: 'squarebill-stained',
+    family: 'squarebill crankbait',
+    when: dirty,
+    fit: 0.5,
+    set: { colors: ['chartreuse', 'black back'] },
+    why: 'Bright chartreuse with a dark back shows in dirty water.',
+    source: 'common practice',
+  },
+
+  // Lipless crankbait
+  {
+    id: 'lipless-grass-cool',
+    family: 'lipless crankbait',
+    when: (x) =>
+      has(x, 'sparse-grass') &&
+      x.waterC >= 7 &&
+      x.waterC <= 18 &&
+      inPhase(x, 'early-pre-spawn', 'pre-spawn', 'fall'),
+    fit: 2,
+    why: 'Cool water over sparse grass in pre-spawn or fall: rip a lipless bait free of the grass.',
+    source: 'common practice',
+  },
+  {
+    id: 'lipless-stained',
+    family: 'lipless crankbait',
+    when: dirty,
+    set: { colors: ['red crawfish'] },
+    why: 'Red and crawfish tones are a stained-water standby in spring.',
+    source: 'common practice',
+  },
+
+  // Jerkbait
+  {
+    id: 'jerkbait-cold-clear',
+    family: 'jerkbait',
+    when: (x) => clearish(x) && x.waterC >= 4 && x.waterC <= 13,
+    fit: 2.5,
+    why: 'Cold, clear water: a suspending jerkbait hangs in front of slow fish.',
+    source: 'common practice',
+  },
+  {
+    id: 'jerkbait-wind',
+    family: 'jerkbait',
+    when: (x) => clearish(x) && breezy(x) && x.waterC <= 13,
+    fit: 0.5,
+    why: 'A ripple on clear water hides the line and the bait.',
+    source: 'common practice',
+  },
+
+  // Jig
+  {
+    id: 'jig-cover',
+    family: 'jig',
+    when: (x) => has(x, 'wood', 'rock', 'docks'),
+    fit: 1.5,
+    why: 'A jig pitched to wood, rock or docks reaches fish tight to cover.',
+    source: 'common practice',
+  },
+  {
+    id: 'jig-cold-or-hot',
+    family: 'jig',
+    when: (x) => inPhase(x, 'winter', 'summer'),
+    fit: 1,
+    why: 'In winter and summer fish hold deep and slow: a jig stays in front of them.',
+    source: 'common practice',
+  },
+  {
+    id: 'jig-stained',
+    family: 'jig',
+    when: dirty,
+    set: { colors: ['black', 'blue'] },
+    why: 'Black and blue make the strongest silhouette in dirty water.',
+    source: 'common practice',
+  },
+
+  // Soft-plastic worm
+  {
+    id: 'worm-warm',
+    family: 'soft-plastic worm',
+    when: (x) => inPhase(x, 'spawn', 'post-spawn', 'summer'),
+    fit: 2,
+    why: 'Spawn through summer, a slow worm works beds, post-spawn banks and deep edges.',
+    source: 'common practice',
+  },
+  {
+    id: 'worm-dense-grass',
+    family: 'soft-plastic worm',
+    when: (x) => has(x, 'dense-grass'),
+    fit: 1,
+    why: 'Texas-rigged, it comes through dense grass without hanging.',
+    source: 'common practice',
+  },
+  {
+    id: 'worm-stained',
+    family: 'soft-plastic worm',
+    when: dirty,
+    set: { colors: ['junebug', 'black'] },
+    why: 'Dark colours show best in dirty water.',
+    source: 'common practice',
+  },
+
+  // Topwater
+  {
+    id: 'topwater-warm-calm',
+    family: 'topwater',
+    when: (x) => x.waterC >= 16 && x.windMs < 4 && inPhase(x, 'post-spawn', 'summer', 'fall'),
+    fit: 2,
+    why: 'Warm water and a slick or light ripple: fish look up for a topwater.',
+    source: 'common practice',
+  },
+  {
+    id: 'topwater-low-light',
+    family: 'topwater',
+    when: (x) => x.waterC >= 16 && x.sky !== 'sun',
+    fit: 0.5,
+    why: 'Clouds and low light keep fish willing to come up.',
+    source: 'common practice',
+  },
+  {
+    id: 'topwater-stained',
+    family: 'topwater',
+    when: dirty,
+    set: { colors: ['black'] },
+    why: 'A dark topwater silhouettes against the sky in dirty water.',
+    source: 'common practice',
+  },
+
+  // Swimbait
+  {
+    id: 'swimbait-clear-wind',
+    family: 'swimbait',
+    when: (x) => clearish(x) && breezy(x) && x.waterC >= 10,
+    fit: 1.5,
+    why: 'Clear water with some wind: a natural swimbait looks like the baitfish the wind pushes.',
+    source: 'common practice',
+  },
+  {
+    id: 'swimbait-transition',
+    family: 'swimbait',
+    when: (x) => clearish(x) && inPhase(x, 'pre-spawn', 'post-spawn', 'fall'),
+    fit: 0.5,
+    why: 'Fish chase baitfish in the transitions of spring and fall.',
+    source: 'common practice',
+  },
+
+  // Bladed jig
+  {
+    id: 'bladed-jig-grass',
+    family: 'bladed jig',
+    when: (x) =>
+      has(x, 'sparse-grass') && (dirty(x) || x.clarity === 'lightly-stained') && x.waterC >= 10,
+    fit: 2,
+    why: 'Over sparse grass in stained water a bladed jig vibrates hard and comes free of the grass.',
+    source: 'common practice',
+  },
+  {
+    id: 'bladed-jig-wood',
+    family: 'bladed jig',
+    when: (x) => has(x, 'wood'),
+    fit: -1,
+    why: 'It snags in laydowns more than a spinnerbait does.',
+    source: 'common practice',
+  },
+]

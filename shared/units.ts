@@ -1,0 +1,13 @@
+/** Exact conversion factors (NIST SP 811). SI inside shared/; these are for the edges. */
+export const M_PER_FT = 0.3048
+export const MS_PER_MPH = 0.44704
+export const MS_PER_KNOT = 1852 / 3600
+export const MS_PER_KMH = 1 / 3.6
+
+export const cToF = (c: number) => (c * 9) / 5 + 32
+export const fToC = (f: number) => ((f - 32) * 5) / 9
+export const mToFt = (m: number) => m / M_PER_FT
+export const ftToM = (ft: number) => ft * M_PER_FT
+export const msToMph = (ms: number) => ms / MS_PER_MPH
+export const msToKnots = (ms: number) => ms / MS_PER_KNOT
+export const msToKmh = (ms: number) => ms / MS_PER_KMH
