@@ -1,128 +1,232 @@
 import Flatbush from 'flatbush'
 import { assertFinite, DomainError } from '../errors'
-import { assertLakeGeometry, lakeProjection, polygonsOf } from './polygon'
+import { assertLakeGeometry, lakeProjection, polygonsOf, ringAreaXy } from './polygon'
 import type { LocalProjection, Xy } from './projection'
 import type { LakeGeometry, Position } from './types'
+
+/** Hits closer than this belong to the edge the point sits on. */
+const ON_EDGE_M = 0.01
+/** The first stretch of a radial searched in the tree; each next stretch is twice as long. */
+const FIRST_STRETCH_M = 500
+/** Small tree nodes: a short stretch of ray then tests few edges it does not touch. */
+const NODE_SIZE = 8
 
 /**
  * A lake ready for ray casting: every shoreline and island edge on the lake's tangent plane,
  * in a Flatbush R-tree so a radial only tests the edges near it.
  */
-export interface ShoreIndex {
-  projection: LocalProjection
-  rings: Xy[][]
+export class ShoreIndex {
+  readonly projection: LocalProjection
+  readonly rings: Xy[][]
   /** x1, y1, x2, y2 per edge. */
-  edges: Float64Array
-  tree: Flatbush
+  readonly edges: Float64Array
+  readonly tree: Flatbush
   /** Diagonal of the lake's bounding box: no fetch is longer. */
-  spanM: number
+  readonly spanM: number
+
+  // Scratch state for the tree's visitor callbacks, so casting a radial allocates nothing.
+  private ox = 0
+  private oy = 0
+  private dx = 0
+  private dy = 0
+  private best = Infinity
+  /** Whether the nearest hit so far reaches its edge from the water side. */
+  private fromWater = false
+
+  constructor(lake: LakeGeometry) {
+    assertLakeGeometry(lake)
+    this.projection = lakeProjection(lake)
+    const { project } = this.projection
+    // Shorelines counter-clockwise and islands clockwise, so water is always left of an edge.
+    this.rings = polygonsOf(lake).flatMap((polygon) =>
+      polygon.map((ring, i) => {
+        const xy = ring.map(project)
+        return ringAreaXy(xy) > 0 === (i === 0) ? xy : xy.reverse()
+      }),
+    )
+    const count = this.rings.reduce((n, r) => n + r.length - 1, 0)
+    this.edges = new Float64Array(count * 4)
+    this.tree = new Flatbush(count, NODE_SIZE)
+    let k = 0
+    for (const ring of this.rings) {
+      for (let i = 0; i + 1 < ring.length; i++) {
+        const [x1, y1] = ring[i]!
+        const [x2, y2] = ring[i + 1]!
+        this.edges.set([x1, y1, x2, y2], k++ * 4)
+        this.tree.add(Math.min(x1, x2), Math.min(y1, y2), Math.max(x1, x2), Math.max(y1, y2))
+      }
+    }
+    this.tree.finish()
+    this.spanM = Math.hypot(this.tree.maxX - this.tree.minX, this.tree.maxY - this.tree.minY)
+  }
+
+  /** Distance along the current ray to edge `e`, or Infinity when it misses. Sets `denom`. */
+  private denom = 0
+  private hit(e: number): number {
+    const x1 = this.edges[e * 4]!
+    const y1 = this.edges[e * 4 + 1]!
+    const ex = this.edges[e * 4 + 2]! - x1
+    const ey = this.edges[e * 4 + 3]! - y1
+    const denom = this.dx * ey - this.dy * ex
+    this.denom = denom
+    if (Math.abs(denom) < 1e-12) return Infinity
+    const wx = x1 - this.ox
+    const wy = y1 - this.oy
+    const t = (wx * ey - wy * ex) / denom
+    const s = (wx * this.dy - wy * this.dx) / denom
+    return s >= 0 && s <= 1 && t > ON_EDGE_M ? t : Infinity
+  }
+
+  private readonly keepNearest = (e: number): boolean => {
+    const t = this.hit(e)
+    if (t < this.best) {
+      this.best = t
+      // Water lies left of every edge: a ray crossing it left to right came over water.
+      this.fromWater = this.denom > 0
+    }
+    return false
+  }
+
+  private readonly touching: number[] = []
+  private readonly collectTouching = (e: number): boolean => {
+    const x1 = this.edges[e * 4]!
+    const y1 = this.edges[e * 4 + 1]!
+    const ex = this.edges[e * 4 + 2]! - x1
+    const ey = this.edges[e * 4 + 3]! - y1
+    const len2 = ex * ex + ey * ey
+    const f = len2
+      ? Math.max(0, Math.min(1, ((this.ox - x1) * ex + (this.oy - y1) * ey) / len2))
+      : 0
+    if (Math.hypot(x1 + f * ex - this.ox, y1 + f * ey - this.oy) < ON_EDGE_M) this.touching.push(e)
+    return false
+  }
+
+  /** Whether direction d points left of edge e, to its water side. */
+  private leftOf(e: number, dx: number, dy: number): boolean {
+    const ex = this.edges[e * 4 + 2]! - this.edges[e * 4]!
+    const ey = this.edges[e * 4 + 3]! - this.edges[e * 4 + 1]!
+    return ex * dy - ey * dx > 0
+  }
+
+  /**
+   * The shore edges a point sits on, found once per point: one edge it lies inside, or the edges
+   * into and out of the vertex it lies on. Empty when the point is off the shore.
+   */
+  private shoreAt([ox, oy]: Xy): { inside?: number; into?: number; out?: number } {
+    this.ox = ox
+    this.oy = oy
+    this.touching.length = 0
+    this.tree.search(
+      ox - ON_EDGE_M,
+      oy - ON_EDGE_M,
+      ox + ON_EDGE_M,
+      oy + ON_EDGE_M,
+      this.collectTouching,
+    )
+    const found: { inside?: number; into?: number; out?: number } = {}
+    for (const e of this.touching) {
+      const atStart = Math.hypot(this.edges[e * 4]! - ox, this.edges[e * 4 + 1]! - oy) < ON_EDGE_M
+      const atEnd = Math.hypot(this.edges[e * 4 + 2]! - ox, this.edges[e * 4 + 3]! - oy) < ON_EDGE_M
+      if (atStart) found.out = e
+      else if (atEnd) found.into = e
+      else found.inside = e
+    }
+    return found
+  }
+
+  /**
+   * Whether the first step along d is over land: right of the edge the point sits on, or, at a
+   * vertex, outside the water's corner between the edge in and the edge out.
+   */
+  private firstStepOverLand(
+    at: { inside?: number; into?: number; out?: number },
+    [dx, dy]: Xy,
+  ): boolean {
+    if (at.inside !== undefined) return !this.leftOf(at.inside, dx, dy)
+    if (at.into === undefined || at.out === undefined) return false
+    const ox = this.edges[at.out * 4]!
+    const oy = this.edges[at.out * 4 + 1]!
+    const convex = this.leftOf(
+      at.into,
+      this.edges[at.out * 4 + 2]! - ox,
+      this.edges[at.out * 4 + 3]! - oy,
+    )
+    const li = this.leftOf(at.into, dx, dy)
+    const lo = this.leftOf(at.out, dx, dy)
+    return !(convex ? li && lo : li || lo)
+  }
+
+  /** Distance to the first edge along a ray (Infinity when none), searching the tree in growing stretches. */
+  firstHit([ox, oy]: Xy, [dx, dy]: Xy): number {
+    const maxM = this.spanM
+    this.ox = ox
+    this.oy = oy
+    this.dx = dx
+    this.dy = dy
+    this.best = Infinity
+    let from = 0
+    let to = Math.min(FIRST_STRETCH_M, maxM)
+    while (from < maxM) {
+      const ax = ox + dx * from
+      const ay = oy + dy * from
+      const bx = ox + dx * to
+      const by = oy + dy * to
+      this.tree.search(
+        Math.min(ax, bx),
+        Math.min(ay, by),
+        Math.max(ax, bx),
+        Math.max(ay, by),
+        this.keepNearest,
+      )
+      // A hit beyond this stretch may still have a nearer rival in the next one.
+      if (this.best <= to) return this.best
+      from = to
+      to = Math.min(to * 2, maxM)
+    }
+    return Infinity
+  }
+
+  /** The plain scan over every edge: what the tests and the benchmark compare the tree against. */
+  naiveFirstHit([ox, oy]: Xy, [dx, dy]: Xy): number {
+    this.ox = ox
+    this.oy = oy
+    this.dx = dx
+    this.dy = dy
+    let best = Infinity
+    for (let e = 0; e < this.edges.length / 4; e++) best = Math.min(best, this.hit(e))
+    return best
+  }
+
+  /**
+   * Radials from one point: the projection and the local true north are worked out once, so each
+   * bearing costs only the ray cast. A radial's length is 0 when it starts over land.
+   */
+  radialsFrom(point: Position): (bearingDeg: number) => number {
+    const o = this.projection.project(point)
+    const [nx, ny] = this.projection.bearingVector(point, 0)
+    const shore = this.shoreAt(o)
+    return (bearingDeg) => {
+      const b = (bearingDeg * Math.PI) / 180
+      const c = Math.cos(b)
+      const s = Math.sin(b)
+      // North turned clockwise by the bearing (east is north turned a right angle clockwise).
+      const d: Xy = [c * nx + s * ny, c * ny - s * nx]
+      if (this.firstStepOverLand(shore, d)) return 0
+      // Nothing crosses the radial before its first hit, so the side it meets that edge from says
+      // whether it ran over water or over land from its first step.
+      const hit = this.firstHit(o, d)
+      return Number.isFinite(hit) && this.fromWater ? hit : 0
+    }
+  }
 }
 
 const cache = new WeakMap<LakeGeometry, ShoreIndex>()
 
+/** The lake's index, built once per geometry object. */
 export function shoreIndex(lake: LakeGeometry): ShoreIndex {
-  const hit = cache.get(lake)
-  if (hit) return hit
-  assertLakeGeometry(lake)
-  const projection = lakeProjection(lake)
-  const rings = polygonsOf(lake).flatMap((polygon) =>
-    polygon.map((ring) => ring.map(projection.project)),
-  )
-  const count = rings.reduce((n, r) => n + r.length - 1, 0)
-  const edges = new Float64Array(count * 4)
-  const tree = new Flatbush(count)
-  let k = 0
-  for (const ring of rings) {
-    for (let i = 0; i + 1 < ring.length; i++) {
-      const [x1, y1] = ring[i]!
-      const [x2, y2] = ring[i + 1]!
-      edges.set([x1, y1, x2, y2], k * 4)
-      tree.add(Math.min(x1, x2), Math.min(y1, y2), Math.max(x1, x2), Math.max(y1, y2))
-      k++
-    }
-  }
-  tree.finish()
-  const index = {
-    projection,
-    rings,
-    edges,
-    tree,
-    spanM: Math.hypot(tree.maxX - tree.minX, tree.maxY - tree.minY),
-  }
-  cache.set(lake, index)
+  let index = cache.get(lake)
+  if (!index) cache.set(lake, (index = new ShoreIndex(lake)))
   return index
-}
-
-/** Hits closer than this belong to the edge the point sits on. */
-const ON_EDGE_M = 0.01
-/** The first stretch of a radial searched in the tree; each next stretch is twice as long. */
-const FIRST_STRETCH_M = 200
-
-/** Distance along the ray from `o` in unit direction `d` to edge `e`, or Infinity when it misses. */
-function rayHit(edges: Float64Array, e: number, o: Xy, d: Xy): number {
-  const x1 = edges[e * 4]!
-  const y1 = edges[e * 4 + 1]!
-  const ex = edges[e * 4 + 2]! - x1
-  const ey = edges[e * 4 + 3]! - y1
-  const denom = d[0] * ey - d[1] * ex
-  if (Math.abs(denom) < 1e-12) return Infinity
-  const wx = x1 - o[0]
-  const wy = y1 - o[1]
-  const t = (wx * ey - wy * ex) / denom
-  const s = (wx * d[1] - wy * d[0]) / denom
-  return s >= 0 && s <= 1 && t > ON_EDGE_M ? t : Infinity
-}
-
-/** Distance to the first edge along a ray, searching the tree in growing stretches. */
-export function firstHitM(index: ShoreIndex, o: Xy, d: Xy): number {
-  let from = 0
-  let to = FIRST_STRETCH_M
-  while (from < index.spanM) {
-    const ax = o[0] + d[0] * from
-    const ay = o[1] + d[1] * from
-    const bx = o[0] + d[0] * to
-    const by = o[1] + d[1] * to
-    let best = Infinity
-    for (const e of index.tree.search(
-      Math.min(ax, bx),
-      Math.min(ay, by),
-      Math.max(ax, bx),
-      Math.max(ay, by),
-    )) {
-      best = Math.min(best, rayHit(index.edges, e, o, d))
-    }
-    // A hit beyond this stretch may still have a nearer rival in the next one.
-    if (best <= to) return best
-    from = to
-    to *= 2
-  }
-  return Infinity
-}
-
-/** Even-odd test using only the edges the tree finds on a horizontal ray to the east. */
-function inWater(index: ShoreIndex, p: Xy): boolean {
-  const near = index.tree.search(p[0], p[1], index.tree.maxX, p[1])
-  let inside = false
-  for (const e of near) {
-    const x1 = index.edges[e * 4]!
-    const y1 = index.edges[e * 4 + 1]!
-    const x2 = index.edges[e * 4 + 2]!
-    const y2 = index.edges[e * 4 + 3]!
-    if (y1 > p[1] !== y2 > p[1] && p[0] < ((x2 - x1) * (p[1] - y1)) / (y2 - y1) + x1)
-      inside = !inside
-  }
-  return inside
-}
-
-/** Fetch along one true bearing from a projected point: the radial's open-water length. */
-export function radialFetchM(index: ShoreIndex, point: Position, bearingDeg: number): number {
-  const o = index.projection.project(point)
-  const d = index.projection.bearingVector(point, bearingDeg)
-  const hit = firstHitM(index, o, d)
-  if (!Number.isFinite(hit)) return 0
-  // Nothing crosses the radial before the hit, so its midpoint says whether it runs over water.
-  const probe = Math.min(hit / 2, 1)
-  return inWater(index, [o[0] + d[0] * probe, o[1] + d[1] * probe]) ? hit : 0
 }
 
 function checkArgs(point: Position, windFromDeg: number): void {
@@ -141,7 +245,7 @@ function checkArgs(point: Position, windFromDeg: number): void {
  */
 export function fetchLength(lake: LakeGeometry, point: Position, windFromDeg: number): number {
   checkArgs(point, windFromDeg)
-  return radialFetchM(shoreIndex(lake), point, windFromDeg)
+  return shoreIndex(lake).radialsFrom(point)(windFromDeg)
 }
 
 /** Nine radials at 3° spacing centred on the upwind bearing (SPM 1984 procedure, as USGS applies it). */
@@ -150,17 +254,8 @@ export const EFFECTIVE_FETCH_OFFSETS_DEG = [-12, -9, -6, -3, 0, 3, 6, 9, 12]
 /** Arithmetic mean of the nine radials (Rohweder et al. 2012, USGS; the procedure's details from memory). */
 export function effectiveFetch(lake: LakeGeometry, point: Position, windFromDeg: number): number {
   checkArgs(point, windFromDeg)
-  const index = shoreIndex(lake)
+  const radial = shoreIndex(lake).radialsFrom(point)
   let sum = 0
-  for (const offset of EFFECTIVE_FETCH_OFFSETS_DEG)
-    sum += radialFetchM(index, point, windFromDeg + offset)
+  for (const offset of EFFECTIVE_FETCH_OFFSETS_DEG) sum += radial(windFromDeg + offset)
   return sum / EFFECTIVE_FETCH_OFFSETS_DEG.length
-}
-
-/** The plain scan over every edge: what the tests and the benchmark compare the tree against. */
-export function naiveFirstHitM(index: ShoreIndex, o: Xy, d: Xy): number {
-  let best = Infinity
-  for (let e = 0; e < index.edges.length / 4; e++)
-    best = Math.min(best, rayHit(index.edges, e, o, d))
-  return best
 }

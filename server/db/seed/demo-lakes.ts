@@ -93,7 +93,6 @@ export const DEMO_LAKES: DemoLakeShape[] = [
   },
 ]
 
-const SHORE_VERTICES = 480
 const ISLAND_VERTICES = 28
 const DEG = Math.PI / 180
 
@@ -125,8 +124,8 @@ function closed(ring: Position[]): Ring {
  * A star-shaped shoreline is always a simple ring, and every island sits inside the circle of the
  * smallest shore radius, so rings never cross. Outer ring counter-clockwise, islands clockwise (RFC 7946).
  */
-export function demoShoreline(shape: DemoLakeShape): Polygon {
-  const bearings = Array.from({ length: SHORE_VERTICES }, (_, i) => (360 * i) / SHORE_VERTICES)
+export function demoShoreline(shape: DemoLakeShape, shoreVertices = 480): Polygon {
+  const bearings = Array.from({ length: shoreVertices }, (_, i) => (360 * i) / shoreVertices)
   const radii = bearings.map((b) => shoreRadius(shape, b))
   const minRadius = Math.min(...radii)
   // Counter-clockwise in map terms means bearings decreasing.

@@ -1,0 +1,14 @@
+/** `npm run bench -- NAME`: runs one benchmark; each prints a table and ends with one JSON line. */
+const benches: Record<string, () => Promise<unknown>> = {
+  exposure: () => import('./exposure'),
+}
+
+const name = process.argv[2]
+const run = name ? benches[name] : undefined
+if (!run) {
+  console.error(`Usage: npm run bench -- <${Object.keys(benches).join('|')}>`)
+  process.exit(2)
+}
+await run()
+
+export {}

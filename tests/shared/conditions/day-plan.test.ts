@@ -1,0 +1,150 @@
+import { describe, expect, it } from 'vitest'
+import { dayPlan, type ForecastHour } from '../../../shared/conditions/day-plan'
+import { rankBanks, type Bank } from '../../../shared/conditions/ranking'
+import type { Polygon } from '../../../shared/geo/types'
+import { box, densified } from '../geo/fixtures'
+
+const lake: Polygon = { type: 'Polygon', coordinates: [densified(box(-88.1, 35, 0.1, 0.05))] }
+// West shore looks east; east shore looks west.
+const banks: Bank[] = [
+  {
+    id: 'w',
+    name: 'West rocks',
+    points: [
+      [-88.1, 35.02],
+      [-88.1, 35.03],
+    ],
+    cover: ['rock', 'sparse-grass'],
+    depthM: 3,
+  },
+  {
+    id: 'e',
+    name: 'East rocks',
+    points: [
+      [-88.0, 35.02],
+      [-88.0, 35.03],
+    ],
+    cover: ['rock', 'sparse-grass'],
+    depthM: 3,
+  },
+]
+const conditions = { clarity: 'stained', waterC: 13, phase: 'pre-spawn' } as const
+
+describe('rankBanks', () => {
+  it('puts the bank the wind blows onto ahead of the lee bank (common practice)', () => {
+    const ranked = rankBanks({
+      lake,
+      banks,
+      window: { windFromDeg: 90, windMs: 5, gustMs: 7, sky: 'partly' },
+      conditions,
+    })
+    expect(ranked.map((r) => r.id)).toEqual(['w', 'e'])
+    expect(ranked[0]!.exposure.exposure).toBe('windward')
+    expect(ranked[1]!.exposure.exposure).toBe('lee')
+  })
+
+  it('flips when the wind turns around', () => {
+    const ranked = rankBanks({
+      lake,
+      banks,
+      window: { windFromDeg: 270, windMs: 5, gustMs: 7, sky: 'partly' },
+      conditions,
+    })
+    expect(ranked[0]!.id).toBe('e')
+  })
+
+  it('makes each score the sum of its named components, each with a reason', () => {
+    for (const r of rankBanks({
+      lake,
+      banks,
+      window: { windFromDeg: 45, windMs: 14, gustMs: 18, sky: 'sun' },
+      conditions,
+    })) {
+      expect(r.components.map((c) => c.key)).toEqual([
+        'wind',
+        'cover',
+        'depth',
+        'clarity',
+        'light',
+        'safety',
+      ])
+      expect(r.score).toBeCloseTo(
+        r.components.reduce((s, c) => s + c.points, 0),
+        12,
+      )
+      for (const c of r.components) expect(c.reason.length).toBeGreaterThan(5)
+    }
+  })
+
+  it('penalises a bank where waves reach 2 ft', () => {
+    const ranked = rankBanks({
+      lake,
+      banks,
+      window: { windFromDeg: 90, windMs: 20, gustMs: 25, sky: 'sun' },
+      conditions,
+    })
+    const windward = ranked.find((r) => r.id === 'w')!
+    expect(windward.exposure.exposure).toBe('rough')
+    expect(windward.components.find((c) => c.key === 'safety')!.points).toBe(-3)
+    // The sheltered bank wins on a day like that.
+    expect(ranked[0]!.id).toBe('e')
+  })
+})
+
+describe('dayPlan', () => {
+  const hours: ForecastHour[] = Array.from({ length: 24 }, (_, h) => ({
+    at: new Date(Date.UTC(2026, 3, 10, 5 + h)).toISOString(),
+    // East wind until 15:00 UTC (10:00 local), west wind after.
+    windFromDeg: 5 + h < 15 ? 90 : 270,
+    windMs: 5,
+    gustMs: 8,
+    airC: 18,
+    relativeHumidityPct: 60,
+    cloudCoverPct: 40,
+    thunderstormProbabilityPct: h > 14 ? 40 : 0,
+  }))
+  const plan = dayPlan({
+    lake,
+    date: '2026-04-10',
+    timeZone: 'America/Chicago',
+    banks,
+    hourly: hours,
+    waterC: 13,
+    secchiM: 0.5,
+    phase: 'pre-spawn',
+  })
+
+  it('has three windows in order, from civil dawn to civil dusk', () => {
+    expect(plan.windows.map((w) => w.id)).toEqual(['dawn', 'midday', 'afternoon'])
+    expect(plan.windows[0]!.start).toBe(plan.sky.civilDawn)
+    expect(plan.windows[2]!.end).toBe(plan.sky.civilDusk)
+    for (const w of plan.windows) expect(Date.parse(w.end)).toBeGreaterThan(Date.parse(w.start))
+  })
+
+  it('re-ranks the banks as the wind shifts through the day', () => {
+    expect(plan.windows[0]!.banks[0]!.id).toBe('w')
+    expect(plan.windows[2]!.banks[0]!.id).toBe('e')
+  })
+
+  it('calls tackle for the best bank and puts lightning first when storms are likely', () => {
+    expect(plan.clarity).toBe('stained')
+    expect(plan.windows[0]!.tackle[0]!.why.length).toBeGreaterThan(0)
+    expect(plan.windows[2]!.cautions[0]!.kind).toBe('lightning')
+    for (const w of plan.windows) expect(w.cautions.at(-1)!.kind).toBe('authority')
+  })
+
+  it('marks a window the forecast does not reach instead of inventing weather', () => {
+    const partial = dayPlan({
+      lake,
+      date: '2026-04-10',
+      timeZone: 'America/Chicago',
+      banks,
+      hourly: hours.slice(0, 3),
+      waterC: 13,
+      secchiM: 0.5,
+      phase: 'pre-spawn',
+    })
+    expect(partial.windows[2]!.weather).toBeNull()
+    expect(partial.windows[2]!.banks).toEqual([])
+  })
+})
