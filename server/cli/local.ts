@@ -5,8 +5,10 @@ import { join } from 'node:path'
 import { startCluster, type Cluster } from '../db/cluster'
 import { createDb, type Db } from '../db/index'
 import { migrateDb } from '../db/migrate'
-import { seedDemo } from '../db/seed/index'
-import type { Env } from '../env'
+import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../db/seed/index'
+import { loadEnv, type Env } from '../env'
+import { serve, type ServeOptions } from '../index'
+import { createLogger } from '../logger'
 
 export const dataDir = fileURLToPath(new URL('../../.data', import.meta.url))
 
@@ -19,7 +21,7 @@ function localSecret(name: string, bytes: number): string {
   return readFileSync(file, 'utf8').trim()
 }
 
-export interface LocalStack {
+interface LocalStack {
   db: Db
   cluster?: Cluster
   sessionSecret: string
@@ -29,7 +31,7 @@ export interface LocalStack {
  * What `npm start` and `npm run dev` share: the private cluster under .data/ (unless DATABASE_URL
  * names another), migrations, demo data and the development session secret.
  */
-export async function prepareLocalStack(env: Env): Promise<LocalStack> {
+async function prepareLocalStack(env: Env): Promise<LocalStack> {
   if (env.NODE_ENV === 'production') {
     throw new Error(
       'npm start seeds demo sign-ins with a published password and refuses to run with NODE_ENV=production. ' +
@@ -54,4 +56,41 @@ export async function prepareLocalStack(env: Env): Promise<LocalStack> {
   await migrateDb(db)
   await seedDemo(db)
   return { db, cluster, sessionSecret: env.SESSION_SECRET ?? localSecret('session-secret', 48) }
+}
+
+/**
+ * Runs the app on the local stack for `npm start` (static client) and `npm run dev` (Vite
+ * middleware); Ctrl-C closes the server, then `close` and the cluster if this process started it.
+ */
+export async function serveLocal(
+  serving: (
+    env: Env,
+  ) => Promise<Pick<ServeOptions, 'staticDir' | 'devMiddleware'> & { close?: () => Promise<void> }>,
+): Promise<void> {
+  const env = loadEnv()
+  try {
+    const stack = await prepareLocalStack(env)
+    const { close, ...client } = await serving(env)
+    await serve({
+      ...client,
+      db: stack.db,
+      logger: createLogger(env.LOG_LEVEL),
+      host: env.HOST,
+      port: env.PORT,
+      sessionSecret: stack.sessionSecret,
+      secureCookies: false,
+      appOrigin: env.APP_ORIGIN,
+      onClose: async () => {
+        await close?.()
+        await stack.cluster?.stop()
+      },
+    })
+  } catch (err) {
+    console.error(err instanceof Error ? err.message : err)
+    process.exit(1)
+  }
+  console.log(`\nChopline is running at http://${env.HOST}:${env.PORT}\n`)
+  console.log(`Demo sign-ins (password "${DEMO_PASSWORD}"):`)
+  for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(7)} ${u.email}`)
+  console.log('\nPress Ctrl-C to stop.')
 }

@@ -5,7 +5,8 @@ import type {
   User,
 } from '../../../shared/schemas/auth'
 import { HttpError } from '../../http/errors'
-import type { AuthRepo, publicUserColumns } from './auth.repo'
+import type { users } from '../../db/schema/index'
+import type { AuthRepo } from './auth.repo'
 import { decoyPasswordHash, hashPassword, verifyPassword } from './passwords'
 import {
   SESSION_DAYS,
@@ -14,7 +15,7 @@ import {
   verifySessionToken,
 } from './auth.tokens'
 
-type UserRow = { [K in keyof typeof publicUserColumns]: (typeof publicUserColumns)[K]['_']['data'] }
+type UserRow = Pick<typeof users.$inferSelect, 'id' | 'email' | 'role' | 'createdAt'>
 
 export function toUser(row: UserRow): User {
   return { id: row.id, email: row.email, role: row.role, createdAt: row.createdAt.toISOString() }

@@ -31,6 +31,15 @@ describe.each([
     within(fetchLength(lake, west, 60), distanceToParallel(west, 60, south + 0.05))
   })
 
+  it('gives the same fetch from a point inside an edge as from the vertex beside it', () => {
+    // west is a vertex of the densified ring; this point lies between two vertices.
+    const onEdge: Position = [-90.1, south + 0.0256]
+    within(fetchLength(lake, onEdge, 90), distanceToMeridian(onEdge, 90, -90.0))
+    expect(fetchLength(lake, onEdge, 270)).toBe(0)
+    // Along the shore: the first step is neither water nor land, and the radial runs along the edge.
+    expect(fetchLength(lake, onEdge, 0)).toBeGreaterThanOrEqual(0)
+  })
+
   it('is 0 when the first step upwind is over land', () => {
     expect(fetchLength(lake, west, 270)).toBe(0)
     expect(fetchLength(lake, west, 200)).toBe(0)
