@@ -15,6 +15,9 @@ import { healthRoutes } from './features/health/health.routes'
 import { lakesRepo } from './features/lakes/lakes.repo'
 import { lakesRoutes } from './features/lakes/lakes.routes'
 import { lakesService } from './features/lakes/lakes.service'
+import { stationsRepo } from './features/stations/stations.repo'
+import { stationsRoutes } from './features/stations/stations.routes'
+import { stationsService } from './features/stations/stations.service'
 import { usersRepo } from './features/users/users.repo'
 import { usersRoutes } from './features/users/users.routes'
 import { usersService } from './features/users/users.service'
@@ -95,6 +98,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limiter }))
   api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
   api.use(lakesRoutes(lakesService(lakesRepo(deps.db))))
+  api.use(stationsRoutes(stationsService(stationsRepo(deps.db))))
   api.use(notFound)
   app.use('/api', api)
 

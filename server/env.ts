@@ -11,6 +11,10 @@ const Env = z.object({
   /** The public origin, e.g. https://chopline.example; state-changing requests must come from it. */
   APP_ORIGIN: z.url().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  /** The gauge-and-weather feed; when unset, npm start and npm run dev run the local fake. */
+  FEED_URL: z.url().optional(),
+  /** Port of the local fake feed that npm start runs when FEED_URL is unset. */
+  FEED_PORT: z.coerce.number().int().min(0).max(65535).default(3100),
   CHOPLINE_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
 })
 export type Env = z.infer<typeof Env>

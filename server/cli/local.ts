@@ -1,30 +1,61 @@
-import { randomBytes } from 'node:crypto'
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
 import { join } from 'node:path'
 import { startCluster, type Cluster } from '../db/cluster'
+import { dataDir, localDatabase, localSecret } from './local-config'
 import { createDb, type Db } from '../db/index'
 import { migrateDb } from '../db/migrate'
+import { count } from 'drizzle-orm'
+import { startScheduler } from '../../jobs/scheduler'
+import { runIngestReadings } from '../../jobs/ingest-readings'
+import { runIngestWeather } from '../../jobs/ingest-weather'
+import { readings } from '../db/schema/index'
 import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../db/seed/index'
+import { DEMO_FEED_SEED, DEMO_STATIONS } from '../db/seed/demo-stations'
+import { startFeed } from '../fakes/feed/index'
+import { backfillReadings } from '../features/ingest/readings.ingest'
+import { ingestRepo } from '../features/ingest/ingest.repo'
+import type { Logger } from '../logger'
 import { loadEnv, type Env } from '../env'
 import { serve, type ServeOptions } from '../index'
 import { createLogger } from '../logger'
-
-export const dataDir = fileURLToPath(new URL('../../.data', import.meta.url))
-
-/** A secret made once and kept in .data/, so sessions survive restarts of the local app. */
-function localSecret(name: string, bytes: number): string {
-  mkdirSync(dataDir, { recursive: true, mode: 0o755 })
-  const file = join(dataDir, name)
-  if (!existsSync(file))
-    writeFileSync(file, randomBytes(bytes).toString('base64url'), { mode: 0o600 })
-  return readFileSync(file, 'utf8').trim()
-}
 
 interface LocalStack {
   db: Db
   cluster?: Cluster
   sessionSecret: string
+}
+
+/** Days of history the demo loads on its first start, so charts and trends have something to show. */
+const DEMO_HISTORY_DAYS = 30
+
+/**
+ * The feed (the local fake unless FEED_URL names a real one) and the job schedule. On a first start
+ * the demo lakes get a month of history, then the regular jobs take over.
+ */
+async function startFeedAndJobs(env: Env, db: Db, log: Logger) {
+  const fake = env.FEED_URL
+    ? undefined
+    : await startFeed({ seed: DEMO_FEED_SEED, stations: DEMO_STATIONS }, env.FEED_PORT)
+  const feedUrl = env.FEED_URL ?? fake!.url
+  const ctx = { db, feedUrl, log }
+  const scheduler = startScheduler(ctx)
+  void (async () => {
+    const [row] = await db.select({ n: count() }).from(readings)
+    if (!row?.n) {
+      log.info(`loading ${DEMO_HISTORY_DAYS} days of demo history from the feed`)
+      for (const lake of await ingestRepo(db).lakesWithSlugs())
+        await backfillReadings(ctx, lake.id, DEMO_HISTORY_DAYS)
+    }
+    await runIngestReadings(ctx)
+    await runIngestWeather(ctx)
+    log.info('readings and weather are up to date')
+  })().catch((err: unknown) => log.error({ err }, 'first ingestion failed'))
+  return {
+    feedUrl,
+    stop: async () => {
+      await scheduler.stop()
+      await fake?.close()
+    },
+  }
 }
 
 /**
@@ -42,11 +73,8 @@ async function prepareLocalStack(env: Env): Promise<LocalStack> {
   let url = env.DATABASE_URL
   if (!url) {
     cluster = await startCluster({
+      ...localDatabase(env),
       dataDir: join(dataDir, 'pg'),
-      port: env.CHOPLINE_PG_PORT,
-      user: 'chopline',
-      password: localSecret('pg-password', 18),
-      database: 'chopline',
       durable: true,
       log: (line) => console.log(line),
     })
@@ -70,17 +98,20 @@ export async function serveLocal(
   const env = loadEnv()
   try {
     const stack = await prepareLocalStack(env)
+    const logger = createLogger(env.LOG_LEVEL)
     const { close, ...client } = await serving(env)
+    const feed = await startFeedAndJobs(env, stack.db, logger)
     await serve({
       ...client,
       db: stack.db,
-      logger: createLogger(env.LOG_LEVEL),
+      logger,
       host: env.HOST,
       port: env.PORT,
       sessionSecret: stack.sessionSecret,
       secureCookies: false,
       appOrigin: env.APP_ORIGIN,
       onClose: async () => {
+        await feed.stop()
         await close?.()
         await stack.cluster?.stop()
       },

@@ -1,2 +1,3 @@
 export * from './lakes'
+export * from './readings'
 export * from './users'

@@ -1,9 +1,10 @@
 import { lakeAreaM2, lakeCenter } from '../../../shared/geo/polygon'
 import { hashPassword } from '../../features/auth/passwords'
 import type { Db } from '../index'
-import { lakes, users } from '../schema/index'
+import { lakes, stations, users } from '../schema/index'
 import type { Role } from '../../../shared/schemas/auth'
 import { DEMO_LAKES, demoShoreline } from './demo-lakes'
+import { DEMO_STATIONS } from './demo-stations'
 
 /** Development only: `npm start` refuses to seed these when NODE_ENV=production. */
 export const DEMO_PASSWORD = 'chopline-demo'
@@ -37,4 +38,17 @@ export async function seedDemo(db: Db): Promise<void> {
     }
   })
   await db.insert(lakes).values(rows).onConflictDoNothing({ target: lakes.slug })
+
+  const lakeIds = new Map(
+    (await db.select({ id: lakes.id, slug: lakes.slug }).from(lakes)).map((l) => [l.slug, l.id]),
+  )
+  await db
+    .insert(stations)
+    .values(
+      DEMO_STATIONS.flatMap((s) => {
+        const lakeId = lakeIds.get(s.lake.slug)
+        return lakeId ? [{ lakeId, name: s.name, feedThingId: String(s.thingId) }] : []
+      }),
+    )
+    .onConflictDoNothing({ target: stations.feedThingId })
 }

@@ -1,0 +1,12 @@
+import { withJobLock } from '../server/features/ingest/job-lock'
+import { ingestWeather, type WeatherDeps } from '../server/features/ingest/weather.ingest'
+import { runFromCli } from './cli'
+
+/** Hourly, a few minutes past: observations since the last and the latest 7-day forecast. */
+export const INGEST_WEATHER_CRON = '5 * * * *'
+
+export function runIngestWeather(deps: WeatherDeps) {
+  return withJobLock(deps.db, 'ingest-weather', deps.log, () => ingestWeather(deps))
+}
+
+runFromCli(import.meta.url, (ctx) => runIngestWeather(ctx))

@@ -1,0 +1,42 @@
+import cron from 'node-cron'
+import type { Logger } from '../server/logger'
+import { INGEST_READINGS_CRON, runIngestReadings } from './ingest-readings'
+import { INGEST_WEATHER_CRON, runIngestWeather } from './ingest-weather'
+import type { JobContext } from './cli'
+
+/**
+ * The in-process schedule. Every instance may run it: each job takes a PostgreSQL advisory lock,
+ * so only one instance does the work of a given run.
+ */
+export function startScheduler(ctx: JobContext): { stop: () => Promise<void> } {
+  const guarded = (name: string, log: Logger, run: () => Promise<unknown>) => async () => {
+    try {
+      log.info({ job: name, result: await run() }, 'job run')
+    } catch (err) {
+      log.error({ job: name, err }, 'job run failed')
+    }
+  }
+  const tasks = [
+    cron.schedule(
+      INGEST_READINGS_CRON,
+      guarded('ingest-readings', ctx.log, () => runIngestReadings(ctx)),
+      {
+        name: 'ingest-readings',
+        noOverlap: true,
+      },
+    ),
+    cron.schedule(
+      INGEST_WEATHER_CRON,
+      guarded('ingest-weather', ctx.log, () => runIngestWeather(ctx)),
+      {
+        name: 'ingest-weather',
+        noOverlap: true,
+      },
+    ),
+  ]
+  return {
+    stop: async () => {
+      for (const task of tasks) await task.stop()
+    },
+  }
+}

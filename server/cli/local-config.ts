@@ -1,0 +1,34 @@
+import { randomBytes } from 'node:crypto'
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { join } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { clusterUrl } from '../db/cluster'
+import type { Env } from '../env'
+
+export const dataDir = fileURLToPath(new URL('../../.data', import.meta.url))
+
+/** A secret made once and kept in .data/, so sessions survive restarts of the local app. */
+export function localSecret(name: string, bytes: number): string {
+  mkdirSync(dataDir, { recursive: true, mode: 0o755 })
+  const file = join(dataDir, name)
+  if (!existsSync(file))
+    writeFileSync(file, randomBytes(bytes).toString('base64url'), { mode: 0o600 })
+  return readFileSync(file, 'utf8').trim()
+}
+
+export function localDatabase(env: Env) {
+  return {
+    port: env.CHOPLINE_PG_PORT,
+    user: 'chopline',
+    password: localSecret('pg-password', 18),
+    database: 'chopline',
+  }
+}
+
+/** Where jobs run by hand find the stack `npm start` runs, when DATABASE_URL and FEED_URL are unset. */
+export function localConnection(env: Env): { databaseUrl: string; feedUrl: string } {
+  return {
+    databaseUrl: env.DATABASE_URL ?? clusterUrl(localDatabase(env)),
+    feedUrl: env.FEED_URL ?? `http://127.0.0.1:${env.FEED_PORT}`,
+  }
+}

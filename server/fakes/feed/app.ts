@@ -1,0 +1,327 @@
+import express, { type Request, type Response } from 'express'
+import { PARAMETERS, type Parameter } from '../../../shared/readings'
+import { M_PER_FT } from '../../../shared/units'
+import { FaultInjector, type FaultPlan, type ItemFault } from './faults'
+import { LakeWorld, type FeedLake } from './model'
+
+export interface FeedStation {
+  thingId: number
+  name: string
+  lake: FeedLake
+  /** What the station publishes, in the units it publishes them. */
+  datastreams: { parameter: Parameter; unit: string }[]
+}
+
+export interface ServedObservation {
+  datastreamId: number
+  at: string
+  value: number
+  unit: string
+}
+
+/** What the fake has handed out in complete, well-formed responses: the ground truth for tests. */
+export interface FeedTruth {
+  good: Map<string, ServedObservation>
+  bad: Map<string, ServedObservation & { fault: ItemFault }>
+}
+
+export interface FeedOptions {
+  seed: number
+  stations: FeedStation[]
+  /** The feed's clock: nothing after it has been observed yet. */
+  now?: () => Date
+}
+
+const QUARTER = 900_000
+const DAY = 86_400_000
+const UNIT_NAMES: Record<string, { name: string; definition: string }> = {
+  '°C': { name: 'degree Celsius', definition: 'http://qudt.org/vocab/unit/DEG_C' },
+  '°F': { name: 'degree Fahrenheit', definition: 'http://qudt.org/vocab/unit/DEG_F' },
+  ft: { name: 'foot', definition: 'http://qudt.org/vocab/unit/FT' },
+  m: { name: 'metre', definition: 'http://qudt.org/vocab/unit/M' },
+  FNU: { name: 'formazin nephelometric unit', definition: 'ISO 7027' },
+  NTU: { name: 'nephelometric turbidity unit', definition: 'EPA 180.1' },
+}
+
+/** The published value of a parameter at t, in the station's unit, rounded as agencies round. */
+function published(world: LakeWorld, parameter: Parameter, unit: string, t: number): number {
+  const si =
+    parameter === 'water_temp'
+      ? world.waterC(t)
+      : parameter === 'gauge_height'
+        ? world.gaugeFt(t) * M_PER_FT
+        : parameter === 'turbidity'
+          ? world.turbidityFnu(t)
+          : world.secchiM(t)
+  const value = unit === '°F' ? (si * 9) / 5 + 32 : unit === 'ft' ? si / M_PER_FT : si
+  return Math.round(value * 100) / 100
+}
+
+/** A value no sensor should report: hot water, negative turbidity, a 30 ft jump in the level. */
+function implausible(parameter: Parameter, unit: string, value: number): number {
+  if (parameter === 'water_temp') return unit === '°F' ? 140 : 60
+  if (parameter === 'gauge_height') return value + (unit === 'ft' ? 30 : 30 * M_PER_FT)
+  return -5
+}
+
+interface TimeFilter {
+  after?: number
+  afterInclusive?: boolean
+  before?: number
+  beforeInclusive?: boolean
+}
+
+/** The subset of SensorThings $filter we serve: phenomenonTime gt|ge|lt|le <ISO>, joined by and. */
+function parseFilter(filter: string | undefined): TimeFilter | null {
+  const out: TimeFilter = {}
+  if (!filter) return out
+  for (const part of filter.split(/\s+and\s+/i)) {
+    const m = /^\s*phenomenonTime\s+(gt|ge|lt|le)\s+(\S+)\s*$/i.exec(part)
+    const t = m ? Date.parse(m[2]!) : NaN
+    if (!m || Number.isNaN(t)) return null
+    const op = m[1]!.toLowerCase()
+    if (op === 'gt' || op === 'ge') Object.assign(out, { after: t, afterInclusive: op === 'ge' })
+    else Object.assign(out, { before: t, beforeInclusive: op === 'le' })
+  }
+  return out
+}
+
+function observationTimes(parameter: Parameter, f: TimeFilter, now: number): number[] {
+  const step = PARAMETERS[parameter].cadenceMin === 1440 ? DAY : QUARTER
+  // Daily readings are taken at 15:00 UTC.
+  const offset = step === DAY ? 15 * 3_600_000 : 0
+  const lo = f.after ?? now - 7 * DAY
+  let t = Math.ceil((lo - offset) / step) * step + offset
+  if (t === f.after && !f.afterInclusive) t += step
+  const hi = Math.min(f.before ?? now, now)
+  // Up to and including now, unless the filter ends earlier with lt.
+  const inclusive = f.before === undefined || f.before > now || f.beforeInclusive === true
+  const times: number[] = []
+  for (; inclusive ? t <= hi : t < hi; t += step) times.push(t)
+  return times
+}
+
+export function createFeed(opts: FeedOptions) {
+  const now = () => (opts.now ? opts.now() : new Date()).getTime()
+  const faults = new FaultInjector(opts.seed)
+  const truth: FeedTruth = { good: new Map(), bad: new Map() }
+  const worlds = new Map<string, LakeWorld>()
+  const lakes = [...new Map(opts.stations.map((s) => [s.lake.slug, s.lake])).values()]
+  lakes.forEach((lake, i) => worlds.set(lake.slug, new LakeWorld(lake, opts.seed, i)))
+  const controls = {
+    faults,
+    truth,
+    /** Stations that answer 404 as if removed from the feed. */
+    disappeared: new Set<number>(),
+    /** Stations that stop reporting after an instant (ms). */
+    silentAfter: new Map<number, number>(),
+    setPlan(plan: Partial<FaultPlan>) {
+      faults.plan = { ...faults.plan, ...plan }
+    },
+  }
+
+  const datastreams = opts.stations.flatMap((station) =>
+    station.datastreams.map((ds, i) => ({ id: station.thingId * 10 + i, station, ...ds })),
+  )
+  const base = (req: Request) => `${req.protocol}://${req.get('host')}/v1.1`
+
+  const dsJson = (req: Request, ds: (typeof datastreams)[number]) => ({
+    '@iot.id': ds.id,
+    '@iot.selfLink': `${base(req)}/Datastreams(${ds.id})`,
+    name: `${ds.station.name} ${PARAMETERS[ds.parameter].name}`,
+    unitOfMeasurement: { symbol: ds.unit, ...UNIT_NAMES[ds.unit] },
+    ObservedProperty: {
+      '@iot.id': PARAMETERS[ds.parameter].code,
+      name: PARAMETERS[ds.parameter].name,
+      definition: `parameter code ${PARAMETERS[ds.parameter].code}`,
+    },
+    'Observations@iot.navigationLink': `${base(req)}/Datastreams(${ds.id})/Observations`,
+  })
+
+  /** Sends a body under the plan's request faults; `onSent` runs only when it arrived whole. */
+  async function send(req: Request, res: Response, body: unknown, onSent?: () => void) {
+    const fault = faults.forRequest(
+      typeof req.query.fault === 'string' ? req.query.fault : undefined,
+    )
+    if (fault) faults.count(fault)
+    if (fault === 'http500' || fault === 'http503') {
+      res.status(fault === 'http500' ? 500 : 503).json({ error: 'injected' })
+      return
+    }
+    if (fault === 'slow') await new Promise((r) => setTimeout(r, faults.plan.slowMs || 2000))
+    if (req.socket.destroyed) return
+    const text = JSON.stringify(body)
+    res.type('application/json')
+    if (fault === 'truncated') return void res.send(text.slice(0, Math.floor(text.length / 2)))
+    if (fault === 'malformed') return void res.send(`{"value": [${text.slice(1, 40)}`)
+    res.on('finish', () => onSent?.())
+    res.send(text)
+  }
+
+  const app = express()
+  app.disable('x-powered-by')
+
+  app.get('/v1.1/Things', (req, res) => {
+    const value = opts.stations
+      .filter((s) => !controls.disappeared.has(s.thingId))
+      .map((s) => ({
+        '@iot.id': s.thingId,
+        name: s.name,
+        properties: { lake: s.lake.slug },
+        'Datastreams@iot.navigationLink': `${base(req)}/Things(${s.thingId})/Datastreams`,
+      }))
+    void send(req, res, { value })
+  })
+
+  app.get(/^\/v1\.1\/Things\((\d+)\)\/Datastreams$/, (req, res) => {
+    const id = Number((req.params as Record<string, string>)[0])
+    const station = opts.stations.find((s) => s.thingId === id)
+    if (!station || controls.disappeared.has(id)) {
+      if (station) faults.count('disappeared')
+      return void res.status(404).json({ error: 'no such Thing' })
+    }
+    void send(req, res, {
+      value: datastreams.filter((d) => d.station === station).map((d) => dsJson(req, d)),
+    })
+  })
+
+  app.get(/^\/v1\.1\/Datastreams\((\d+)\)\/Observations$/, (req, res) => {
+    const id = Number((req.params as Record<string, string>)[0])
+    const ds = datastreams.find((d) => d.id === id)
+    if (!ds || controls.disappeared.has(ds.station.thingId)) {
+      if (ds) faults.count('disappeared')
+      return void res.status(404).json({ error: 'no such Datastream' })
+    }
+    const filter = parseFilter(req.query.$filter as string | undefined)
+    if (!filter) return void res.status(400).json({ error: 'unsupported $filter' })
+    const top = Math.min(Number(req.query.$top ?? 100) || 100, 1000)
+    const skip = Math.max(Number(req.query.$skip ?? 0) || 0, 0)
+    const silent = controls.silentAfter.get(ds.station.thingId)
+    const limit = silent === undefined ? now() : Math.min(now(), silent)
+    let times = observationTimes(ds.parameter, filter, limit)
+    if (
+      String(req.query.$orderby ?? '')
+        .toLowerCase()
+        .includes('desc')
+    )
+      times = times.reverse()
+    const world = worlds.get(ds.station.lake.slug)!
+    const page = times.slice(skip, skip + top)
+    const forced = typeof req.query.itemFault === 'string' ? req.query.itemFault : undefined
+    const value: Record<string, unknown>[] = []
+    const good: [string, ServedObservation][] = []
+    const bad: [string, ServedObservation & { fault: ItemFault }][] = []
+    let shuffle = false
+    for (const t of page) {
+      const obsId = `${ds.id}-${t / 60_000}`
+      const at = new Date(t).toISOString()
+      let result = published(world, ds.parameter, ds.unit, t)
+      const fault = faults.forItem(forced)
+      if (fault) faults.count(fault)
+      if (fault === 'gap') continue
+      if (fault === 'out-of-order') shuffle = true
+      if (fault === 'implausible') {
+        result = implausible(ds.parameter, ds.unit, result)
+        bad.push([obsId, { datastreamId: ds.id, at, value: result, unit: ds.unit, fault }])
+      } else {
+        good.push([obsId, { datastreamId: ds.id, at, value: result, unit: ds.unit }])
+      }
+      const obs = { '@iot.id': obsId, phenomenonTime: at, resultTime: at, result }
+      value.push(obs)
+      if (fault === 'duplicate') value.push({ ...obs })
+    }
+    if (shuffle) value.reverse()
+    const body: Record<string, unknown> = { value }
+    if (skip + top < times.length) {
+      const next = new URLSearchParams(req.query as Record<string, string>)
+      next.set('$skip', String(skip + top))
+      next.set('$top', String(top))
+      next.delete('fault')
+      next.delete('itemFault')
+      body['@iot.nextLink'] = `${base(req)}/Datastreams(${ds.id})/Observations?${next}`
+    }
+    void send(req, res, body, () => {
+      for (const [k, v] of good) truth.good.set(k, v)
+      for (const [k, v] of bad) truth.bad.set(k, v)
+    })
+  })
+
+  const WEATHER_UNITS = {
+    windSpeed: 'm/s',
+    windGust: 'm/s',
+    windFrom: 'degree true',
+    airTemperature: '°C',
+    relativeHumidity: '%',
+    pressure: 'hPa',
+    precipitation: 'mm',
+    cloudCover: '%',
+    precipitationProbability: '%',
+    thunderProbability: '%',
+  }
+
+  const hourJson = (world: LakeWorld, t: number, forecastLeadH = 0) => {
+    const w = world.weather(t)
+    // Forecasts drift further from what happens the further ahead they look.
+    const err = 1 + 0.01 * forecastLeadH * Math.sin(t / 3_600_000)
+    return {
+      time: new Date(t).toISOString(),
+      windSpeed: +(w.windMs * err).toFixed(1),
+      windGust: +(w.gustMs * err).toFixed(1),
+      windFrom: Math.round(w.windFromDeg),
+      airTemperature: +w.airC.toFixed(1),
+      relativeHumidity: Math.round(w.relativeHumidityPct),
+      pressure: +w.pressureHpa.toFixed(1),
+      precipitation: +w.precipitationMm.toFixed(1),
+      cloudCover: Math.round(w.cloudCoverPct),
+      precipitationProbability: w.precipitationProbabilityPct,
+      thunderProbability: w.thunderProbabilityPct,
+    }
+  }
+
+  app.get('/weather/v1/lakes/:slug/observations', (req, res) => {
+    const world = worlds.get(req.params.slug)
+    if (!world) return void res.status(404).json({ error: 'no such lake' })
+    const end = Math.min(Date.parse(String(req.query.end ?? '')) || now(), now())
+    const start = Date.parse(String(req.query.start ?? '')) || end - DAY
+    const hours: unknown[] = []
+    for (
+      let t = Math.floor(start / 3_600_000 + 1) * 3_600_000;
+      t <= end && hours.length < 24 * 400;
+      t += 3_600_000
+    ) {
+      hours.push(hourJson(world, t))
+    }
+    void send(req, res, { lake: world.lake.slug, units: WEATHER_UNITS, hours })
+  })
+
+  app.get('/weather/v1/lakes/:slug/forecast', (req, res) => {
+    const world = worlds.get(req.params.slug)
+    if (!world) return void res.status(404).json({ error: 'no such lake' })
+    const issued = Math.floor(now() / 3_600_000) * 3_600_000
+    const hours = Array.from({ length: 168 }, (_, i) =>
+      hourJson(world, issued + (i + 1) * 3_600_000, i + 1),
+    )
+    void send(req, res, {
+      lake: world.lake.slug,
+      issuedAt: new Date(issued).toISOString(),
+      units: WEATHER_UNITS,
+      hours,
+    })
+  })
+
+  // The fake's own admin endpoint: switch faults for a run without restarting it.
+  app.post('/__admin/faults', express.json(), (req, res) => {
+    controls.setPlan(req.body as Partial<FaultPlan>)
+    res.json({ plan: faults.plan, injected: Object.fromEntries(faults.injected) })
+  })
+  app.get('/__admin/faults', (_req, res) => {
+    res.json({
+      plan: faults.plan,
+      injected: Object.fromEntries(faults.injected),
+      total: faults.total,
+    })
+  })
+
+  return { app, controls }
+}
+export type Feed = ReturnType<typeof createFeed>

@@ -1,0 +1,89 @@
+/** How the jobs talk to the feed: every call bounded in time and retried with backoff and jitter. */
+export interface FetchPolicy {
+  timeoutMs: number
+  retries: number
+  baseDelayMs: number
+  maxDelayMs: number
+}
+
+export const DEFAULT_POLICY: FetchPolicy = {
+  timeoutMs: 10_000,
+  retries: 3,
+  baseDelayMs: 500,
+  maxDelayMs: 8_000,
+}
+
+export type FeedErrorKind =
+  'timeout' | 'network' | 'http' | 'not_found' | 'parse' | 'shape' | 'untrusted'
+
+export class FeedError extends Error {
+  constructor(
+    readonly kind: FeedErrorKind,
+    message: string,
+    readonly status?: number,
+  ) {
+    super(message)
+    this.name = 'FeedError'
+  }
+}
+
+const RETRYABLE = new Set<FeedErrorKind>(['timeout', 'network', 'http', 'parse'])
+
+/** Exponential backoff with "equal jitter": half the delay fixed, half random. */
+export function backoffMs(policy: FetchPolicy, attempt: number): number {
+  const ceiling = Math.min(policy.maxDelayMs, policy.baseDelayMs * 2 ** attempt)
+  return ceiling / 2 + (Math.random() * ceiling) / 2
+}
+
+async function once(url: string, timeoutMs: number): Promise<unknown> {
+  let res: Response
+  try {
+    res = await fetch(url, {
+      signal: AbortSignal.timeout(timeoutMs),
+      headers: { accept: 'application/json' },
+    })
+  } catch (err) {
+    const timedOut =
+      err instanceof DOMException && (err.name === 'TimeoutError' || err.name === 'AbortError')
+    throw new FeedError(
+      timedOut ? 'timeout' : 'network',
+      `${timedOut ? 'Timed out' : 'Could not reach'} ${url}`,
+    )
+  }
+  if (res.status === 404) throw new FeedError('not_found', `${url} answered 404`, 404)
+  if (!res.ok) throw new FeedError('http', `${url} answered ${res.status}`, res.status)
+  let text: string
+  try {
+    text = await res.text()
+  } catch {
+    throw new FeedError('timeout', `Timed out reading ${url}`)
+  }
+  try {
+    return JSON.parse(text)
+  } catch {
+    throw new FeedError('parse', `${url} sent a body that is not JSON (${text.length} bytes)`)
+  }
+}
+
+/**
+ * GET a JSON document from the feed. Only URLs on the feed's own origin are followed (a nextLink
+ * elsewhere is refused); failures that may pass are retried, a 404 is not.
+ */
+export async function getJson(
+  feedOrigin: string,
+  url: string,
+  policy: FetchPolicy,
+): Promise<unknown> {
+  if (new URL(url).origin !== new URL(feedOrigin).origin) {
+    throw new FeedError('untrusted', `Refusing to follow ${url} off the feed's origin`)
+  }
+  for (let attempt = 0; ; attempt++) {
+    try {
+      return await once(url, policy.timeoutMs)
+    } catch (err) {
+      if (!(err instanceof FeedError) || !RETRYABLE.has(err.kind) || attempt >= policy.retries)
+        throw err
+      await new Promise((r) => setTimeout(r, backoffMs(policy, attempt)))
+    }
+  }
+}
