@@ -9,17 +9,29 @@ import { backfillReadings } from '../server/features/ingest/readings.ingest'
 import { createLogger } from '../server/logger'
 
 /**
- * `npm run backfill -- --lake <slug> --days 365`: a lake's history (next to npm start, or with
- * DATABASE_URL and FEED_URL) through the same validation as
- * live ingestion, with a progress bar. Ctrl-C is safe: a rerun resumes from the last committed page.
+ * `npm run backfill -- --lake <slug> --days 365 [--until <ISO>]`: a lake's history through the same
+ * validation as live ingestion, with a progress bar, next to npm start (or with DATABASE_URL and
+ * FEED_URL). Ctrl-C is safe: a rerun resumes from the last committed page.
  */
 const { values } = parseArgs({
-  options: { lake: { type: 'string' }, days: { type: 'string', default: '365' } },
+  options: {
+    lake: { type: 'string' },
+    days: { type: 'string', default: '365' },
+    until: { type: 'string' },
+  },
 })
 const env = loadEnv()
 const days = Number(values.days)
-if (!values.lake || !Number.isFinite(days) || days <= 0 || days > 3650) {
-  console.error('Usage: npm run backfill -- --lake <slug> --days <1-3650>')
+// History up to this instant (default now), so a rerun covers exactly the same window.
+const until = values.until ? new Date(values.until) : new Date()
+if (
+  !values.lake ||
+  !Number.isFinite(days) ||
+  days <= 0 ||
+  days > 3650 ||
+  Number.isNaN(until.getTime())
+) {
+  console.error('Usage: npm run backfill -- --lake <slug> --days <1-3650> [--until <ISO instant>]')
   process.exit(2)
 }
 const { databaseUrl, feedUrl } = localConnection(env)
@@ -41,7 +53,7 @@ let rows = 0
 let quarantined = 0
 bar.start(100, 0, { rows, quarantined, rate: 0 })
 const result = await backfillReadings(
-  { db, feedUrl, log: createLogger('warn') },
+  { db, feedUrl, log: createLogger('warn'), now: () => until },
   lake.id,
   days,
   (p) => {

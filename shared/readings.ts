@@ -1,6 +1,12 @@
 import { M_PER_FT } from './units'
 
-export const PARAMETER_KEYS = ['water_temp', 'gauge_height', 'turbidity', 'secchi'] as const
+export const PARAMETER_KEYS = [
+  'water_temp',
+  'gauge_height',
+  'turbidity',
+  'dissolved_oxygen',
+  'secchi',
+] as const
 export type Parameter = (typeof PARAMETER_KEYS)[number]
 
 /** What a lake gauge measures, with the agency parameter code used as its observed property. */
@@ -11,6 +17,7 @@ export const PARAMETERS: Record<
   water_temp: { code: '00010', name: 'Water temperature', siUnit: '°C', cadenceMin: 15 },
   gauge_height: { code: '00065', name: 'Gauge height', siUnit: 'm', cadenceMin: 15 },
   turbidity: { code: '63680', name: 'Turbidity', siUnit: 'FNU', cadenceMin: 15 },
+  dissolved_oxygen: { code: '00300', name: 'Dissolved oxygen', siUnit: 'mg/L', cadenceMin: 15 },
   secchi: { code: 'secchi', name: 'Secchi depth', siUnit: 'm', cadenceMin: 1440 },
 }
 
@@ -24,13 +31,15 @@ export function parameterForCode(code: string): Parameter | undefined {
  * Water: 0 to 40 °C, at most 3 °C an hour (surface sensors in summer storms move about 1 °C).
  * Gauge height: -10 to 100 m on the gauge's own datum, at most 0.5 m an hour (a 30 ft jump in
  * 15 minutes is a datum or sensor fault, not a flood). Turbidity: 0 to 4,000 FNU (sensor range),
- * at most 400 FNU an hour. Secchi: 0.05 to 40 m, at most 5 m a day.
+ * at most 400 FNU an hour. Dissolved oxygen: 0 to 25 mg/L, at most 3 mg/L an hour.
+ * Secchi: 0.05 to 40 m, at most 5 m a day.
  */
 export const PLAUSIBLE: Record<Parameter, { min: number; max: number; maxChangePerHour: number }> =
   {
     water_temp: { min: 0, max: 40, maxChangePerHour: 3 },
     gauge_height: { min: -10, max: 100, maxChangePerHour: 0.5 },
     turbidity: { min: 0, max: 4000, maxChangePerHour: 400 },
+    dissolved_oxygen: { min: 0, max: 25, maxChangePerHour: 3 },
     secchi: { min: 0.05, max: 40, maxChangePerHour: 5 / 24 },
   }
 
@@ -58,6 +67,8 @@ export function toSi(parameter: Parameter, value: number, unit: string): number 
     case 'turbidity':
       // FNU (ISO 7027) and NTU read alike for lake water; both are stored as FNU.
       return u === 'fnu' || u === 'ntu' ? value : null
+    case 'dissolved_oxygen':
+      return u === 'mg/l' ? value : null
   }
 }
 
@@ -86,4 +97,15 @@ export function plausibility(
     }
   }
   return null
+}
+
+/**
+ * Dissolved oxygen at saturation in fresh water at 1 atm, mg/L: Benson and Krause (1984), in the
+ * form Standard Methods (APHA 4500-O) gives, T in kelvin.
+ */
+export function oxygenSaturationMgL(waterC: number): number {
+  const t = waterC + 273.15
+  return Math.exp(
+    -139.34411 + 1.575701e5 / t - 6.642308e7 / t ** 2 + 1.2438e10 / t ** 3 - 8.621949e11 / t ** 4,
+  )
 }

@@ -1,7 +1,7 @@
 import type { FeedStation } from '../../fakes/feed/index'
 import { DEMO_LAKES } from './demo-lakes'
 
-/** One gauge per demo lake, publishing in the units an agency would; Quillmere also has a Secchi disk. */
+/** One gauge per demo lake, in the units an agency would publish; Quillmere adds a Secchi disk, Tanglewhit an oxygen probe. */
 export const DEMO_STATIONS: FeedStation[] = DEMO_LAKES.map((shape, i) => ({
   thingId: 100 + i,
   name: `${shape.name} dam gauge`,
@@ -17,6 +17,7 @@ export const DEMO_STATIONS: FeedStation[] = DEMO_LAKES.map((shape, i) => ({
     { parameter: 'gauge_height', unit: i === 1 ? 'm' : 'ft' },
     { parameter: 'turbidity', unit: i === 1 ? 'NTU' : 'FNU' },
     ...(i === 0 ? [{ parameter: 'secchi' as const, unit: 'm' }] : []),
+    ...(i === 2 ? [{ parameter: 'dissolved_oxygen' as const, unit: 'mg/L' }] : []),
   ],
 }))
 

@@ -41,6 +41,7 @@ const UNIT_NAMES: Record<string, { name: string; definition: string }> = {
   m: { name: 'metre', definition: 'http://qudt.org/vocab/unit/M' },
   FNU: { name: 'formazin nephelometric unit', definition: 'ISO 7027' },
   NTU: { name: 'nephelometric turbidity unit', definition: 'EPA 180.1' },
+  'mg/L': { name: 'milligram per litre', definition: 'http://qudt.org/vocab/unit/MilliGM-PER-L' },
 }
 
 /** The published value of a parameter at t, in the station's unit, rounded as agencies round. */
@@ -52,7 +53,9 @@ function published(world: LakeWorld, parameter: Parameter, unit: string, t: numb
         ? world.gaugeFt(t) * M_PER_FT
         : parameter === 'turbidity'
           ? world.turbidityFnu(t)
-          : world.secchiM(t)
+          : parameter === 'dissolved_oxygen'
+            ? world.oxygenMgL(t)
+            : world.secchiM(t)
   const value = unit === '°F' ? (si * 9) / 5 + 32 : unit === 'ft' ? si / M_PER_FT : si
   return Math.round(value * 100) / 100
 }
@@ -262,7 +265,7 @@ export function createFeed(opts: FeedOptions) {
   const hourJson = (world: LakeWorld, t: number, forecastLeadH = 0) => {
     const w = world.weather(t)
     // Forecasts drift further from what happens the further ahead they look.
-    const err = 1 + 0.01 * forecastLeadH * Math.sin(t / 3_600_000)
+    const err = 1 + 0.3 * (forecastLeadH / 168) * Math.sin(t / 3_600_000)
     return {
       time: new Date(t).toISOString(),
       windSpeed: +(w.windMs * err).toFixed(1),

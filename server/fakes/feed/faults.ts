@@ -16,9 +16,17 @@ export interface FaultPlan {
   kinds: FaultKind[]
   /** How long a slow answer takes, milliseconds. */
   slowMs: number
+  /** Added to every answer, faulty or not: a distant or busy feed. */
+  latencyMs: number
 }
 
-export const NO_FAULTS: FaultPlan = { requestRate: 0, itemRate: 0, kinds: [], slowMs: 0 }
+export const NO_FAULTS: FaultPlan = {
+  requestRate: 0,
+  itemRate: 0,
+  kinds: [],
+  slowMs: 0,
+  latencyMs: 0,
+}
 
 /** Draws faults in a repeatable order and counts every one it injects. */
 export class FaultInjector {

@@ -1,4 +1,5 @@
 import { secchiFromTurbidity } from '../../../shared/conditions/clarity'
+import { oxygenSaturationMgL } from '../../../shared/readings'
 
 /**
  * The synthetic lake world behind the fake feed: physical in shape, deterministic for a seed, and
@@ -173,6 +174,16 @@ export class LakeWorld {
   turbidityFnu(t: number): number {
     const value = this.lake.baseTurbidityFnu + 60 * this.rainLoad(t, 6, 2.5)
     return value * (1 + 0.03 * noise(this.seed, this.index, 13, Math.floor(t / 900_000)))
+  }
+
+  /** Near saturation, a little over by afternoon photosynthesis and under by dawn. */
+  oxygenMgL(t: number): number {
+    const daily = 1 + 0.06 * Math.cos((2 * Math.PI * (this.solarHour(t) - 16)) / 24)
+    return (
+      oxygenSaturationMgL(this.waterC(t)) *
+      daily *
+      (1 + 0.01 * noise(this.seed, this.index, 15, Math.floor(t / 900_000)))
+    )
   }
 
   secchiM(t: number): number {

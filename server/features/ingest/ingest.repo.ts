@@ -1,4 +1,4 @@
-import { and, count, desc, eq, getTableColumns, gte, isNull, lt, lte, or, sql } from 'drizzle-orm'
+import { and, count, desc, eq, getTableColumns, gte, isNull, lte, or, sql } from 'drizzle-orm'
 import type { Parameter } from '../../../shared/readings'
 import type { Db } from '../../db/index'
 import {
@@ -194,7 +194,7 @@ export function ingestRepo(db: Db) {
             // Forecast hours now in the past are superseded by observations.
             await tx
               .delete(weatherHours)
-              .where(and(eq(weatherHours.kind, 'forecast'), lt(weatherHours.at, now)))
+              .where(and(eq(weatherHours.kind, 'forecast'), lte(weatherHours.at, now)))
           }
         }
         if (bad.length)

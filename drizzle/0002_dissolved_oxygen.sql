@@ -1,0 +1,1 @@
+ALTER TYPE "public"."parameter" ADD VALUE 'dissolved_oxygen' BEFORE 'secchi';
