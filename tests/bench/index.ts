@@ -1,6 +1,7 @@
 /** `npm run bench -- NAME`: runs one benchmark; each prints a table and ends with one JSON line. */
 const benches: Record<string, () => Promise<unknown>> = {
   exposure: () => import('./exposure'),
+  ingest: () => import('./ingest'),
 }
 
 const name = process.argv[2]

@@ -126,6 +126,7 @@ export function createFeed(opts: FeedOptions) {
   const datastreams = opts.stations.flatMap((station) =>
     station.datastreams.map((ds, i) => ({ id: station.thingId * 10 + i, station, ...ds })),
   )
+  const datastreamById = new Map(datastreams.map((d) => [d.id, d]))
   const base = (req: Request) => `${req.protocol}://${req.get('host')}/v1.1`
 
   const dsJson = (req: Request, ds: (typeof datastreams)[number]) => ({
@@ -165,14 +166,18 @@ export function createFeed(opts: FeedOptions) {
   app.disable('x-powered-by')
 
   app.get('/v1.1/Things', (req, res) => {
-    const value = opts.stations
-      .filter((s) => !controls.disappeared.has(s.thingId))
-      .map((s) => ({
-        '@iot.id': s.thingId,
-        name: s.name,
-        properties: { lake: s.lake.slug },
-        'Datastreams@iot.navigationLink': `${base(req)}/Things(${s.thingId})/Datastreams`,
-      }))
+    const expand = String(req.query.$expand ?? '').includes('Datastreams')
+    const listed = opts.stations.filter((s) => !controls.disappeared.has(s.thingId))
+    faults.count('disappeared', opts.stations.length - listed.length)
+    const value = listed.map((s) => ({
+      '@iot.id': s.thingId,
+      name: s.name,
+      properties: { lake: s.lake.slug },
+      'Datastreams@iot.navigationLink': `${base(req)}/Things(${s.thingId})/Datastreams`,
+      ...(expand
+        ? { Datastreams: datastreams.filter((d) => d.station === s).map((d) => dsJson(req, d)) }
+        : {}),
+    }))
     void send(req, res, { value })
   })
 
@@ -190,7 +195,7 @@ export function createFeed(opts: FeedOptions) {
 
   app.get(/^\/v1\.1\/Datastreams\((\d+)\)\/Observations$/, (req, res) => {
     const id = Number((req.params as Record<string, string>)[0])
-    const ds = datastreams.find((d) => d.id === id)
+    const ds = datastreamById.get(id)
     if (!ds || controls.disappeared.has(ds.station.thingId)) {
       if (ds) faults.count('disappeared')
       return void res.status(404).json({ error: 'no such Datastream' })

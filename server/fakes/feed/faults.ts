@@ -45,6 +45,7 @@ export class FaultInjector {
   }
 
   private pick<K extends FaultKind>(rate: number, kinds: readonly K[]): K | null {
+    if (rate <= 0) return null
     const enabled = kinds.filter((k) => this.plan.kinds.includes(k))
     const r = rand(this.seed, 99, this.draws++)
     if (!enabled.length || r >= rate) return null

@@ -55,6 +55,21 @@ function eventTimes(
   return times
 }
 
+/** Index of the last event at or before t (-1 if none), by binary search. */
+function lastAtOrBefore(times: number[], t: number): number {
+  let lo = 0
+  let hi = times.length - 1
+  let found = -1
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1
+    if (times[mid]! <= t) {
+      found = mid
+      lo = mid + 1
+    } else hi = mid - 1
+  }
+  return found
+}
+
 export interface WeatherSample {
   windMs: number
   gustMs: number
@@ -73,6 +88,7 @@ export class LakeWorld {
   private readonly fronts: number[]
   /** Rain events every 4 to 12 days, with a size from 0.2 to 1. */
   private readonly rains: { at: number; size: number }[]
+  private readonly rainTimes: number[]
 
   constructor(
     readonly lake: FeedLake,
@@ -84,6 +100,7 @@ export class LakeWorld {
       at,
       size: 0.2 + 0.8 * rand(seed, index, 3, k),
     }))
+    this.rainTimes = this.rains.map((r) => r.at)
   }
 
   private solarHour(t: number): number {
@@ -98,17 +115,18 @@ export class LakeWorld {
   /** Strength of the latest front's after-effect (0 to 1), peaking 12 h after it passes. */
   private frontAfter(t: number): number {
     let s = 0
-    for (const f of this.fronts) {
-      if (f > t) break
-      const age = (t - f) / HOUR
-      if (age < 120) s = Math.max(s, Math.min(1, age / 12) * Math.exp(-Math.max(0, age - 12) / 48))
+    // Only fronts of the last five days still matter; walk back from the latest.
+    for (let k = lastAtOrBefore(this.fronts, t); k >= 0; k--) {
+      const age = (t - this.fronts[k]!) / HOUR
+      if (age >= 120) break
+      s = Math.max(s, Math.min(1, age / 12) * Math.exp(-Math.max(0, age - 12) / 48))
     }
     return s
   }
 
   /** How close the next front is (0 to 1) over the day before it. */
   private frontAhead(t: number): number {
-    const next = this.fronts.find((f) => f > t)
+    const next = this.fronts[lastAtOrBefore(this.fronts, t) + 1]
     if (next === undefined) return 0
     const hours = (next - t) / HOUR
     return hours < 24 ? 1 - hours / 24 : 0
@@ -116,19 +134,20 @@ export class LakeWorld {
 
   private rainLoad(t: number, rampH: number, decayDays: number): number {
     let load = 0
-    for (const r of this.rains) {
-      if (r.at > t) break
+    // Events older than eight decay times add nothing measurable.
+    for (let k = lastAtOrBefore(this.rainTimes, t); k >= 0; k--) {
+      const r = this.rains[k]!
       const age = (t - r.at) / HOUR
-      if (age < decayDays * 24 * 8)
-        load += r.size * Math.min(1, age / rampH) * Math.exp(-age / (decayDays * 24))
+      if (age >= decayDays * 24 * 8) break
+      load += r.size * Math.min(1, age / rampH) * Math.exp(-age / (decayDays * 24))
     }
     return load
   }
 
   /** Rain falls for six hours from the start of each event. */
   private raining(t: number): number {
-    for (const r of this.rains) if (r.at <= t && t - r.at < 6 * HOUR) return r.size
-    return 0
+    const r = this.rains[lastAtOrBefore(this.rainTimes, t)]
+    return r && t - r.at < 6 * HOUR ? r.size : 0
   }
 
   private seasonalAirC(t: number): number {

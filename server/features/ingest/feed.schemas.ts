@@ -3,17 +3,16 @@ import { z } from 'zod'
 /** The feed is untrusted: every document and every row is parsed before use. */
 const Id = z.union([z.string().min(1).max(200), z.number().int()]).transform(String)
 
-export const ThingList = z.object({
-  value: z.array(z.object({ '@iot.id': Id, name: z.string() })),
+const Datastream = z.object({
+  '@iot.id': Id,
+  unitOfMeasurement: z.object({ symbol: z.string().min(1).max(20) }),
+  ObservedProperty: z.object({ '@iot.id': Id }),
 })
 
-export const DatastreamList = z.object({
+/** Things with their Datastreams expanded inline ($expand=Datastreams($expand=ObservedProperty)). */
+export const ThingList = z.object({
   value: z.array(
-    z.object({
-      '@iot.id': Id,
-      unitOfMeasurement: z.object({ symbol: z.string().min(1).max(20) }),
-      ObservedProperty: z.object({ '@iot.id': Id }),
-    }),
+    z.object({ '@iot.id': Id, name: z.string(), Datastreams: z.array(Datastream).optional() }),
   ),
 })
 

@@ -1,4 +1,4 @@
-import { and, count, desc, eq, getTableColumns, gte, isNull, lte, or, sql } from 'drizzle-orm'
+import { and, eq, getTableColumns, inArray, isNull, lte, or, sql } from 'drizzle-orm'
 import type { Parameter } from '../../../shared/readings'
 import type { Db } from '../../db/index'
 import {
@@ -25,6 +25,17 @@ export interface QuarantineRow {
 }
 
 export type DatastreamRow = typeof datastreams.$inferSelect
+
+export interface StationHealthUpdate {
+  id: string
+  state: 'ok' | 'stale' | 'failing'
+  lastGoodAt: Date | null
+  lastError: string | null
+  gapCount: number
+  rejected24h: number
+  consecutiveFailures: number
+  circuitOpenUntil: Date | null
+}
 export type StationRow = typeof stations.$inferSelect
 export type WeatherRow = typeof weatherHours.$inferInsert
 
@@ -51,16 +62,16 @@ export function ingestRepo(db: Db) {
           ),
         ),
 
+    /** Records the datastreams the feed lists for each station (units can change) and returns them all. */
     async syncDatastreams(
-      stationId: string,
-      found: { feedId: string; parameter: Parameter; unit: string }[],
+      found: { stationId: string; feedId: string; parameter: Parameter; unit: string }[],
     ) {
       if (!found.length) return []
       await db
         .insert(datastreams)
         .values(
           found.map((d) => ({
-            stationId,
+            stationId: d.stationId,
             parameter: d.parameter,
             feedDatastreamId: d.feedId,
             unit: d.unit,
@@ -70,29 +81,33 @@ export function ingestRepo(db: Db) {
           target: [datastreams.stationId, datastreams.parameter],
           set: { unit: sql`excluded.unit`, feedDatastreamId: sql`excluded.feed_datastream_id` },
         })
-      return db.select().from(datastreams).where(eq(datastreams.stationId, stationId))
-    },
-
-    /** The last good reading at or before `at`, which a new reading's rate of change is judged against. */
-    async lastGood(stationId: string, parameter: Parameter, at: Date | null) {
-      const [row] = await db
-        .select({ value: readings.value, at: readings.observedAt })
-        .from(readings)
-        .where(
-          and(
-            eq(readings.stationId, stationId),
-            eq(readings.parameter, parameter),
-            at ? lte(readings.observedAt, at) : undefined,
-          ),
-        )
-        .orderBy(desc(readings.observedAt))
-        .limit(1)
-      return row
+      return db
+        .select()
+        .from(datastreams)
+        .where(inArray(datastreams.stationId, [...new Set(found.map((d) => d.stationId))]))
     },
 
     /**
-     * One page in one transaction: good rows, quarantined rows and the datastream's progress mark
-     * move together, so a crash leaves the whole page or none of it. Repeats change nothing.
+     * For each datastream, the last good reading at or before `from(ds)`: what a new reading's rate
+     * of change is judged against. One query for the whole run.
+     */
+    async lastGoodBefore(marks: { ds: DatastreamRow; from: Date }[]) {
+      if (!marks.length) return new Map<string, { value: number; at: Date }>()
+      const { rows } = await db.execute<{ id: string; value: number; at: string }>(sql`
+        select m.id, r.value, r.observed_at as at
+        from unnest(${sql.param(marks.map((m) => m.ds.id))}::uuid[],
+                    ${sql.param(marks.map((m) => m.from.toISOString()))}::timestamptz[]) as m(id, since)
+        join datastreams d on d.id = m.id
+        cross join lateral (
+          select value, observed_at from readings
+          where station_id = d.station_id and parameter = d.parameter and observed_at <= m.since
+          order by observed_at desc limit 1) r`)
+      return new Map(rows.map((r) => [r.id, { value: r.value, at: new Date(r.at) }]))
+    },
+
+    /**
+     * One page as one statement: good rows, quarantined rows and the datastream's progress mark
+     * commit together, so a crash leaves the whole page or none of it. Repeats change nothing.
      */
     async commitPage(
       ds: DatastreamRow,
@@ -100,70 +115,86 @@ export function ingestRepo(db: Db) {
       bad: QuarantineRow[],
       mark: { highWaterMark?: Date; backfillCursor?: Date },
     ) {
-      await db.transaction(async (tx) => {
-        if (good.length) {
-          await tx.execute(sql`
-            insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
-            -- One array parameter per column: a page is one statement, however long.
-            select ${ds.stationId}::uuid, ${ds.parameter}::parameter, t, v, o, ${ds.unit}
-            from unnest(${sql.param(good.map((g) => g.observedAt.toISOString()))}::timestamptz[],
-                        ${sql.param(good.map((g) => g.value))}::float8[],
-                        ${sql.param(good.map((g) => g.originalValue))}::float8[]) as u(t, v, o)
-            on conflict do nothing`)
-        }
-        if (bad.length) {
-          await tx
-            .insert(quarantine)
-            .values(bad.map((b) => ({ ...b, stationId: ds.stationId, parameter: ds.parameter })))
-            .onConflictDoNothing()
-        }
-        const set: Partial<DatastreamRow> = {}
-        if (mark.highWaterMark) set.highWaterMark = mark.highWaterMark
-        if (mark.backfillCursor) set.backfillCursor = mark.backfillCursor
-        if (Object.keys(set).length)
-          await tx.update(datastreams).set(set).where(eq(datastreams.id, ds.id))
-      })
-    },
-
-    async stationHealthFacts(stationId: string, now: Date) {
-      const dayAgo = new Date(now.getTime() - 86_400_000)
-      const [last] = await db
-        .select({
-          at: sql<Date | null>`max(${readings.observedAt})`.mapWith((v) =>
-            v ? new Date(v) : null,
-          ),
-        })
-        .from(readings)
-        .where(eq(readings.stationId, stationId))
-      const [rejected] = await db
-        .select({ n: count() })
-        .from(quarantine)
-        .where(and(eq(quarantine.stationId, stationId), gte(quarantine.receivedAt, dayAgo)))
-      // Missing quarter hours in the last day, for the parameters read every 15 minutes.
-      const [gaps] = await db
-        .execute<{ missing: number }>(
-          sql`
-        select coalesce(sum(greatest(0, expected - got)), 0)::int as missing from (
-          select d.parameter,
-                 floor(extract(epoch from (${now.toISOString()}::timestamptz -
-                   greatest(${dayAgo.toISOString()}::timestamptz, min(r.observed_at)))) / 900)::int + 1 as expected,
-                 count(r.observed_at)::int as got
-          from datastreams d
-          join readings r on r.station_id = d.station_id and r.parameter = d.parameter
-           and r.observed_at > ${dayAgo.toISOString()}::timestamptz
-          where d.station_id = ${stationId} and d.parameter <> 'secchi'
-          group by d.parameter) per_parameter`,
+      const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null)
+      await db.execute(sql`
+        with good as (
+          -- One array parameter per column: a page is one round trip, however long.
+          insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
+          select ${ds.stationId}::uuid, ${ds.parameter}::parameter, t, v, o, ${ds.unit}
+          from unnest(${sql.param(good.map((g) => g.observedAt.toISOString()))}::timestamptz[],
+                      ${sql.param(good.map((g) => g.value))}::float8[],
+                      ${sql.param(good.map((g) => g.originalValue))}::float8[]) as u(t, v, o)
+          on conflict do nothing
+        ), bad as (
+          insert into quarantine (station_id, parameter, feed_id, observed_at, raw, reason, detail)
+          select ${ds.stationId}::uuid, ${ds.parameter}, f, o, r, re, d
+          from unnest(${sql.param(bad.map((b) => b.feedId))}::text[],
+                      ${sql.param(bad.map((b) => iso(b.observedAt)))}::timestamptz[],
+                      ${sql.param(bad.map((b) => JSON.stringify(b.raw)))}::jsonb[],
+                      ${sql.param(bad.map((b) => b.reason))}::text[],
+                      ${sql.param(bad.map((b) => b.detail))}::text[]) as u(f, o, r, re, d)
+          on conflict do nothing
         )
-        .then((r) => r.rows)
-      return {
-        lastGoodAt: last?.at ?? null,
-        rejected24h: rejected?.n ?? 0,
-        gapCount: gaps?.missing ?? 0,
-      }
+        update datastreams
+        set high_water_mark = coalesce(${iso(mark.highWaterMark)}::timestamptz, high_water_mark),
+            backfill_cursor = coalesce(${iso(mark.backfillCursor)}::timestamptz, backfill_cursor)
+        where id = ${ds.id}`)
     },
 
-    updateStation: (id: string, set: Partial<StationRow>) =>
-      db.update(stations).set(set).where(eq(stations.id, id)),
+    /**
+     * Health facts for many stations in one query: last good reading, quarantined rows in the last
+     * day, and missing quarter hours in the last day for the parameters read every 15 minutes.
+     */
+    async healthFacts(stationIds: string[], now: Date) {
+      if (!stationIds.length)
+        return new Map<string, { lastGoodAt: Date | null; rejected24h: number; gapCount: number }>()
+      const dayAgo = new Date(now.getTime() - 86_400_000).toISOString()
+      const { rows } = await db.execute<{
+        id: string
+        last_good_at: string | null
+        rejected: number
+        missing: number
+      }>(sql`
+        select s.id,
+          (select max(observed_at) from readings r where r.station_id = s.id) as last_good_at,
+          (select count(*)::int from quarantine q where q.station_id = s.id and q.received_at >= ${dayAgo}::timestamptz) as rejected,
+          (select coalesce(sum(greatest(0, floor(extract(epoch from (${now.toISOString()}::timestamptz
+                    - greatest(${dayAgo}::timestamptz, first_at))) / 900)::int + 1 - got)), 0)::int
+             from (select min(r.observed_at) as first_at, count(*)::int as got
+                   from readings r
+                   where r.station_id = s.id and r.parameter <> 'secchi' and r.observed_at > ${dayAgo}::timestamptz
+                   group by r.parameter) per_parameter) as missing
+        from unnest(${sql.param(stationIds)}::uuid[]) as s(id)`)
+      return new Map(
+        rows.map((r) => [
+          r.id,
+          {
+            lastGoodAt: r.last_good_at ? new Date(r.last_good_at) : null,
+            rejected24h: r.rejected,
+            gapCount: r.missing,
+          },
+        ]),
+      )
+    },
+
+    /** Writes every station's health in one statement. */
+    async updateHealth(now: Date, health: StationHealthUpdate[]) {
+      if (!health.length) return
+      const col = <K extends keyof StationHealthUpdate>(k: K) =>
+        sql.param(health.map((h) => h[k] ?? null))
+      const isoCol = (k: 'lastGoodAt' | 'circuitOpenUntil') =>
+        sql.param(health.map((h) => h[k]?.toISOString() ?? null))
+      await db.execute(sql`
+        update stations s set
+          state = u.state::station_state, last_good_at = u.last_good_at, last_error = u.last_error,
+          gap_count = u.gap_count, rejected24h = u.rejected, consecutive_failures = u.failures,
+          circuit_open_until = u.open_until, last_run_at = ${now.toISOString()}::timestamptz, updated_at = now()
+        from unnest(${col('id')}::uuid[], ${col('state')}::text[], ${isoCol('lastGoodAt')}::timestamptz[],
+                    ${col('lastError')}::text[], ${col('gapCount')}::int[], ${col('rejected24h')}::int[],
+                    ${col('consecutiveFailures')}::int[], ${isoCol('circuitOpenUntil')}::timestamptz[])
+             as u(id, state, last_good_at, last_error, gap_count, rejected, failures, open_until)
+        where s.id = u.id`)
+    },
 
     lakesWithSlugs: () => db.select({ id: lakes.id, slug: lakes.slug }).from(lakes),
 

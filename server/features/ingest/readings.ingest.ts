@@ -2,9 +2,15 @@ import pLimit from 'p-limit'
 import { parameterForCode } from '../../../shared/readings'
 import type { Db } from '../../db/index'
 import type { Logger } from '../../logger'
-import { DatastreamList, ObservationPage } from './feed.schemas'
+import { ObservationPage, ThingList } from './feed.schemas'
 import { DEFAULT_POLICY, FeedError, getJson, type FetchPolicy } from './feed-client'
-import { ingestRepo, type DatastreamRow, type IngestRepo, type StationRow } from './ingest.repo'
+import {
+  ingestRepo,
+  type DatastreamRow,
+  type IngestRepo,
+  type StationHealthUpdate,
+  type StationRow,
+} from './ingest.repo'
 import { validatePage } from './validate-page'
 
 export interface IngestDeps {
@@ -21,7 +27,6 @@ export interface IngestDeps {
 export interface IngestSummary {
   stations: number
   failed: number
-  skippedByBreaker: number
   good: number
   quarantined: number
 }
@@ -42,6 +47,8 @@ export const STALE_AFTER_MS = 2 * 3_600_000
 /** After this many failed runs in a row the breaker opens, for 5 minutes doubling to an hour. */
 const BREAKER_THRESHOLD = 3
 
+export const T: Record<string, number> = {}
+const tm = async <X>(k: string, p: Promise<X>): Promise<X> => { const t = performance.now(); try { return await p } finally { T[k] = (T[k] ?? 0) + performance.now() - t } }
 const iso = (d: Date) => d.toISOString().replace('.000Z', 'Z')
 
 /** Observations after `from` (and at or before `until`), oldest first, through every nextLink. */
@@ -50,6 +57,7 @@ async function readDatastream(
   deps: Required<Pick<IngestDeps, 'feedUrl' | 'policy' | 'pageSize'>>,
   ds: DatastreamRow,
   window: { from: Date; until?: Date; backfill?: boolean },
+  previous: { value: number; at: Date } | undefined,
   onPage?: (progress: PageProgress) => void,
 ): Promise<{ good: number; quarantined: number; latest?: Date }> {
   const filter = [
@@ -63,17 +71,16 @@ async function readDatastream(
   })
   let url: string | undefined =
     `${deps.feedUrl}/v1.1/Datastreams(${ds.feedDatastreamId})/Observations?${query}`
-  let previous = await repo.lastGood(ds.stationId, ds.parameter, window.from)
   const totals: { good: number; quarantined: number; latest?: Date } = { good: 0, quarantined: 0 }
   while (url) {
-    const page = ObservationPage.safeParse(await getJson(deps.feedUrl, url, deps.policy))
+    const page = ObservationPage.safeParse(await tm('fetch', getJson(deps.feedUrl, url, deps.policy)))
     if (!page.success)
       throw new FeedError('shape', `Observations page from ${url} has the wrong shape`)
     const verdict = validatePage(ds.parameter, ds.unit, page.data.value, previous)
     const mark =
       verdict.latest &&
       (window.backfill ? { backfillCursor: verdict.latest } : { highWaterMark: verdict.latest })
-    await repo.commitPage(ds, verdict.good, verdict.bad, mark ?? {})
+    await tm('commit', repo.commitPage(ds, verdict.good, verdict.bad, mark ?? {}))
     previous = verdict.previous
     totals.good += verdict.good.length
     totals.quarantined += verdict.bad.length
@@ -89,43 +96,117 @@ async function readDatastream(
   return totals
 }
 
-/** The station's datastreams as the feed lists them now, matched to our parameters by observed property. */
-async function discover(
+/**
+ * Every Thing the feed lists, with its datastreams matched to our parameters by observed property:
+ * one request per run. A station missing from the list has gone from the feed.
+ */
+async function discover(deps: Required<Pick<IngestDeps, 'feedUrl' | 'policy'>>) {
+  const url = `${deps.feedUrl}/v1.1/Things?$expand=Datastreams($expand=ObservedProperty)`
+  const list = ThingList.safeParse(await getJson(deps.feedUrl, url, deps.policy))
+  if (!list.success) throw new FeedError('shape', 'The Things list has the wrong shape')
+  return new Map(
+    list.data.value.map((thing) => [
+      thing['@iot.id'],
+      (thing.Datastreams ?? []).flatMap((d) => {
+        const parameter = parameterForCode(d.ObservedProperty['@iot.id'])
+        return parameter
+          ? [{ feedId: d['@iot.id'], parameter, unit: d.unitOfMeasurement.symbol }]
+          : []
+      }),
+    ]),
+  )
+}
+
+type Listing = Awaited<ReturnType<typeof discover>>
+
+/** The due stations' datastreams, synced from the listing, with what each read starts from. */
+async function plan(
   repo: IngestRepo,
-  deps: Required<Pick<IngestDeps, 'feedUrl' | 'policy'>>,
-  station: StationRow,
+  stations: StationRow[],
+  listing: Listing,
+  start: (ds: DatastreamRow) => Date,
 ) {
-  const url = `${deps.feedUrl}/v1.1/Things(${station.feedThingId})/Datastreams?$expand=ObservedProperty`
-  const list = DatastreamList.safeParse(await getJson(deps.feedUrl, url, deps.policy))
-  if (!list.success)
-    throw new FeedError('shape', `Datastreams of Thing ${station.feedThingId} have the wrong shape`)
-  const found = list.data.value.flatMap((d) => {
-    const parameter = parameterForCode(d.ObservedProperty['@iot.id'])
-    return parameter ? [{ feedId: d['@iot.id'], parameter, unit: d.unitOfMeasurement.symbol }] : []
-  })
-  return repo.syncDatastreams(station.id, found)
+  const found = stations.flatMap((s) =>
+    (listing.get(s.feedThingId) ?? []).map((d) => ({ ...d, stationId: s.id })),
+  )
+  const streams = (await repo.syncDatastreams(found)).map((ds) => ({ ds, from: start(ds) }))
+  const previous = await repo.lastGoodBefore(streams)
+  return (station: StationRow) =>
+    streams
+      .filter((w) => w.ds.stationId === station.id)
+      .map((w) => ({ ...w, previous: previous.get(w.ds.id) }))
 }
 
 /** Health from what is in the database after the run, and the breaker from how the run went. */
 async function recordHealth(
   repo: IngestRepo,
-  station: StationRow,
+  stations: StationRow[],
   now: Date,
-  error: string | null,
+  errors: Map<string, string>,
 ) {
-  const facts = await repo.stationHealthFacts(station.id, now)
-  const failures = error ? station.consecutiveFailures + 1 : 0
-  const opens = failures >= BREAKER_THRESHOLD
-  const restMin = Math.min(60, 5 * 2 ** (failures - BREAKER_THRESHOLD))
-  const stale = !facts.lastGoodAt || now.getTime() - facts.lastGoodAt.getTime() > STALE_AFTER_MS
-  await repo.updateStation(station.id, {
-    ...facts,
-    lastRunAt: now,
-    lastError: error,
-    consecutiveFailures: failures,
-    circuitOpenUntil: opens ? new Date(now.getTime() + restMin * 60_000) : null,
-    state: error ? 'failing' : stale ? 'stale' : 'ok',
-  })
+  const facts = await repo.healthFacts(
+    stations.map((s) => s.id),
+    now,
+  )
+  await repo.updateHealth(
+    now,
+    stations.map((station): StationHealthUpdate => {
+      const f = facts.get(station.id) ?? { lastGoodAt: null, rejected24h: 0, gapCount: 0 }
+      const error = errors.get(station.id) ?? null
+      const failures = error ? station.consecutiveFailures + 1 : 0
+      const restMin = Math.min(60, 5 * 2 ** (failures - BREAKER_THRESHOLD))
+      const stale = !f.lastGoodAt || now.getTime() - f.lastGoodAt.getTime() > STALE_AFTER_MS
+      return {
+        id: station.id,
+        ...f,
+        lastError: error,
+        consecutiveFailures: failures,
+        circuitOpenUntil:
+          failures >= BREAKER_THRESHOLD ? new Date(now.getTime() + restMin * 60_000) : null,
+        state: error ? 'failing' : stale ? 'stale' : 'ok',
+      }
+    }),
+  )
+}
+
+/** Runs `read` for each station with bounded concurrency; a FeedError fails that station alone. */
+async function perStation(
+  stations: StationRow[],
+  deps: IngestDeps,
+  listing: Listing | FeedError,
+  read: (station: StationRow) => Promise<void>,
+): Promise<Map<string, string>> {
+  const errors = new Map<string, string>()
+  const limit = pLimit(deps.concurrency ?? 4)
+  await Promise.all(
+    stations.map((station) =>
+      limit(async () => {
+        try {
+          if (listing instanceof FeedError) throw listing
+          if (!listing.has(station.feedThingId)) {
+            throw new FeedError('not_found', `Thing ${station.feedThingId} is not in the feed`)
+          }
+          await read(station)
+        } catch (err) {
+          if (!(err instanceof FeedError)) throw err
+          errors.set(station.id, err.message)
+          deps.log.warn({ station: station.name, err: err.message }, 'station failed this run')
+        }
+      }),
+    ),
+  )
+  return errors
+}
+
+async function listOrError(
+  deps: Required<Pick<IngestDeps, 'feedUrl' | 'policy'>>,
+): Promise<Listing | FeedError> {
+  try {
+    return await discover(deps)
+  } catch (err) {
+    if (err instanceof FeedError) return err
+    throw err
+  }
 }
 
 /** One pass of `ingest-readings` over every due station. */
@@ -141,37 +222,25 @@ export async function ingestReadings(
     pageSize: deps.pageSize ?? 500,
   }
   const due = await repo.dueStations(now, scope.lakeId)
-  const summary: IngestSummary = {
-    stations: due.length,
-    failed: 0,
-    skippedByBreaker: 0,
-    good: 0,
-    quarantined: 0,
-  }
-  const limit = pLimit(deps.concurrency ?? 4)
-  await Promise.all(
-    due.map((station) =>
-      limit(async () => {
-        let error: string | null = null
-        try {
-          for (const ds of await discover(repo, opts, station)) {
-            const from = ds.highWaterMark
-              ? new Date(ds.highWaterMark.getTime() - OVERLAP_MS)
-              : new Date(now.getTime() - FIRST_READ_MS)
-            const got = await readDatastream(repo, opts, ds, { from })
-            summary.good += got.good
-            summary.quarantined += got.quarantined
-          }
-        } catch (err) {
-          if (!(err instanceof FeedError)) throw err
-          error = err.message
-          summary.failed++
-          deps.log.warn({ station: station.name, err: err.message }, 'station failed this run')
-        }
-        await recordHealth(repo, station, now, error)
-      }),
-    ),
-  )
+  const summary: IngestSummary = { stations: due.length, failed: 0, good: 0, quarantined: 0 }
+  const listing = await listOrError(opts)
+  const reads =
+    listing instanceof FeedError
+      ? () => []
+      : await tm('plan', plan(repo, due, listing, (ds) =>
+          ds.highWaterMark
+            ? new Date(ds.highWaterMark.getTime() - OVERLAP_MS)
+            : new Date(now.getTime() - FIRST_READ_MS),
+        ))
+  const errors = await perStation(due, deps, listing, async (station) => {
+    for (const { ds, from, previous } of reads(station)) {
+      const got = await readDatastream(repo, opts, ds, { from }, previous)
+      summary.good += got.good
+      summary.quarantined += got.quarantined
+    }
+  })
+  summary.failed = errors.size
+  await tm('health', recordHealth(repo, due, now, errors))
   return summary
 }
 
@@ -194,21 +263,35 @@ export async function backfillReadings(
     pageSize: deps.pageSize ?? 1000,
   }
   const start = new Date(now.getTime() - days * 86_400_000)
-  for (const station of await repo.dueStations(now, lakeId)) {
-    for (const ds of await discover(repo, opts, station)) {
-      const until = ds.highWaterMark ?? now
-      const from = ds.backfillCursor && ds.backfillCursor > start ? ds.backfillCursor : start
-      if (from >= until) continue
-      const got = await readDatastream(repo, opts, ds, { from, until, backfill: true }, (p) =>
-        onPage?.({ ...p, from, until }),
-      )
-      // Once history meets live data, live ingestion continues from the last reading seen.
-      if (!ds.highWaterMark && got.latest)
-        await repo.commitPage(ds, [], [], { highWaterMark: got.latest })
-      totals.good += got.good
-      totals.quarantined += got.quarantined
-    }
-    await recordHealth(repo, station, now, null)
-  }
+  const stations = await repo.dueStations(now, lakeId)
+  const listing = await discover(opts)
+  const reads = await plan(repo, stations, listing, (ds) =>
+    ds.backfillCursor && ds.backfillCursor > start ? ds.backfillCursor : start,
+  )
+  const errors = await perStation(
+    stations,
+    { ...deps, concurrency: 1 },
+    listing,
+    async (station) => {
+      for (const { ds, from, previous } of reads(station)) {
+        const until = ds.highWaterMark ?? now
+        if (from >= until) continue
+        const got = await readDatastream(
+          repo,
+          opts,
+          ds,
+          { from, until, backfill: true },
+          previous,
+          (p) => onPage?.({ ...p, from, until }),
+        )
+        // Once history meets live data, live ingestion continues from the last reading seen.
+        if (!ds.highWaterMark && got.latest)
+          await repo.commitPage(ds, [], [], { highWaterMark: got.latest })
+        totals.good += got.good
+        totals.quarantined += got.quarantined
+      }
+    },
+  )
+  await recordHealth(repo, stations, now, errors)
   return totals
 }

@@ -118,7 +118,7 @@ describe('ingest-readings', () => {
     }
     const gone = await stationByThing(ctx.db, 102)
     expect(gone.state).toBe('failing')
-    expect(gone.lastError).toMatch(/404/)
+    expect(gone.lastError).toMatch(/not in the feed/)
     expect(gone.circuitOpenUntil!.getTime()).toBeGreaterThan(feed.now().getTime())
     expect((await stationByThing(ctx.db, 100)).state).toBe('ok')
     // While the breaker is open the station is left alone.
