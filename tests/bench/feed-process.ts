@@ -6,6 +6,8 @@ const feed = await startFeed({
   seed: 3,
   stations: benchStations(Number(process.argv[2] ?? 500)),
   now: () => BENCH_NOW,
+  recordTruth: false,
 })
 console.log(feed.url)
-for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => void feed.close().then(() => process.exit(0)))
+for (const signal of ['SIGINT', 'SIGTERM'] as const)
+  process.on(signal, () => void feed.close().then(() => process.exit(0)))

@@ -106,7 +106,6 @@ try {
     pageSize: 1000,
   })
   const jobMs = performance.now() - t0
-  console.log((await import('../../server/features/ingest/readings.ingest')).T)
   const peakRssMb = process.resourceUsage().maxRSS / 1024
   await feed.close()
 

@@ -30,6 +30,8 @@ export interface FeedOptions {
   stations: FeedStation[]
   /** The feed's clock: nothing after it has been observed yet. */
   now?: () => Date
+  /** Keep the ground truth of what was served (tests); off for load runs. Default on. */
+  recordTruth?: boolean
 }
 
 const QUARTER = 900_000
@@ -108,6 +110,7 @@ export function createFeed(opts: FeedOptions) {
   const now = () => (opts.now ? opts.now() : new Date()).getTime()
   const faults = new FaultInjector(opts.seed)
   const truth: FeedTruth = { good: new Map(), bad: new Map() }
+  const keepTruth = opts.recordTruth ?? true
   const worlds = new Map<string, LakeWorld>()
   const lakes = [...new Map(opts.stations.map((s) => [s.lake.slug, s.lake])).values()]
   lakes.forEach((lake, i) => worlds.set(lake.slug, new LakeWorld(lake, opts.seed, i)))
@@ -188,10 +191,91 @@ export function createFeed(opts: FeedOptions) {
       if (station) faults.count('disappeared')
       return void res.status(404).json({ error: 'no such Thing' })
     }
-    void send(req, res, {
-      value: datastreams.filter((d) => d.station === station).map((d) => dsJson(req, d)),
-    })
+    // $expand=Observations($filter=...;$orderby=...;$top=...): each datastream's first page inline.
+    const nested = /^Observations\((.*)\)$/.exec(String(req.query.$expand ?? ''))
+    const inner: Query = Object.fromEntries(
+      (nested?.[1] ?? '')
+        .split(';')
+        .filter(Boolean)
+        .map((kv) => [kv.slice(0, kv.indexOf('=')), kv.slice(kv.indexOf('=') + 1)]),
+    )
+    inner.itemFault = typeof req.query.itemFault === 'string' ? req.query.itemFault : undefined
+    const served: Served = { good: [], bad: [] }
+    const value = []
+    for (const ds of datastreams.filter((d) => d.station === station)) {
+      const json: Record<string, unknown> = dsJson(req, ds)
+      if (nested) {
+        const page = observationsPage(req, ds, inner, served)
+        if (!page) return void res.status(400).json({ error: 'unsupported $filter' })
+        json.Observations = page.value
+        if (page.nextLink) json['Observations@iot.nextLink'] = page.nextLink
+      }
+      value.push(json)
+    }
+    void send(req, res, { value }, record(served))
   })
+
+  type Query = Record<string, string | undefined>
+  type Served = {
+    good: [string, ServedObservation][]
+    bad: [string, ServedObservation & { fault: ItemFault }][]
+  }
+
+  /** One page of a datastream's observations under the plan's item faults, or null for a bad $filter. */
+  function observationsPage(
+    req: Request,
+    ds: (typeof datastreams)[number],
+    q: Query,
+    served: Served,
+  ) {
+    const filter = parseFilter(q.$filter)
+    if (!filter) return null
+    const top = Math.min(Number(q.$top ?? 100) || 100, 1000)
+    const skip = Math.max(Number(q.$skip ?? 0) || 0, 0)
+    const silent = controls.silentAfter.get(ds.station.thingId)
+    const limit = silent === undefined ? now() : Math.min(now(), silent)
+    let times = observationTimes(ds.parameter, filter, limit)
+    if ((q.$orderby ?? '').toLowerCase().includes('desc')) times = times.reverse()
+    const world = worlds.get(ds.station.lake.slug)!
+    const value: Record<string, unknown>[] = []
+    let shuffle = false
+    for (const t of times.slice(skip, skip + top)) {
+      const obsId = `${ds.id}-${t / 60_000}`
+      const at = new Date(t).toISOString()
+      let result = published(world, ds.parameter, ds.unit, t)
+      const fault = faults.forItem(q.itemFault)
+      if (fault) faults.count(fault)
+      if (fault === 'gap') continue
+      if (fault === 'out-of-order') shuffle = true
+      if (fault === 'implausible') {
+        result = implausible(ds.parameter, ds.unit, result)
+        if (keepTruth)
+          served.bad.push([obsId, { datastreamId: ds.id, at, value: result, unit: ds.unit, fault }])
+      } else if (keepTruth) {
+        served.good.push([obsId, { datastreamId: ds.id, at, value: result, unit: ds.unit }])
+      }
+      const obs = { '@iot.id': obsId, phenomenonTime: at, resultTime: at, result }
+      value.push(obs)
+      if (fault === 'duplicate') value.push({ ...obs })
+    }
+    if (shuffle) value.reverse()
+    let nextLink: string | undefined
+    if (skip + top < times.length) {
+      const next = new URLSearchParams({
+        ...(q.$filter && { $filter: q.$filter }),
+        ...(q.$orderby && { $orderby: q.$orderby }),
+      })
+      next.set('$top', String(top))
+      next.set('$skip', String(skip + top))
+      nextLink = `${base(req)}/Datastreams(${ds.id})/Observations?${next}`
+    }
+    return { value, nextLink }
+  }
+
+  const record = (served: Served) => () => {
+    for (const [k, v] of served.good) truth.good.set(k, v)
+    for (const [k, v] of served.bad) truth.bad.set(k, v)
+  }
 
   app.get(/^\/v1\.1\/Datastreams\((\d+)\)\/Observations$/, (req, res) => {
     const id = Number((req.params as Record<string, string>)[0])
@@ -200,58 +284,11 @@ export function createFeed(opts: FeedOptions) {
       if (ds) faults.count('disappeared')
       return void res.status(404).json({ error: 'no such Datastream' })
     }
-    const filter = parseFilter(req.query.$filter as string | undefined)
-    if (!filter) return void res.status(400).json({ error: 'unsupported $filter' })
-    const top = Math.min(Number(req.query.$top ?? 100) || 100, 1000)
-    const skip = Math.max(Number(req.query.$skip ?? 0) || 0, 0)
-    const silent = controls.silentAfter.get(ds.station.thingId)
-    const limit = silent === undefined ? now() : Math.min(now(), silent)
-    let times = observationTimes(ds.parameter, filter, limit)
-    if (
-      String(req.query.$orderby ?? '')
-        .toLowerCase()
-        .includes('desc')
-    )
-      times = times.reverse()
-    const world = worlds.get(ds.station.lake.slug)!
-    const page = times.slice(skip, skip + top)
-    const forced = typeof req.query.itemFault === 'string' ? req.query.itemFault : undefined
-    const value: Record<string, unknown>[] = []
-    const good: [string, ServedObservation][] = []
-    const bad: [string, ServedObservation & { fault: ItemFault }][] = []
-    let shuffle = false
-    for (const t of page) {
-      const obsId = `${ds.id}-${t / 60_000}`
-      const at = new Date(t).toISOString()
-      let result = published(world, ds.parameter, ds.unit, t)
-      const fault = faults.forItem(forced)
-      if (fault) faults.count(fault)
-      if (fault === 'gap') continue
-      if (fault === 'out-of-order') shuffle = true
-      if (fault === 'implausible') {
-        result = implausible(ds.parameter, ds.unit, result)
-        bad.push([obsId, { datastreamId: ds.id, at, value: result, unit: ds.unit, fault }])
-      } else {
-        good.push([obsId, { datastreamId: ds.id, at, value: result, unit: ds.unit }])
-      }
-      const obs = { '@iot.id': obsId, phenomenonTime: at, resultTime: at, result }
-      value.push(obs)
-      if (fault === 'duplicate') value.push({ ...obs })
-    }
-    if (shuffle) value.reverse()
-    const body: Record<string, unknown> = { value }
-    if (skip + top < times.length) {
-      const next = new URLSearchParams(req.query as Record<string, string>)
-      next.set('$skip', String(skip + top))
-      next.set('$top', String(top))
-      next.delete('fault')
-      next.delete('itemFault')
-      body['@iot.nextLink'] = `${base(req)}/Datastreams(${ds.id})/Observations?${next}`
-    }
-    void send(req, res, body, () => {
-      for (const [k, v] of good) truth.good.set(k, v)
-      for (const [k, v] of bad) truth.bad.set(k, v)
-    })
+    const served: Served = { good: [], bad: [] }
+    const page = observationsPage(req, ds, req.query as Query, served)
+    if (!page) return void res.status(400).json({ error: 'unsupported $filter' })
+    const body = { value: page.value, ...(page.nextLink && { '@iot.nextLink': page.nextLink }) }
+    void send(req, res, body, record(served))
   })
 
   const WEATHER_UNITS = {

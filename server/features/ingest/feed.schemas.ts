@@ -21,6 +21,17 @@ export const ObservationPage = z.object({
   '@iot.nextLink': z.url().optional(),
 })
 
+/** A Thing's Datastreams with their first page of Observations inline ($expand=Observations(...)). */
+export const StationObservations = z.object({
+  value: z.array(
+    z.object({
+      '@iot.id': Id,
+      Observations: z.array(z.unknown()).optional(),
+      'Observations@iot.nextLink': z.url().optional(),
+    }),
+  ),
+})
+
 export const Observation = z.object({
   '@iot.id': Id,
   phenomenonTime: z.iso.datetime({ offset: true }),

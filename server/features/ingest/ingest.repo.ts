@@ -26,6 +26,13 @@ export interface QuarantineRow {
 
 export type DatastreamRow = typeof datastreams.$inferSelect
 
+export interface PageCommit {
+  ds: DatastreamRow
+  good: GoodRow[]
+  bad: QuarantineRow[]
+  mark: { highWaterMark?: Date; backfillCursor?: Date }
+}
+
 export interface StationHealthUpdate {
   id: string
   state: 'ok' | 'stale' | 'failing'
@@ -106,39 +113,35 @@ export function ingestRepo(db: Db) {
     },
 
     /**
-     * One page as one statement: good rows, quarantined rows and the datastream's progress mark
-     * commit together, so a crash leaves the whole page or none of it. Repeats change nothing.
+     * Pages as one statement: good rows, quarantined rows and each datastream's progress mark
+     * commit together, so a crash leaves all of them or none. Repeats change nothing.
      */
-    async commitPage(
-      ds: DatastreamRow,
-      good: GoodRow[],
-      bad: QuarantineRow[],
-      mark: { highWaterMark?: Date; backfillCursor?: Date },
-    ) {
+    async commitPages(pages: PageCommit[]) {
       const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null)
+      const good = pages.flatMap((p) => p.good.map((g) => ({ ...g, ds: p.ds })))
+      const bad = pages.flatMap((p) => p.bad.map((b) => ({ ...b, ds: p.ds })))
+      const arr = <T>(rows: T[], f: (row: T) => unknown) => sql.param(rows.map(f))
       await db.execute(sql`
         with good as (
           -- One array parameter per column: a page is one round trip, however long.
           insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
-          select ${ds.stationId}::uuid, ${ds.parameter}::parameter, t, v, o, ${ds.unit}
-          from unnest(${sql.param(good.map((g) => g.observedAt.toISOString()))}::timestamptz[],
-                      ${sql.param(good.map((g) => g.value))}::float8[],
-                      ${sql.param(good.map((g) => g.originalValue))}::float8[]) as u(t, v, o)
+          select * from unnest(${arr(good, (g) => g.ds.stationId)}::uuid[], ${arr(good, (g) => g.ds.parameter)}::parameter[],
+                               ${arr(good, (g) => g.observedAt.toISOString())}::timestamptz[], ${arr(good, (g) => g.value)}::float8[],
+                               ${arr(good, (g) => g.originalValue)}::float8[], ${arr(good, (g) => g.ds.unit)}::text[])
           on conflict do nothing
         ), bad as (
           insert into quarantine (station_id, parameter, feed_id, observed_at, raw, reason, detail)
-          select ${ds.stationId}::uuid, ${ds.parameter}, f, o, r, re, d
-          from unnest(${sql.param(bad.map((b) => b.feedId))}::text[],
-                      ${sql.param(bad.map((b) => iso(b.observedAt)))}::timestamptz[],
-                      ${sql.param(bad.map((b) => JSON.stringify(b.raw)))}::jsonb[],
-                      ${sql.param(bad.map((b) => b.reason))}::text[],
-                      ${sql.param(bad.map((b) => b.detail))}::text[]) as u(f, o, r, re, d)
+          select * from unnest(${arr(bad, (b) => b.ds.stationId)}::uuid[], ${arr(bad, (b) => b.ds.parameter)}::text[],
+                               ${arr(bad, (b) => b.feedId)}::text[], ${arr(bad, (b) => iso(b.observedAt))}::timestamptz[],
+                               ${arr(bad, (b) => JSON.stringify(b.raw))}::jsonb[], ${arr(bad, (b) => b.reason)}::text[],
+                               ${arr(bad, (b) => b.detail)}::text[])
           on conflict do nothing
         )
-        update datastreams
-        set high_water_mark = coalesce(${iso(mark.highWaterMark)}::timestamptz, high_water_mark),
-            backfill_cursor = coalesce(${iso(mark.backfillCursor)}::timestamptz, backfill_cursor)
-        where id = ${ds.id}`)
+        update datastreams d
+        set high_water_mark = coalesce(m.hwm, d.high_water_mark), backfill_cursor = coalesce(m.cursor, d.backfill_cursor)
+        from unnest(${arr(pages, (p) => p.ds.id)}::uuid[], ${arr(pages, (p) => iso(p.mark.highWaterMark))}::timestamptz[],
+                    ${arr(pages, (p) => iso(p.mark.backfillCursor))}::timestamptz[]) as m(id, hwm, cursor)
+        where d.id = m.id`)
     },
 
     /**

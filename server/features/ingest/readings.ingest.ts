@@ -2,7 +2,7 @@ import pLimit from 'p-limit'
 import { parameterForCode } from '../../../shared/readings'
 import type { Db } from '../../db/index'
 import type { Logger } from '../../logger'
-import { ObservationPage, ThingList } from './feed.schemas'
+import { ObservationPage, StationObservations, ThingList } from './feed.schemas'
 import { DEFAULT_POLICY, FeedError, getJson, type FetchPolicy } from './feed-client'
 import {
   ingestRepo,
@@ -47,44 +47,46 @@ export const STALE_AFTER_MS = 2 * 3_600_000
 /** After this many failed runs in a row the breaker opens, for 5 minutes doubling to an hour. */
 const BREAKER_THRESHOLD = 3
 
-export const T: Record<string, number> = {}
-const tm = async <X>(k: string, p: Promise<X>): Promise<X> => { const t = performance.now(); try { return await p } finally { T[k] = (T[k] ?? 0) + performance.now() - t } }
 const iso = (d: Date) => d.toISOString().replace('.000Z', 'Z')
 
-/** Observations after `from` (and at or before `until`), oldest first, through every nextLink. */
-async function readDatastream(
+type Feed = Required<Pick<IngestDeps, 'feedUrl' | 'policy' | 'pageSize'>>
+type Previous = { value: number; at: Date } | undefined
+type Totals = { good: number; quarantined: number; latest?: Date }
+
+function add(totals: Totals, more: Totals) {
+  totals.good += more.good
+  totals.quarantined += more.quarantined
+  totals.latest = more.latest ?? totals.latest
+}
+
+const counts = (v: { good: unknown[]; bad: unknown[]; latest?: Date }): Totals => ({
+  good: v.good.length,
+  quarantined: v.bad.length,
+  latest: v.latest,
+})
+
+/** Pages of one datastream from `url` on through every nextLink, each committed as it arrives. */
+async function followPages(
   repo: IngestRepo,
-  deps: Required<Pick<IngestDeps, 'feedUrl' | 'policy' | 'pageSize'>>,
+  deps: Feed,
   ds: DatastreamRow,
-  window: { from: Date; until?: Date; backfill?: boolean },
-  previous: { value: number; at: Date } | undefined,
+  url: string | undefined,
+  state: { previous: Previous; backfill?: boolean },
   onPage?: (progress: PageProgress) => void,
-): Promise<{ good: number; quarantined: number; latest?: Date }> {
-  const filter = [
-    `phenomenonTime gt ${iso(window.from)}`,
-    ...(window.until ? [`phenomenonTime le ${iso(window.until)}`] : []),
-  ]
-  const query = new URLSearchParams({
-    $filter: filter.join(' and '),
-    $orderby: 'phenomenonTime asc',
-    $top: String(deps.pageSize),
-  })
-  let url: string | undefined =
-    `${deps.feedUrl}/v1.1/Datastreams(${ds.feedDatastreamId})/Observations?${query}`
-  const totals: { good: number; quarantined: number; latest?: Date } = { good: 0, quarantined: 0 }
+): Promise<Totals> {
+  const totals: Totals = { good: 0, quarantined: 0 }
+  let previous = state.previous
   while (url) {
-    const page = ObservationPage.safeParse(await tm('fetch', getJson(deps.feedUrl, url, deps.policy)))
+    const page = ObservationPage.safeParse(await getJson(deps.feedUrl, url, deps.policy))
     if (!page.success)
       throw new FeedError('shape', `Observations page from ${url} has the wrong shape`)
     const verdict = validatePage(ds.parameter, ds.unit, page.data.value, previous)
     const mark =
       verdict.latest &&
-      (window.backfill ? { backfillCursor: verdict.latest } : { highWaterMark: verdict.latest })
-    await tm('commit', repo.commitPage(ds, verdict.good, verdict.bad, mark ?? {}))
-    previous = verdict.previous
-    totals.good += verdict.good.length
-    totals.quarantined += verdict.bad.length
-    totals.latest = verdict.latest ?? totals.latest
+      (state.backfill ? { backfillCursor: verdict.latest } : { highWaterMark: verdict.latest })
+    await repo.commitPages([{ ds, good: verdict.good, bad: verdict.bad, mark: mark ?? {} }])
+    previous = verdict.previous ?? previous
+    add(totals, counts(verdict))
     onPage?.({
       datastream: ds,
       latest: verdict.latest,
@@ -92,6 +94,82 @@ async function readDatastream(
       quarantined: verdict.bad.length,
     })
     url = page.data['@iot.nextLink']
+  }
+  return totals
+}
+
+function observationsFilter(from: Date, until?: Date): string {
+  return [
+    `phenomenonTime gt ${iso(from)}`,
+    ...(until ? [`phenomenonTime le ${iso(until)}`] : []),
+  ].join(' and ')
+}
+
+/** One datastream's observations after `from` (and at or before `until`), oldest first. */
+function readDatastream(
+  repo: IngestRepo,
+  deps: Feed,
+  ds: DatastreamRow,
+  window: { from: Date; until?: Date; backfill?: boolean },
+  previous: Previous,
+  onPage?: (progress: PageProgress) => void,
+): Promise<Totals> {
+  const query = new URLSearchParams({
+    $filter: observationsFilter(window.from, window.until),
+    $orderby: 'phenomenonTime asc',
+    $top: String(deps.pageSize),
+  })
+  const url = `${deps.feedUrl}/v1.1/Datastreams(${ds.feedDatastreamId})/Observations?${query}`
+  return followPages(repo, deps, ds, url, { previous, backfill: window.backfill }, onPage)
+}
+
+/**
+ * A station's new observations: the first page of every datastream in one request
+ * ($expand=Observations), committed together, then each datastream's further pages on their own.
+ */
+async function readStation(
+  repo: IngestRepo,
+  deps: Feed,
+  station: StationRow,
+  windows: { ds: DatastreamRow; from: Date; previous: Previous }[],
+): Promise<Totals> {
+  const totals: Totals = { good: 0, quarantined: 0 }
+  if (!windows.length) return totals
+  const since = windows[0]!.from
+  const inner = `$filter=${observationsFilter(since)};$orderby=phenomenonTime asc;$top=${deps.pageSize}`
+  const query = new URLSearchParams({ $expand: `Observations(${inner})` })
+  const url = `${deps.feedUrl}/v1.1/Things(${station.feedThingId})/Datastreams?${query}`
+  const doc = StationObservations.safeParse(await getJson(deps.feedUrl, url, deps.policy))
+  if (!doc.success)
+    throw new FeedError(
+      'shape',
+      `Observations of Thing ${station.feedThingId} have the wrong shape`,
+    )
+  const pages = windows.map((w) => {
+    const entry = doc.data.value.find((d) => d['@iot.id'] === w.ds.feedDatastreamId)
+    return {
+      w,
+      entry,
+      verdict: validatePage(w.ds.parameter, w.ds.unit, entry?.Observations ?? [], w.previous),
+    }
+  })
+  await repo.commitPages(
+    pages.map(({ w, verdict }) => ({
+      ds: w.ds,
+      good: verdict.good,
+      bad: verdict.bad,
+      mark: verdict.latest ? { highWaterMark: verdict.latest } : {},
+    })),
+  )
+  for (const { w, entry, verdict } of pages) {
+    add(totals, counts(verdict))
+    const rest = entry?.['Observations@iot.nextLink']
+    if (rest) {
+      const more = await followPages(repo, deps, w.ds, rest, {
+        previous: verdict.previous ?? w.previous,
+      })
+      add(totals, more)
+    }
   }
   return totals
 }
@@ -119,7 +197,11 @@ async function discover(deps: Required<Pick<IngestDeps, 'feedUrl' | 'policy'>>) 
 
 type Listing = Awaited<ReturnType<typeof discover>>
 
-/** The due stations' datastreams, synced from the listing, with what each read starts from. */
+/**
+ * The due stations' datastreams, synced from the listing, each with where its read starts. A
+ * station's datastreams all start where the earliest of them does, so that one request serves them
+ * all; re-reading what is stored changes nothing.
+ */
 async function plan(
   repo: IngestRepo,
   stations: StationRow[],
@@ -129,7 +211,11 @@ async function plan(
   const found = stations.flatMap((s) =>
     (listing.get(s.feedThingId) ?? []).map((d) => ({ ...d, stationId: s.id })),
   )
-  const streams = (await repo.syncDatastreams(found)).map((ds) => ({ ds, from: start(ds) }))
+  const all = await repo.syncDatastreams(found)
+  const since = new Map<string, number>()
+  for (const ds of all)
+    since.set(ds.stationId, Math.min(since.get(ds.stationId) ?? Infinity, start(ds).getTime()))
+  const streams = all.map((ds) => ({ ds, from: new Date(since.get(ds.stationId)!) }))
   const previous = await repo.lastGoodBefore(streams)
   return (station: StationRow) =>
     streams
@@ -227,20 +313,18 @@ export async function ingestReadings(
   const reads =
     listing instanceof FeedError
       ? () => []
-      : await tm('plan', plan(repo, due, listing, (ds) =>
+      : await plan(repo, due, listing, (ds) =>
           ds.highWaterMark
             ? new Date(ds.highWaterMark.getTime() - OVERLAP_MS)
             : new Date(now.getTime() - FIRST_READ_MS),
-        ))
+        )
   const errors = await perStation(due, deps, listing, async (station) => {
-    for (const { ds, from, previous } of reads(station)) {
-      const got = await readDatastream(repo, opts, ds, { from }, previous)
-      summary.good += got.good
-      summary.quarantined += got.quarantined
-    }
+    const got = await readStation(repo, opts, station, reads(station))
+    summary.good += got.good
+    summary.quarantined += got.quarantined
   })
   summary.failed = errors.size
-  await tm('health', recordHealth(repo, due, now, errors))
+  await recordHealth(repo, due, now, errors)
   return summary
 }
 
@@ -286,7 +370,7 @@ export async function backfillReadings(
         )
         // Once history meets live data, live ingestion continues from the last reading seen.
         if (!ds.highWaterMark && got.latest)
-          await repo.commitPage(ds, [], [], { highWaterMark: got.latest })
+          await repo.commitPages([{ ds, good: [], bad: [], mark: { highWaterMark: got.latest } }])
         totals.good += got.good
         totals.quarantined += got.quarantined
       }

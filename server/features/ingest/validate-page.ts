@@ -31,15 +31,18 @@ export function validatePage(
   const parsed: (Observation & { at: Date })[] = []
   rows.forEach((raw, i) => {
     const obs = Observation.safeParse(raw)
-    if (obs.success) parsed.push({ ...obs.data, at: new Date(obs.data.phenomenonTime) })
-    else
+    if (!obs.success) {
+      const detail = obs.error.issues[0]?.message ?? 'unreadable'
       bad.push({
         feedId: rawId(raw, i),
         observedAt: null,
         raw: raw ?? null,
         reason: 'malformed',
-        detail: obs.error.issues[0]?.message ?? 'unreadable',
+        detail,
       })
+      return
+    }
+    parsed.push({ ...obs.data, at: new Date(obs.data.phenomenonTime) })
   })
   parsed.sort((a, b) => a.at.getTime() - b.at.getTime())
 
