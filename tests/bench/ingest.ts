@@ -22,14 +22,9 @@ import { ingestReadings } from '../../server/features/ingest/readings.ingest'
  * rows loaded with COPY into a scratch table in the same run.
  */
 const STATIONS = 500
-const PARAMS = ['water_temp', 'gauge_height', 'turbidity', 'dissolved_oxygen'] as const
-const UNITS = {
-  water_temp: '°C',
-  gauge_height: 'ft',
-  turbidity: 'FNU',
-  dissolved_oxygen: 'mg/L',
-} as const
-const NOW = new Date('2026-06-15T12:00:00Z')
+const PARAMS = BENCH_PARAMS
+const UNITS = BENCH_UNITS
+const NOW = BENCH_NOW
 const dataDir = fileURLToPath(new URL('../../.tmp/pg-bench', import.meta.url))
 
 const cluster = await startCluster({

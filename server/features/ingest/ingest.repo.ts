@@ -1,14 +1,7 @@
 import { and, eq, getTableColumns, inArray, isNull, lte, or, sql } from 'drizzle-orm'
 import type { Parameter } from '../../../shared/readings'
 import type { Db } from '../../db/index'
-import {
-  datastreams,
-  lakes,
-  quarantine,
-  readings,
-  stations,
-  weatherHours,
-} from '../../db/schema/index'
+import { datastreams, lakes, quarantine, stations, weatherHours } from '../../db/schema/index'
 
 export interface GoodRow {
   observedAt: Date
