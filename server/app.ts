@@ -12,6 +12,8 @@ import { authRoutes, sessionMiddleware } from './features/auth/auth.routes'
 import { authService } from './features/auth/auth.service'
 import { tokenKey } from './features/auth/auth.tokens'
 import { healthRoutes } from './features/health/health.routes'
+import { lakeReadRepo } from './features/lakes/lake-read.repo'
+import { lakeReadService } from './features/lakes/lake-read.service'
 import { lakesRepo } from './features/lakes/lakes.repo'
 import { lakesRoutes } from './features/lakes/lakes.routes'
 import { lakesService } from './features/lakes/lakes.service'
@@ -97,7 +99,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(healthRoutes(deps.db))
   api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limiter }))
   api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
-  api.use(lakesRoutes(lakesService(lakesRepo(deps.db))))
+  api.use(lakesRoutes(lakesService(lakesRepo(deps.db)), lakeReadService(lakeReadRepo(deps.db))))
   api.use(stationsRoutes(stationsService(stationsRepo(deps.db))))
   api.use(notFound)
   app.use('/api', api)

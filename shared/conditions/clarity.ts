@@ -1,5 +1,6 @@
 import { assertFinite, DomainError } from '../errors'
 import { HOUR_MS, toInstant } from '../time'
+import { theilSen } from './trend'
 
 export const CLARITY_CLASSES = [
   'muddy',
@@ -65,16 +66,7 @@ export interface ClarityTrend {
 const STEADY_PER_DAY = 0.05
 const WINDOW_MS = 72 * HOUR_MS
 
-function median(values: number[]): number {
-  const s = [...values].sort((a, b) => a - b)
-  const mid = s.length >> 1
-  return s.length % 2 ? s[mid]! : (s[mid - 1]! + s[mid]!) / 2
-}
-
-/**
- * Trend of ln(Secchi) over the last 72 h by the Theil-Sen estimator (Sen 1968, JASA 63:1379):
- * the median of pairwise slopes, which shrugs off outliers and uses real times, so gaps do no harm.
- */
+/** Trend of ln(Secchi) over the last 72 h by the Theil-Sen estimator, robust to outliers and gaps. */
 export function clarityTrend(
   samples: { at: string; secchiM: number }[],
   now: string,
@@ -97,19 +89,14 @@ export function clarityTrend(
       'samples',
     )
   }
-  const slopes: number[] = []
-  for (let i = 0; i < points.length; i++) {
-    for (let j = i + 1; j < points.length; j++) {
-      const dt = points[j]!.t - points[i]!.t
-      if (Math.abs(dt) > 1e-9) slopes.push((points[j]!.y - points[i]!.y) / dt)
-    }
-  }
-  if (!slopes.length)
+  const line = theilSen(points)
+  if (!line)
     throw new DomainError('invalid_series', 'Clarity readings must span some time.', 'samples')
-  const slope = median(slopes) || 0 // never -0
+  const slope = line.slope
   const label =
     slope > STEADY_PER_DAY ? 'clearing' : slope < -STEADY_PER_DAY ? 'staining' : 'steady'
-  const nowSecchi = Math.exp(median(points.map((p) => p.y - slope * p.t)))
+  // Time is measured from now, so the intercept is today's Secchi estimate.
+  const nowSecchi = Math.exp(line.intercept)
   return { slopePerDay: slope, label, daysToNextClass: daysToNextClass(nowSecchi, slope, label) }
 }
 

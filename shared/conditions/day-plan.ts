@@ -1,16 +1,15 @@
 import { DomainError } from '../errors'
-import { fetchLength } from '../geo/fetch'
 import { lakeCenter } from '../geo/polygon'
 import type { LakeGeometry } from '../geo/types'
 import { HOUR_MS, localDayBounds, toInstant } from '../time'
 import { clarityClass, type ClarityClass } from './clarity'
+import { openWaterWaveM as openWaterWave } from './exposure'
 import { cautions, type Caution } from './safety'
 import { rankBanks, type Bank, type RankedBank, type WindowWeather } from './ranking'
 import type { SeasonalPhase } from './season'
 import { skyDay, type SkyDay } from './sky'
 import { tackleCalls, type TackleCall } from './tackle'
 import type { Cover, Sky } from './tackle-rules'
-import { waveGrowth } from './waves'
 
 export interface ForecastHour {
   at: string
@@ -126,8 +125,7 @@ export function dayPlan(input: {
   /** Cover to call tackle for when the angler has no banks saved. */
   lakeCover?: Cover[]
 }): DayPlan {
-  const center = lakeCenter(input.lake)
-  const [lon, lat] = center
+  const [lon, lat] = lakeCenter(input.lake)
   const sky = skyDay(lat, lon, input.date, input.timeZone)
   const clarity = clarityClass(input.secchiM)
   const conditions = { clarity, waterC: input.waterC, phase: input.phase }
@@ -152,11 +150,7 @@ export function dayPlan(input: {
       }
       if (!weather)
         return { ...base, weather, openWaterWaveM: 0, banks: [], tackle: [], cautions: [] }
-      // The downwind shore through the centre sees the whole chord along the wind.
-      const chord =
-        fetchLength(input.lake, center, weather.windFromDeg) +
-        fetchLength(input.lake, center, weather.windFromDeg + 180)
-      const openWaterWaveM = waveGrowth(weather.windMs, chord).heightM
+      const openWaterWaveM = openWaterWave(input.lake, weather.windFromDeg, weather.windMs)
       const banks = rankBanks({ lake: input.lake, banks: input.banks, window: weather, conditions })
       const best = input.banks.find((b) => b.id === banks[0]?.id)
       const tackle = tackleCalls({

@@ -1,6 +1,6 @@
 import { assertFinite, DomainError } from '../errors'
 import { effectiveFetch, fetchLength, shoreIndex } from '../geo/fetch'
-import { inWaterXy } from '../geo/polygon'
+import { inWaterXy, lakeCenter } from '../geo/polygon'
 import type { LakeGeometry, Position } from '../geo/types'
 import { waveGrowth } from './waves'
 
@@ -152,4 +152,15 @@ export function bankExposure(
   else if (onshore < 0.34) exposure = 'side wind'
   else exposure = waveHeightM >= 0.3 ? 'rough' : 'windward'
   return { exposure, onshore, fetchM, waveHeightM }
+}
+
+/**
+ * Significant wave height on the open lake for a wind: the downwind shore through the centre sees
+ * the whole chord along the wind, both radials from the centre added.
+ */
+export function openWaterWaveM(lake: LakeGeometry, windFromDeg: number, windMs: number): number {
+  const center = lakeCenter(lake)
+  const chord =
+    fetchLength(lake, center, windFromDeg) + fetchLength(lake, center, windFromDeg + 180)
+  return waveGrowth(windMs, chord).heightM
 }

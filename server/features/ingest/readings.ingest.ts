@@ -1,5 +1,5 @@
 import pLimit from 'p-limit'
-import { parameterForCode } from '../../../shared/readings'
+import { parameterForCode, STALE_AFTER_MS } from '../../../shared/readings'
 import type { Db } from '../../db/index'
 import type { Logger } from '../../logger'
 import { ObservationPage, StationObservations, ThingList } from './feed.schemas'
@@ -42,8 +42,6 @@ export interface PageProgress {
 const OVERLAP_MS = 3_600_000
 /** How far back a new datastream's first read reaches. */
 const FIRST_READ_MS = 2 * 86_400_000
-/** A station with no good reading for this long is stale. */
-export const STALE_AFTER_MS = 2 * 3_600_000
 /** After this many failed runs in a row the breaker opens, for 5 minutes doubling to an hour. */
 const BREAKER_THRESHOLD = 3
 

@@ -1,0 +1,212 @@
+import {
+  carlsonTsi,
+  clarityClass,
+  clarityTrend,
+  secchiFromTurbidity,
+} from '../../../shared/conditions/clarity'
+import { openWaterWaveM } from '../../../shared/conditions/exposure'
+import { cautions } from '../../../shared/conditions/safety'
+import { seasonalPhase } from '../../../shared/conditions/season'
+import { skyDay } from '../../../shared/conditions/sky'
+import { median, theilSen } from '../../../shared/conditions/trend'
+import { pressureTendency } from '../../../shared/conditions/weather'
+import { DomainError } from '../../../shared/errors'
+import { isStale } from '../../../shared/readings'
+import type { LakeRead, WindHour } from '../../../shared/schemas/lake-read'
+import { addDays, localDate } from '../../../shared/time'
+import { HttpError } from '../../http/errors'
+import type { LakeReadRepo } from './lake-read.repo'
+
+const DAY = 86_400_000
+type Point = { at: Date; value: number }
+
+const iso = (d: Date) => d.toISOString()
+
+/** Daily means by local date, oldest first, for the days that have readings; gaps end the run. */
+function dailyMeans(points: Point[], timeZone: string): { days: number[]; lastDay: string } | null {
+  const byDay = new Map<string, number[]>()
+  for (const p of points) {
+    const day = localDate(p.at, timeZone)
+    byDay.set(day, [...(byDay.get(day) ?? []), p.value])
+  }
+  const days = [...byDay.keys()].sort()
+  const lastDay = days.at(-1)
+  if (!lastDay) return null
+  // Only an unbroken run of days ending on the last one makes a series.
+  const run: number[] = []
+  for (let d = lastDay; byDay.has(d); d = addDays(d, -1)) {
+    const v = byDay.get(d)!
+    run.unshift(v.reduce((a, b) => a + b, 0) / v.length)
+  }
+  return { days: run, lastDay }
+}
+
+function trendPerDay(points: Point[], now: Date): number | null {
+  const recent = points.filter((p) => now.getTime() - p.at.getTime() <= 3 * DAY)
+  const line = theilSen(
+    recent.map((p) => ({ t: (p.at.getTime() - now.getTime()) / DAY, y: p.value })),
+  )
+  return recent.length >= 3 && line ? line.slope : null
+}
+
+export function lakeReadService(repo: LakeReadRepo) {
+  return {
+    /** The Lake read at `now`, from stored readings and weather; nothing here calls the feed. */
+    async read(slug: string, now = new Date()): Promise<LakeRead> {
+      const lake = await repo.lakeBySlug(slug)
+      if (!lake) throw new HttpError(404, 'not_found', 'No such lake.')
+      const gauge = await repo.gauge(lake.id)
+      const rows = gauge
+        ? await repo.series(
+            gauge.id,
+            ['water_temp', 'turbidity', 'secchi', 'gauge_height'],
+            new Date(now.getTime() - 30 * DAY),
+          )
+        : []
+      const of = (p: string) =>
+        rows.filter((r) => r.parameter === p).map((r) => ({ at: r.at, value: r.value }))
+      const [temps, turbidity, secchi, level] = [
+        of('water_temp'),
+        of('turbidity'),
+        of('secchi'),
+        of('gauge_height'),
+      ]
+
+      const lastTemp = temps.at(-1)
+      const waterTemp = lastTemp
+        ? {
+            at: iso(lastTemp.at),
+            stale: isStale('water_temp', lastTemp.at, now),
+            valueC: lastTemp.value,
+            trendCPerDay: trendPerDay(temps, now),
+          }
+        : null
+
+      // A Secchi disk reading from the last week beats the turbidity estimate.
+      const lastDisk = secchi.at(-1)
+      const lastTurb = turbidity.at(-1)
+      const diskFresh = lastDisk && now.getTime() - lastDisk.at.getTime() < 7 * DAY
+      const clarityPoint = diskFresh
+        ? lastDisk
+        : lastTurb && { at: lastTurb.at, value: secchiFromTurbidity(lastTurb.value) }
+      const estimates = turbidity.map((p) => ({
+        at: iso(p.at),
+        secchiM: secchiFromTurbidity(p.value),
+      }))
+      let trend = null
+      try {
+        trend = estimates.length ? clarityTrend(estimates, iso(now)) : null
+      } catch (err) {
+        if (!(err instanceof DomainError)) throw err
+      }
+      const clarity = clarityPoint
+        ? {
+            at: iso(clarityPoint.at),
+            stale: isStale(diskFresh ? 'secchi' : 'turbidity', clarityPoint.at, now),
+            secchiM: clarityPoint.value,
+            source: diskFresh ? ('secchi' as const) : ('turbidity' as const),
+            class: clarityClass(clarityPoint.value),
+            tsi: carlsonTsi(clarityPoint.value),
+            trend,
+          }
+        : null
+
+      const lastLevel = level.at(-1)
+      const levelRead = lastLevel
+        ? {
+            at: iso(lastLevel.at),
+            stale: isStale('gauge_height', lastLevel.at, now),
+            gaugeM: lastLevel.value,
+            vsMedian30dM:
+              level.length >= 96 ? lastLevel.value - median(level.map((p) => p.value)) : null,
+          }
+        : null
+
+      const observed = await repo.weather(
+        lake.id,
+        'observed',
+        new Date(now.getTime() - 6 * 3_600_000),
+        now,
+      )
+      const forecast = await repo.weather(
+        lake.id,
+        'forecast',
+        now,
+        new Date(now.getTime() + 12 * 3_600_000),
+      )
+      const hour = (w: (typeof observed)[number]): WindHour => ({
+        at: iso(w.at),
+        windMs: w.windMs,
+        gustMs: w.gustMs,
+        windFromDeg: w.windFromDeg,
+      })
+      const latest = observed.at(-1)
+      let pressure = null
+      try {
+        if (latest)
+          pressure = {
+            hPa: latest.pressureHpa,
+            ...pressureTendency(observed.map((w) => ({ at: iso(w.at), hPa: w.pressureHpa }))),
+          }
+      } catch (err) {
+        if (!(err instanceof DomainError)) throw err
+      }
+
+      const means = dailyMeans(temps, lake.timeZone)
+      const phase =
+        means && means.days.length >= 14
+          ? seasonalPhase({
+              dailyMeanWaterC: means.days,
+              lastDay: means.lastDay,
+              latitude: lake.centerLat,
+            })
+          : null
+
+      const wind = latest ?? forecast[0]
+      const wave = wind ? openWaterWaveM(lake.shoreline, wind.windFromDeg, wind.windMs) : null
+      const next12 = forecast.map(hour)
+      const list = cautions({
+        windMs: Math.max(wind?.windMs ?? 0, ...forecast.map((f) => f.windMs)),
+        gustMs: Math.max(wind?.gustMs ?? 0, ...forecast.map((f) => f.gustMs)),
+        waveHeightM: wave ?? undefined,
+        thunderstormProbabilityPct: Math.max(
+          0,
+          ...forecast.map((f) => f.thunderProbabilityPct ?? 0),
+        ),
+        waterC: lastTemp?.value,
+        airC: latest?.airC,
+        relativeHumidityPct: latest?.relativeHumidityPct,
+      })
+      const times = [lastTemp?.at, lastTurb?.at, lastLevel?.at].filter((d): d is Date => !!d)
+
+      return {
+        lake: {
+          id: lake.id,
+          slug: lake.slug,
+          name: lake.name,
+          region: lake.region,
+          timeZone: lake.timeZone,
+          normalPoolM: lake.normalPoolM,
+          areaKm2: lake.areaKm2,
+          center: [lake.centerLon, lake.centerLat],
+        },
+        asOf: iso(now),
+        lastReadingAt: times.length
+          ? iso(new Date(Math.max(...times.map((d) => d.getTime()))))
+          : null,
+        waterTemp,
+        clarity,
+        level: levelRead,
+        windNow: latest ? hour(latest) : null,
+        windNext12h: next12,
+        airC: latest?.airC ?? null,
+        pressure,
+        sky: skyDay(lake.centerLat, lake.centerLon, localDate(now, lake.timeZone), lake.timeZone),
+        phase,
+        openWaterWaveM: wave,
+        cautions: list,
+      }
+    },
+  }
+}
+export type LakeReadService = ReturnType<typeof lakeReadService>

@@ -1,0 +1,68 @@
+import { z } from 'zod'
+import { CLARITY_CLASSES } from '../conditions/clarity'
+import { SEASONAL_PHASES } from '../conditions/season'
+import { LakeSummary } from './lakes'
+
+const Instant = z.iso.datetime()
+
+/** A gauge value with its age, so an old number is never shown as a fresh one. */
+const Reading = z.object({ at: Instant, stale: z.boolean() })
+
+export const WindHour = z.object({
+  at: Instant,
+  windMs: z.number(),
+  gustMs: z.number(),
+  windFromDeg: z.number(),
+})
+export type WindHour = z.infer<typeof WindHour>
+
+export const CautionView = z.object({
+  kind: z.string(),
+  level: z.enum(['info', 'caution', 'warning', 'danger']),
+  message: z.string(),
+  source: z.string(),
+})
+
+/** The Lake read: everything the water strip, wind, sky and caution band show. SI units throughout. */
+export const LakeRead = z.object({
+  lake: LakeSummary,
+  asOf: Instant,
+  lastReadingAt: Instant.nullable(),
+  waterTemp: Reading.extend({ valueC: z.number(), trendCPerDay: z.number().nullable() }).nullable(),
+  clarity: Reading.extend({
+    secchiM: z.number(),
+    source: z.enum(['secchi', 'turbidity']),
+    class: z.enum(CLARITY_CLASSES),
+    tsi: z.number(),
+    trend: z
+      .object({
+        slopePerDay: z.number(),
+        label: z.enum(['clearing', 'steady', 'staining']),
+        daysToNextClass: z.number().nullable(),
+      })
+      .nullable(),
+  }).nullable(),
+  level: Reading.extend({ gaugeM: z.number(), vsMedian30dM: z.number().nullable() }).nullable(),
+  windNow: WindHour.nullable(),
+  windNext12h: z.array(WindHour),
+  airC: z.number().nullable(),
+  pressure: z.object({ hPa: z.number(), changeHpa3h: z.number(), label: z.string() }).nullable(),
+  sky: z.object({
+    sunrise: Instant.nullable(),
+    sunset: Instant.nullable(),
+    civilDawn: Instant.nullable(),
+    civilDusk: Instant.nullable(),
+    moonrise: Instant.nullable(),
+    moonset: Instant.nullable(),
+    moonIllumination: z.number(),
+    moonPhase: z.string(),
+  }),
+  phase: z.object({ phase: z.enum(SEASONAL_PHASES), reason: z.string() }).nullable(),
+  openWaterWaveM: z.number().nullable(),
+  cautions: z.array(CautionView),
+})
+export type LakeRead = z.infer<typeof LakeRead>
+
+export const LakeSlugParams = z.object({
+  slug: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Not a lake.'),
+})

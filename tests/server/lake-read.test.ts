@@ -1,0 +1,73 @@
+import { eq } from 'drizzle-orm'
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { LakeRead } from '../../shared/schemas/lake-read'
+import { lakes } from '../../server/db/schema/index'
+import { seedDemo } from '../../server/db/seed/index'
+import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { ingestWeather } from '../../server/features/ingest/weather.ingest'
+import { signedInAgent, testApp } from '../helpers/app'
+import { createTestDb } from '../helpers/db'
+import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
+
+let ctx: Awaited<ReturnType<typeof createTestDb>>
+let feed: TestFeed
+
+async function loadLake(slug: string, days: number) {
+  const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, slug))
+  await backfillReadings(ingestDeps(ctx.db, feed), lake!.id, days)
+}
+
+beforeAll(async () => {
+  ctx = await createTestDb()
+  await seedDemo(ctx.db)
+  // Fresh data for one lake, data three hours old for another.
+  feed = await startTestFeed(new Date().toISOString())
+  await loadLake('quillmere', 20)
+  await ingestWeather(ingestDeps(ctx.db, feed))
+  feed.setNow(new Date(Date.now() - 3 * 3_600_000))
+  await loadLake('vessandra', 3)
+})
+afterAll(async () => {
+  await feed.close()
+  await ctx.drop()
+})
+
+describe('GET /api/lakes/:slug/read', () => {
+  it('gives the water strip, wind, sky, phase and cautions from stored readings', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'reader@example.test')
+    const res = await angler.get('/api/lakes/quillmere/read').expect(200)
+    const read = LakeRead.parse(res.body)
+    expect(read.lake.slug).toBe('quillmere')
+    expect(read.waterTemp).toMatchObject({ stale: false })
+    expect(read.waterTemp!.trendCPerDay).not.toBeNull()
+    // Quillmere has a Secchi disk read daily, so the strip shows the disk, not the estimate.
+    expect(read.clarity).toMatchObject({ source: 'secchi', stale: false })
+    expect(read.level!.vsMedian30dM).not.toBeNull()
+    expect(read.windNow).not.toBeNull()
+    expect(read.windNext12h.length).toBeGreaterThanOrEqual(11)
+    expect(read.pressure?.label).toBeTruthy()
+    expect(read.phase?.reason).toMatch(/5-day mean/)
+    expect(read.cautions.at(-1)!.kind).toBe('authority')
+  })
+
+  it('marks readings that are hours old as stale rather than current', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'late@example.test')
+    const read = LakeRead.parse((await angler.get('/api/lakes/vessandra/read').expect(200)).body)
+    expect(read.waterTemp!.stale).toBe(true)
+    expect(read.clarity!.source).toBe('turbidity')
+    // Three days of data are too few for a seasonal phase, and the read says so by leaving it out.
+    expect(read.phase).toBeNull()
+  })
+
+  it('answers 404 for an unknown lake, 400 for a malformed slug and 401 without a session', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'lost@example.test')
+    await angler.get('/api/lakes/no-such-lake/read').expect(404)
+    const bad = await angler.get('/api/lakes/Bad%20Slug!/read').expect(400)
+    expect(bad.body.error.fields.slug).toBeTruthy()
+    await request(app).get('/api/lakes/quillmere/read').expect(401)
+  })
+})
