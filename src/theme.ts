@@ -1,3 +1,4 @@
+import type { ClarityClass } from '@shared/conditions/clarity'
 import type { GlobalThemeOverrides } from 'naive-ui'
 
 const font = "'Barlow', system-ui, -apple-system, 'Segoe UI', sans-serif"
@@ -12,6 +13,15 @@ export const palette = {
   jade: '#3f8f74',
   lakeBlue: '#2f7fa8',
   glacier: '#9fd3e0',
+}
+
+/** Clarity classes take their colours from the water they name. */
+export const clarityColors: Record<ClarityClass, string> = {
+  muddy: palette.tannin,
+  stained: palette.olive,
+  'lightly-stained': palette.jade,
+  clear: palette.lakeBlue,
+  'very-clear': palette.glacier,
 }
 
 export const themeOverrides: GlobalThemeOverrides = {

@@ -36,6 +36,12 @@ const router = createRouter({
       meta: { role: 'angler', title: 'Lakes' },
     },
     {
+      path: '/lakes/:slug',
+      name: 'lake-read',
+      component: () => import('@/views/LakeReadView.vue'),
+      meta: { role: 'angler', title: 'Lake read' },
+    },
+    {
       path: '/admin/users',
       name: 'admin-users',
       component: () => import('@/views/AdminUsersView.vue'),

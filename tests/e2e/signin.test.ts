@@ -2,7 +2,12 @@ import type { AddressInfo } from 'node:net'
 import type { Server } from 'node:http'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { eq } from 'drizzle-orm'
+import { lakes } from '../../server/db/schema/index'
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed/index'
+import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { ingestWeather } from '../../server/features/ingest/weather.ingest'
+import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
 import { clientDir } from '../../server/index'
 import { artifactsDir, launchBrowser } from '../helpers/browser'
 import { createTestDb } from '../helpers/db'
@@ -13,9 +18,16 @@ let server: Server
 let browser: Awaited<ReturnType<typeof launchBrowser>>
 let base: string
 
+let feed: TestFeed
+
 beforeAll(async () => {
   ctx = await createTestDb()
   await seedDemo(ctx.db)
+  // Two weeks of readings and the weather for one lake, from the fake feed, as npm start loads them.
+  feed = await startTestFeed(new Date().toISOString())
+  const [quillmere] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+  await backfillReadings(ingestDeps(ctx.db, feed), quillmere!.id, 15)
+  await ingestWeather(ingestDeps(ctx.db, feed))
   // The built client (npm test runs vite build first), served exactly as npm start serves it.
   server = testApp(ctx.db, { staticDir: clientDir }).listen(0, '127.0.0.1')
   await new Promise((resolve) => server.once('listening', resolve))
@@ -24,6 +36,7 @@ beforeAll(async () => {
 })
 
 afterAll(async () => {
+  await feed?.close()
   await browser?.close()
   server?.close()
   await ctx?.drop()
@@ -62,6 +75,30 @@ describe('sign-in in Chromium', () => {
     await page.getByRole('link', { name: 'Users' }).click()
     await page.getByText('guide@chopline.test').waitFor()
     await page.screenshot({ path: join(artifactsDir, 'admin-users.png'), fullPage: true })
+    await page.close()
+  })
+
+  it('opens a lake read with its water strip, cautions, wind and season, on a phone and a desktop', async () => {
+    await browser.context.clearCookies()
+    const page = await browser.context.newPage()
+    await page.goto(`${base}/signin`)
+    await page.getByLabel('E-mail').fill('angler@chopline.test')
+    await page.getByLabel('Password').fill(DEMO_PASSWORD)
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    await page.getByRole('link', { name: 'Quillmere Reservoir' }).click()
+    await page.waitForURL(`${base}/lakes/quillmere`)
+    await page.getByRole('heading', { name: 'Quillmere Reservoir' }).waitFor()
+    const strip = page.getByRole('region', { name: 'Water' })
+    await expect.poll(() => strip.innerText()).toMatch(/°F/)
+    await expect
+      .poll(() => page.getByRole('region', { name: 'Safety cautions' }).innerText())
+      .toMatch(/boating law/)
+    await expect
+      .poll(() => page.getByRole('region', { name: 'Sky and season' }).innerText())
+      .toMatch(/5-day mean/)
+    await page.screenshot({ path: join(artifactsDir, 'lake-read-phone.png'), fullPage: true })
+    await page.setViewportSize({ width: 1366, height: 900 })
+    await page.screenshot({ path: join(artifactsDir, 'lake-read-desktop.png'), fullPage: true })
     await page.close()
   })
 })
