@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { CLARITY_CLASSES } from '../conditions/clarity'
 import { pageOf, PageQuery } from './paging'
 
 export const LakeSummary = z.object({
@@ -16,5 +17,19 @@ export type LakeSummary = z.infer<typeof LakeSummary>
 export const LakeListQuery = PageQuery.extend({ q: z.string().trim().max(100).optional() })
 export type LakeListQuery = z.infer<typeof LakeListQuery>
 
-export const LakePage = pageOf(LakeSummary)
+/** A row of the Lakes screen: the lake, whether I follow it, and today's one-line read. */
+export const LakeListItem = LakeSummary.extend({
+  subscribed: z.boolean(),
+  lastReadingAt: z.iso.datetime().nullable(),
+  stale: z.boolean(),
+  today: z.object({
+    waterC: z.number().nullable(),
+    clarity: z.enum(CLARITY_CLASSES).nullable(),
+    windMs: z.number().nullable(),
+    windFromDeg: z.number().nullable(),
+  }),
+})
+export type LakeListItem = z.infer<typeof LakeListItem>
+
+export const LakePage = pageOf(LakeListItem)
 export type LakePage = z.infer<typeof LakePage>

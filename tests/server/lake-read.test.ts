@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { LakeRead } from '../../shared/schemas/lake-read'
+import { LakePage } from '../../shared/schemas/lakes'
 import { lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
@@ -69,5 +70,54 @@ describe('GET /api/lakes/:slug/read', () => {
     const bad = await angler.get('/api/lakes/Bad%20Slug!/read').expect(400)
     expect(bad.body.error.fields.slug).toBeTruthy()
     await request(app).get('/api/lakes/quillmere/read').expect(401)
+  })
+})
+
+describe('GET /api/lakes and subscriptions', () => {
+  it('lists lakes with freshness and the one-line read, and follows and unfollows idempotently', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'follower@example.test')
+    const page = LakePage.parse((await angler.get('/api/lakes').expect(200)).body)
+    const quill = page.items.find((l) => l.slug === 'quillmere')!
+    expect(quill).toMatchObject({ subscribed: false, stale: false })
+    expect(quill.today.waterC).not.toBeNull()
+    expect(quill.today.clarity).not.toBeNull()
+    expect(quill.today.windMs).not.toBeNull()
+    // Tanglewhit has no readings loaded in this test.
+    expect(page.items.find((l) => l.slug === 'tanglewhit')).toMatchObject({
+      lastReadingAt: null,
+      stale: true,
+    })
+
+    await angler.put('/api/lakes/quillmere/subscription').expect(204)
+    await angler.put('/api/lakes/quillmere/subscription').expect(204)
+    const after = LakePage.parse(
+      (await angler.get('/api/lakes').query({ q: 'quill' }).expect(200)).body,
+    )
+    expect(after.items).toHaveLength(1)
+    expect(after.items[0]!.subscribed).toBe(true)
+    // Another angler's view is their own.
+    const other = await signedInAgent(app, ctx.db, 'other@example.test')
+    const theirs = LakePage.parse(
+      (await other.get('/api/lakes').query({ q: 'quill' }).expect(200)).body,
+    )
+    expect(theirs.items[0]!.subscribed).toBe(false)
+
+    await angler.delete('/api/lakes/quillmere/subscription').expect(204)
+    await angler.delete('/api/lakes/quillmere/subscription').expect(204)
+    await angler.put('/api/lakes/nowhere/subscription').expect(404)
+    await request(app).put('/api/lakes/quillmere/subscription').expect(401)
+  })
+
+  it('pages on the server and rejects a bad page size', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'pager@example.test')
+    const first = LakePage.parse(
+      (await angler.get('/api/lakes').query({ pageSize: 2 }).expect(200)).body,
+    )
+    expect(first).toMatchObject({ total: 3, page: 1, pageSize: 2 })
+    expect(first.items).toHaveLength(2)
+    const bad = await angler.get('/api/lakes').query({ pageSize: 1000 }).expect(400)
+    expect(bad.body.error.fields.pageSize).toBeTruthy()
   })
 })

@@ -1,3 +1,4 @@
 export * from './lakes'
 export * from './readings'
+export * from './subscriptions'
 export * from './users'

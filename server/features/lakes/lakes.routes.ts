@@ -1,6 +1,6 @@
 import { Router } from 'express'
 import { LakeListQuery } from '../../../shared/schemas/lakes'
-import { requireSignIn } from '../../http/access'
+import { currentUser, requireSignIn } from '../../http/access'
 import { input, validate } from '../../http/validate'
 import { LakeSlugParams } from '../../../shared/schemas/lake-read'
 import type { LakeReadService } from './lake-read.service'
@@ -9,7 +9,7 @@ import type { LakesService } from './lakes.service'
 export function lakesRoutes(lakes: LakesService, reads: LakeReadService): Router {
   const router = Router()
   router.get('/lakes', requireSignIn, validate({ query: LakeListQuery }), async (req, res) => {
-    res.json(await lakes.list(input(LakeListQuery, req.query)))
+    res.json(await lakes.list(input(LakeListQuery, req.query), currentUser(req).id))
   })
   router.get(
     '/lakes/:slug/read',
@@ -17,6 +17,25 @@ export function lakesRoutes(lakes: LakesService, reads: LakeReadService): Router
     validate({ params: LakeSlugParams }),
     async (req, res) => {
       res.json(await reads.read(input(LakeSlugParams, req.params).slug))
+    },
+  )
+  // Subscribing is idempotent: PUT it twice, DELETE it twice, same result.
+  router.put(
+    '/lakes/:slug/subscription',
+    requireSignIn,
+    validate({ params: LakeSlugParams }),
+    async (req, res) => {
+      await lakes.subscribe(currentUser(req).id, input(LakeSlugParams, req.params).slug)
+      res.status(204).end()
+    },
+  )
+  router.delete(
+    '/lakes/:slug/subscription',
+    requireSignIn,
+    validate({ params: LakeSlugParams }),
+    async (req, res) => {
+      await lakes.unsubscribe(currentUser(req).id, input(LakeSlugParams, req.params).slug)
+      res.status(204).end()
     },
   )
   return router
