@@ -1,4 +1,5 @@
 import { LakeRead } from '@shared/schemas/lake-read'
+import { LakeSeries } from '@shared/schemas/lake-series'
 import { LakePage, type LakeListQuery } from '@shared/schemas/lakes'
 import { apiCommand, apiRequest } from './http'
 
@@ -8,5 +9,7 @@ export const lakesApi = {
     apiCommand(`/lakes/${encodeURIComponent(slug)}/subscription`, { method: 'PUT' }),
   unsubscribe: (slug: string) =>
     apiCommand(`/lakes/${encodeURIComponent(slug)}/subscription`, { method: 'DELETE' }),
+  series: (slug: string, days: 7 | 30) =>
+    apiRequest(LakeSeries, `/lakes/${encodeURIComponent(slug)}/series`, { query: { days } }),
   read: (slug: string) => apiRequest(LakeRead, `/lakes/${encodeURIComponent(slug)}/read`),
 }

@@ -96,6 +96,10 @@ describe('sign-in in Chromium', () => {
     await expect
       .poll(() => page.getByRole('region', { name: 'Sky and season' }).innerText())
       .toMatch(/5-day mean/)
+    // The charts load after the numbers, each a labelled canvas.
+    await page.getByRole('img', { name: 'Water temperature chart' }).waitFor()
+    await page.getByRole('radio', { name: '30 days' }).check({ force: true })
+    await page.getByRole('heading', { name: 'Last 30 days' }).waitFor()
     await page.screenshot({ path: join(artifactsDir, 'lake-read-phone.png'), fullPage: true })
     await page.setViewportSize({ width: 1366, height: 900 })
     await page.screenshot({ path: join(artifactsDir, 'lake-read-desktop.png'), fullPage: true })

@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { LakeRead } from '../../shared/schemas/lake-read'
+import { LakeSeries } from '../../shared/schemas/lake-series'
 import { LakePage } from '../../shared/schemas/lakes'
 import { lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
@@ -119,5 +120,34 @@ describe('GET /api/lakes and subscriptions', () => {
     expect(first.items).toHaveLength(2)
     const bad = await angler.get('/api/lakes').query({ pageSize: 1000 }).expect(400)
     expect(bad.body.error.fields.pageSize).toBeTruthy()
+  })
+})
+
+describe('GET /api/lakes/:slug/series', () => {
+  it('returns aligned hourly series for 7 or 30 days and refuses other periods', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'charts@example.test')
+    const week = LakeSeries.parse(
+      (await angler.get('/api/lakes/quillmere/series').query({ days: 7 }).expect(200)).body,
+    )
+    expect(week.hours.length).toBe(7 * 24 + 1)
+    for (const key of [
+      'waterC',
+      'secchiM',
+      'gaugeM',
+      'windMs',
+      'gustMs',
+      'precipitationMm',
+    ] as const) {
+      expect(week[key]).toHaveLength(week.hours.length)
+    }
+    expect(week.waterC.filter((v) => v !== null).length).toBeGreaterThan(7 * 24 - 3)
+    const month = LakeSeries.parse(
+      (await angler.get('/api/lakes/quillmere/series').query({ days: 30 }).expect(200)).body,
+    )
+    // Only 20 days were loaded: the older hours are empty, not invented.
+    expect(month.waterC.slice(0, 24 * 9).every((v) => v === null)).toBe(true)
+    const bad = await angler.get('/api/lakes/quillmere/series').query({ days: 9 }).expect(400)
+    expect(bad.body.error.fields.days).toMatch(/7 or 30/)
   })
 })

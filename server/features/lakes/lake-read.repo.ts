@@ -1,4 +1,4 @@
-import { and, asc, eq, gt, gte, inArray, lte } from 'drizzle-orm'
+import { and, asc, eq, gt, gte, inArray, lte, sql } from 'drizzle-orm'
 import type { Parameter } from '../../../shared/readings'
 import type { Db } from '../../db/index'
 import { lakes, readings, stations, weatherHours } from '../../db/schema/index'
@@ -43,6 +43,32 @@ export function lakeReadRepo(db: Db) {
           ),
         )
         .orderBy(asc(weatherHours.at)),
+    /** Hourly means of a station's readings and of a lake's observed weather since `since`. */
+    async hourly(stationId: string | null, lakeId: string, since: Date) {
+      const readingsByHour = stationId
+        ? await db.execute<{ hour: string; parameter: string; value: number }>(sql`
+            select date_trunc('hour', observed_at) as hour, parameter::text as parameter, avg(value) as value
+            from readings where station_id = ${stationId} and observed_at >= ${since.toISOString()}::timestamptz
+              and parameter in ('water_temp', 'turbidity', 'gauge_height')
+            group by 1, 2`)
+        : { rows: [] }
+      const weather = await db
+        .select({
+          at: weatherHours.at,
+          windMs: weatherHours.windMs,
+          gustMs: weatherHours.gustMs,
+          precipitationMm: weatherHours.precipitationMm,
+        })
+        .from(weatherHours)
+        .where(
+          and(
+            eq(weatherHours.lakeId, lakeId),
+            eq(weatherHours.kind, 'observed'),
+            gte(weatherHours.at, since),
+          ),
+        )
+      return { readings: readingsByHour.rows, weather }
+    },
   }
 }
 export type LakeReadRepo = ReturnType<typeof lakeReadRepo>

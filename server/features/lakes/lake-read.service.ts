@@ -13,6 +13,7 @@ import { pressureTendency } from '../../../shared/conditions/weather'
 import { DomainError } from '../../../shared/errors'
 import { isStale } from '../../../shared/readings'
 import type { LakeRead, WindHour } from '../../../shared/schemas/lake-read'
+import type { LakeSeries } from '../../../shared/schemas/lake-series'
 import { addDays, localDate } from '../../../shared/time'
 import { HttpError } from '../../http/errors'
 import type { LakeReadRepo } from './lake-read.repo'
@@ -51,6 +52,44 @@ function trendPerDay(points: Point[], now: Date): number | null {
 
 export function lakeReadService(repo: LakeReadRepo) {
   return {
+    /** Hourly series for the charts: gauge means per hour (Secchi estimated from turbidity) and observed weather. */
+    async series(slug: string, days: number, now = new Date()): Promise<LakeSeries> {
+      const lake = await repo.lakeBySlug(slug)
+      if (!lake) throw new HttpError(404, 'not_found', 'No such lake.')
+      const gauge = await repo.gauge(lake.id)
+      const start = Math.floor((now.getTime() - days * DAY) / 3_600_000) * 3_600_000
+      const { readings, weather } = await repo.hourly(gauge?.id ?? null, lake.id, new Date(start))
+      const hours = Array.from(
+        { length: Math.floor((now.getTime() - start) / 3_600_000) + 1 },
+        (_, i) => start + i * 3_600_000,
+      )
+      const slot = new Map(hours.map((h, i) => [h, i]))
+      const empty = () => hours.map((): number | null => null)
+      const out = {
+        waterC: empty(),
+        secchiM: empty(),
+        gaugeM: empty(),
+        windMs: empty(),
+        gustMs: empty(),
+        precipitationMm: empty(),
+      }
+      for (const r of readings) {
+        const i = slot.get(new Date(r.hour).getTime())
+        if (i === undefined) continue
+        if (r.parameter === 'water_temp') out.waterC[i] = Number(r.value)
+        else if (r.parameter === 'turbidity') out.secchiM[i] = secchiFromTurbidity(Number(r.value))
+        else out.gaugeM[i] = Number(r.value)
+      }
+      for (const w of weather) {
+        const i = slot.get(w.at.getTime())
+        if (i === undefined) continue
+        out.windMs[i] = w.windMs
+        out.gustMs[i] = w.gustMs
+        out.precipitationMm[i] = w.precipitationMm
+      }
+      return { days, hours: hours.map((h) => new Date(h).toISOString()), ...out }
+    },
+
     /** The Lake read at `now`, from stored readings and weather; nothing here calls the feed. */
     async read(slug: string, now = new Date()): Promise<LakeRead> {
       const lake = await repo.lakeBySlug(slug)

@@ -3,6 +3,7 @@ import { LakeListQuery } from '../../../shared/schemas/lakes'
 import { currentUser, requireSignIn } from '../../http/access'
 import { input, validate } from '../../http/validate'
 import { LakeSlugParams } from '../../../shared/schemas/lake-read'
+import { SeriesQuery } from '../../../shared/schemas/lake-series'
 import type { LakeReadService } from './lake-read.service'
 import type { LakesService } from './lakes.service'
 
@@ -17,6 +18,15 @@ export function lakesRoutes(lakes: LakesService, reads: LakeReadService): Router
     validate({ params: LakeSlugParams }),
     async (req, res) => {
       res.json(await reads.read(input(LakeSlugParams, req.params).slug))
+    },
+  )
+  router.get(
+    '/lakes/:slug/series',
+    requireSignIn,
+    validate({ params: LakeSlugParams, query: SeriesQuery }),
+    async (req, res) => {
+      const { days } = input(SeriesQuery, req.query)
+      res.json(await reads.series(input(LakeSlugParams, req.params).slug, days))
     },
   )
   // Subscribing is idempotent: PUT it twice, DELETE it twice, same result.

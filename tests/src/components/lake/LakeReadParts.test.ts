@@ -1,0 +1,116 @@
+import { mount } from '@vue/test-utils'
+import { describe, expect, it } from 'vitest'
+import type { LakeRead } from '@shared/schemas/lake-read'
+import CautionBand from '@/components/lake/CautionBand.vue'
+import WaterStrip from '@/components/lake/WaterStrip.vue'
+import WindArrow from '@/components/lake/WindArrow.vue'
+
+const now = new Date().toISOString()
+const hoursAgo = (h: number) => new Date(Date.now() - h * 3_600_000).toISOString()
+
+function read(overrides: Partial<LakeRead> = {}): LakeRead {
+  return {
+    lake: {
+      id: '00000000-0000-4000-8000-000000000001',
+      slug: 'x',
+      name: 'X',
+      region: 'R',
+      timeZone: 'UTC',
+      normalPoolM: 1,
+      areaKm2: 1,
+      center: [0, 0],
+    },
+    asOf: now,
+    lastReadingAt: now,
+    waterTemp: { at: now, stale: false, valueC: 20, trendCPerDay: 0.5 },
+    clarity: {
+      at: now,
+      stale: false,
+      secchiM: 0.5,
+      source: 'turbidity',
+      class: 'stained',
+      tsi: 70,
+      trend: null,
+    },
+    level: { at: now, stale: false, gaugeM: 3, vsMedian30dM: 0.3048 },
+    windNow: null,
+    windNext12h: [],
+    airC: null,
+    pressure: null,
+    sky: {
+      sunrise: null,
+      sunset: null,
+      civilDawn: null,
+      civilDusk: null,
+      moonrise: null,
+      moonset: null,
+      moonIllumination: 0,
+      moonPhase: 'new moon',
+    },
+    phase: null,
+    openWaterWaveM: null,
+    cautions: [],
+    ...overrides,
+  }
+}
+
+describe('WaterStrip', () => {
+  it('shows water in °F, clarity class and level against the median', () => {
+    const text = mount(WaterStrip, { props: { read: read() } }).text()
+    expect(text).toContain('68 °F')
+    expect(text).toContain('warming')
+    expect(text).toContain('stained')
+    expect(text).toContain('+1.0 ft')
+  })
+
+  it('marks an old reading as old instead of showing it as current', () => {
+    const wrapper = mount(WaterStrip, {
+      props: {
+        read: read({ waterTemp: { at: hoursAgo(5), stale: true, valueC: 20, trendCPerDay: null } }),
+      },
+    })
+    expect(wrapper.text()).toContain('Old reading: 5 h ago')
+    expect(wrapper.find('.tile.stale').exists()).toBe(true)
+  })
+
+  it('says when there is no reading at all', () => {
+    expect(
+      mount(WaterStrip, {
+        props: { read: read({ waterTemp: null, clarity: null, level: null }) },
+      }).text(),
+    ).toContain('No reading')
+  })
+})
+
+describe('CautionBand', () => {
+  it('announces warnings and dangers as alerts and keeps the deferral note', () => {
+    const wrapper = mount(CautionBand, {
+      props: {
+        cautions: [
+          {
+            kind: 'lightning',
+            level: 'danger',
+            message: 'When thunder roars, go indoors.',
+            source: 'NWS lightning safety',
+          },
+          {
+            kind: 'authority',
+            level: 'info',
+            message: 'Follow local authorities and boating law.',
+            source: 'common practice',
+          },
+        ],
+      },
+    })
+    expect(wrapper.findAll('[role="alert"]')).toHaveLength(1)
+    expect(wrapper.text()).toContain('boating law')
+  })
+})
+
+describe('WindArrow', () => {
+  it('points downwind and names where the wind comes from', () => {
+    const svg = mount(WindArrow, { props: { fromDeg: 270 } })
+    expect(svg.attributes('aria-label')).toBe('Wind from W')
+    expect(svg.find('g').attributes('transform')).toBe('rotate(450)')
+  })
+})
