@@ -42,6 +42,16 @@ function dailyMeans(points: Point[], timeZone: string): { days: number[]; lastDa
   return { days: run, lastDay }
 }
 
+/** A computation over a series, or null when the series is too short for it (a DomainError). */
+function unlessTooFew<T>(compute: () => T): T | null {
+  try {
+    return compute()
+  } catch (err) {
+    if (err instanceof DomainError) return null
+    throw err
+  }
+}
+
 function trendPerDay(points: Point[], now: Date): number | null {
   const recent = points.filter((p) => now.getTime() - p.at.getTime() <= 3 * DAY)
   const line = theilSen(
@@ -132,12 +142,7 @@ export function lakeReadService(repo: LakeReadRepo) {
         at: iso(p.at),
         secchiM: secchiFromTurbidity(p.value),
       }))
-      let trend = null
-      try {
-        trend = estimates.length ? clarityTrend(estimates, iso(now)) : null
-      } catch (err) {
-        if (!(err instanceof DomainError)) throw err
-      }
+      const trend = unlessTooFew(() => clarityTrend(estimates, iso(now)))
       const clarity = clarityPoint
         ? {
             at: iso(clarityPoint.at),
@@ -180,16 +185,10 @@ export function lakeReadService(repo: LakeReadRepo) {
         windFromDeg: w.windFromDeg,
       })
       const latest = observed.at(-1)
-      let pressure = null
-      try {
-        if (latest)
-          pressure = {
-            hPa: latest.pressureHpa,
-            ...pressureTendency(observed.map((w) => ({ at: iso(w.at), hPa: w.pressureHpa }))),
-          }
-      } catch (err) {
-        if (!(err instanceof DomainError)) throw err
-      }
+      const tendency = unlessTooFew(() =>
+        pressureTendency(observed.map((w) => ({ at: iso(w.at), hPa: w.pressureHpa }))),
+      )
+      const pressure = latest && tendency ? { hPa: latest.pressureHpa, ...tendency } : null
 
       const means = dailyMeans(temps, lake.timeZone)
       const phase =
