@@ -17,6 +17,9 @@ import { lakeReadService } from './features/lakes/lake-read.service'
 import { lakesRepo } from './features/lakes/lakes.repo'
 import { lakesRoutes } from './features/lakes/lakes.routes'
 import { lakesService } from './features/lakes/lakes.service'
+import { settingsRepo } from './features/settings/settings.repo'
+import { settingsRoutes } from './features/settings/settings.routes'
+import { settingsService } from './features/settings/settings.service'
 import { stationsRepo } from './features/stations/stations.repo'
 import { stationsRoutes } from './features/stations/stations.routes'
 import { stationsService } from './features/stations/stations.service'
@@ -101,6 +104,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
   api.use(lakesRoutes(lakesService(lakesRepo(deps.db)), lakeReadService(lakeReadRepo(deps.db))))
   api.use(stationsRoutes(stationsService(stationsRepo(deps.db))))
+  api.use(settingsRoutes(settingsService(settingsRepo(deps.db))))
   api.use(notFound)
   app.use('/api', api)
 

@@ -1,27 +1,47 @@
 import { compassName } from '@shared/conditions/exposure'
-import { cToF, mToFt, msToMph } from '@shared/units'
+import { DEFAULT_SETTINGS, type Settings } from '@shared/schemas/settings'
+import { cToF, mToFt, msToKmh, msToKnots, msToMph } from '@shared/units'
 
-/** Display formats for the edges of the app: SI comes in, angler's units go out. */
-export const fmt = {
-  tempF: (c: number) => `${Math.round(cToF(c))} °F`,
-  tempC: (c: number) => `${c.toFixed(1)} °C`,
-  feet: (m: number) => `${mToFt(m).toFixed(1)} ft`,
-  signedFeet: (m: number) => `${m >= 0 ? '+' : '−'}${Math.abs(mToFt(m)).toFixed(1)} ft`,
-  mph: (ms: number) => `${Math.round(msToMph(ms))} mph`,
-  from: (deg: number) => `from ${compassName(deg)}`,
-  time: (iso: string | null, timeZone: string) =>
-    iso
-      ? new Intl.DateTimeFormat('en-US', { timeZone, hour: 'numeric', minute: '2-digit' }).format(
-          new Date(iso),
-        )
-      : '—',
-  /** "12 min ago", "3 h ago": how old a reading is. */
-  age: (iso: string, now = Date.now()) => {
-    const min = Math.max(0, Math.round((now - Date.parse(iso)) / 60_000))
-    return min < 90
-      ? `${min} min ago`
-      : min < 2880
-        ? `${Math.round(min / 60)} h ago`
-        : `${Math.round(min / 1440)} days ago`
-  },
+/** "12 min ago", "3 h ago": how old a reading is. */
+export function age(iso: string, now = Date.now()): string {
+  const min = Math.max(0, Math.round((now - Date.parse(iso)) / 60_000))
+  if (min < 90) return `${min} min ago`
+  return min < 2880 ? `${Math.round(min / 60)} h ago` : `${Math.round(min / 1440)} days ago`
 }
+
+/** Display formats in the user's units: SI comes in, the angler's units go out. */
+export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
+  const speed = { mph: [msToMph, 'mph'], kmh: [msToKmh, 'km/h'], knots: [msToKnots, 'kt'] } as const
+  const [toSpeed, speedUnit] = speed[s.speed]
+  const lengthOf = (m: number) => (s.length === 'ft' ? mToFt(m) : m)
+  return {
+    settings: s,
+    tempUnit: s.temperature === 'F' ? '°F' : '°C',
+    lengthUnit: s.length,
+    speedUnit,
+    toTemp: (c: number) => (s.temperature === 'F' ? cToF(c) : c),
+    toLength: lengthOf,
+    toSpeed: (ms: number) => toSpeed(ms),
+    temp: (c: number) =>
+      s.temperature === 'F' ? `${Math.round(cToF(c))} °F` : `${c.toFixed(1)} °C`,
+    /** A change in temperature (no offset between scales). */
+    tempChange: (c: number) =>
+      s.temperature === 'F' ? `${((c * 9) / 5).toFixed(1)} °F` : `${c.toFixed(1)} °C`,
+    length: (m: number) => `${lengthOf(m).toFixed(1)} ${s.length}`,
+    signedLength: (m: number) =>
+      `${m >= 0 ? '+' : '−'}${Math.abs(lengthOf(m)).toFixed(1)} ${s.length}`,
+    speed: (ms: number) => `${Math.round(toSpeed(ms))} ${speedUnit}`,
+    from: (deg: number) => `from ${compassName(deg)}`,
+    time: (iso: string | null, timeZone: string) =>
+      iso
+        ? new Intl.DateTimeFormat('en-US', {
+            timeZone,
+            hour: 'numeric',
+            minute: '2-digit',
+            hourCycle: s.clock === '24h' ? 'h23' : 'h12',
+          }).format(new Date(iso))
+        : '—',
+    age,
+  }
+}
+export type Format = ReturnType<typeof makeFormat>

@@ -42,6 +42,12 @@ const router = createRouter({
       meta: { role: 'angler', title: 'Lake read' },
     },
     {
+      path: '/settings',
+      name: 'settings',
+      component: () => import('@/views/SettingsView.vue'),
+      meta: { role: 'angler', title: 'Settings' },
+    },
+    {
       path: '/admin/users',
       name: 'admin-users',
       component: () => import('@/views/AdminUsersView.vue'),

@@ -1,4 +1,5 @@
 export * from './lakes'
 export * from './readings'
+export * from './settings'
 export * from './subscriptions'
 export * from './users'

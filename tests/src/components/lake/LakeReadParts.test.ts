@@ -1,9 +1,15 @@
-import { mount } from '@vue/test-utils'
+import { VueQueryPlugin } from '@tanstack/vue-query'
+import { mount as baseMount } from '@vue/test-utils'
+import { createPinia } from 'pinia'
 import { describe, expect, it } from 'vitest'
 import type { LakeRead } from '@shared/schemas/lake-read'
 import CautionBand from '@/components/lake/CautionBand.vue'
 import WaterStrip from '@/components/lake/WaterStrip.vue'
 import WindArrow from '@/components/lake/WindArrow.vue'
+
+/** Signed out, settings stay at their defaults (°F, ft, mph). */
+const mount: typeof baseMount = (component, options) =>
+  baseMount(component, { ...options, global: { plugins: [createPinia(), VueQueryPlugin] } })
 
 const now = new Date().toISOString()
 const hoursAgo = (h: number) => new Date(Date.now() - h * 3_600_000).toISOString()
@@ -58,7 +64,7 @@ describe('WaterStrip', () => {
   it('shows water in °F, clarity class and level against the median', () => {
     const text = mount(WaterStrip, { props: { read: read() } }).text()
     expect(text).toContain('68 °F')
-    expect(text).toContain('warming')
+    expect(text).toContain('warming 0.9 °F/day')
     expect(text).toContain('stained')
     expect(text).toContain('+1.0 ft')
   })
