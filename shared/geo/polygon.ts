@@ -113,3 +113,19 @@ export function inWaterXy(rings: Xy[][], [x, y]: Xy): boolean {
   }
   return inside
 }
+
+/**
+ * The lake with its rings wound one way in lon/lat: shorelines counter-clockwise and islands
+ * clockwise (RFC 7946), or the reverse, which is what spherical renderers such as d3-geo expect.
+ */
+export function rewound(lake: LakeGeometry, shorelineClockwise = false): LakeGeometry {
+  const wind = (rings: Ring[]) =>
+    rings.map((ring, i) => {
+      const ccw = ringAreaXy(ring as Xy[]) > 0
+      const wantCcw = (i === 0) !== shorelineClockwise
+      return ccw === wantCcw ? ring : [...ring].reverse()
+    })
+  return lake.type === 'Polygon'
+    ? { type: 'Polygon', coordinates: wind(lake.coordinates) }
+    : { type: 'MultiPolygon', coordinates: lake.coordinates.map(wind) }
+}

@@ -23,9 +23,18 @@ export const CautionView = z.object({
   source: z.string(),
 })
 
+const Ring = z.array(z.tuple([z.number(), z.number()]))
+
+/** GeoJSON Polygon or MultiPolygon in WGS84; interior rings are islands. */
+export const LakeShoreline = z.union([
+  z.object({ type: z.literal('Polygon'), coordinates: z.array(Ring) }),
+  z.object({ type: z.literal('MultiPolygon'), coordinates: z.array(z.array(Ring)) }),
+])
+
 /** The Lake read: everything the water strip, wind, sky and caution band show. SI units throughout. */
 export const LakeRead = z.object({
   lake: LakeSummary,
+  shoreline: LakeShoreline,
   asOf: Instant,
   lastReadingAt: Instant.nullable(),
   waterTemp: Reading.extend({ valueC: z.number(), trendCPerDay: z.number().nullable() }).nullable(),

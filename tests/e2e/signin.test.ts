@@ -96,6 +96,9 @@ describe('sign-in in Chromium', () => {
     await expect
       .poll(() => page.getByRole('region', { name: 'Sky and season' }).innerText())
       .toMatch(/5-day mean/)
+    await page
+      .getByRole('img', { name: /Outline of Quillmere Reservoir, .* with 2 islands/ })
+      .waitFor()
     // The charts load after the numbers, each a labelled canvas.
     await page.getByRole('img', { name: 'Water temperature chart' }).waitFor()
     await page.getByRole('radio', { name: '30 days' }).check({ force: true })

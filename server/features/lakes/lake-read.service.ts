@@ -228,6 +228,7 @@ export function lakeReadService(repo: LakeReadRepo) {
           areaKm2: lake.areaKm2,
           center: [lake.centerLon, lake.centerLat],
         },
+        shoreline: lake.shoreline,
         asOf: iso(now),
         lastReadingAt: times.length
           ? iso(new Date(Math.max(...times.map((d) => d.getTime()))))

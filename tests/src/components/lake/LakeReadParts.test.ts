@@ -4,6 +4,7 @@ import { createPinia } from 'pinia'
 import { describe, expect, it } from 'vitest'
 import type { LakeRead } from '@shared/schemas/lake-read'
 import CautionBand from '@/components/lake/CautionBand.vue'
+import LakeOutline from '@/components/lake/LakeOutline.vue'
 import WaterStrip from '@/components/lake/WaterStrip.vue'
 import WindArrow from '@/components/lake/WindArrow.vue'
 
@@ -25,6 +26,25 @@ function read(overrides: Partial<LakeRead> = {}): LakeRead {
       normalPoolM: 1,
       areaKm2: 1,
       center: [0, 0],
+    },
+    shoreline: {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [-88, 35],
+          [-87.9, 35],
+          [-87.9, 35.1],
+          [-88, 35.1],
+          [-88, 35],
+        ],
+        [
+          [-87.96, 35.04],
+          [-87.96, 35.06],
+          [-87.94, 35.06],
+          [-87.94, 35.04],
+          [-87.96, 35.04],
+        ],
+      ],
     },
     asOf: now,
     lastReadingAt: now,
@@ -118,5 +138,19 @@ describe('WindArrow', () => {
     const svg = mount(WindArrow, { props: { fromDeg: 270 } })
     expect(svg.attributes('aria-label')).toBe('Wind from W')
     expect(svg.find('g').attributes('transform')).toBe('rotate(450)')
+  })
+})
+
+describe('LakeOutline', () => {
+  it('draws the shoreline with its island as a hole and describes it in words', () => {
+    const wrapper = mount(LakeOutline, {
+      props: { read: read({ windNow: { at: now, windMs: 5, gustMs: 7, windFromDeg: 315 } }) },
+    })
+    const path = wrapper.get('path.water')
+    expect(path.attributes('fill-rule')).toBe('evenodd')
+    // Two rings: the shoreline and the island.
+    expect(path.attributes('d')!.match(/M/g)).toHaveLength(2)
+    expect(wrapper.get('svg').attributes('aria-label')).toMatch(/1 island\. Wind 11 mph from NW\./)
+    expect(wrapper.text()).toContain('km² of water')
   })
 })
