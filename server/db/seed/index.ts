@@ -1,3 +1,4 @@
+import { inArray } from 'drizzle-orm'
 import { lakeAreaM2, lakeCenter } from '../../../shared/geo/polygon'
 import { hashPassword } from '../../features/auth/passwords'
 import type { Db } from '../index'
@@ -16,11 +17,24 @@ export const DEMO_USERS: { email: string; role: Role }[] = [
 
 /** Idempotent: a second run adds nothing and leaves edited users and lakes alone. */
 export async function seedDemo(db: Db): Promise<void> {
-  const passwordHash = await hashPassword(DEMO_PASSWORD)
-  await db
-    .insert(users)
-    .values(DEMO_USERS.map((u) => ({ ...u, passwordHash })))
-    .onConflictDoNothing({ target: users.email })
+  // Hashing costs about a tenth of a second, so a start with the users in place skips it.
+  const existing = await db
+    .select({ email: users.email })
+    .from(users)
+    .where(
+      inArray(
+        users.email,
+        DEMO_USERS.map((u) => u.email),
+      ),
+    )
+  const missing = DEMO_USERS.filter((u) => !existing.some((e) => e.email === u.email))
+  if (missing.length) {
+    const passwordHash = await hashPassword(DEMO_PASSWORD)
+    await db
+      .insert(users)
+      .values(missing.map((u) => ({ ...u, passwordHash })))
+      .onConflictDoNothing({ target: users.email })
+  }
 
   const rows = DEMO_LAKES.map((shape) => {
     const shoreline = demoShoreline(shape)

@@ -1,4 +1,4 @@
-import { Router } from 'express'
+import { Router, type RequestHandler } from 'express'
 import { LakeListQuery } from '../../../shared/schemas/lakes'
 import { currentUser, requireSignIn } from '../../http/access'
 import { input, validate } from '../../http/validate'
@@ -30,23 +30,20 @@ export function lakesRoutes(lakes: LakesService, reads: LakeReadService): Router
     },
   )
   // Subscribing is idempotent: PUT it twice, DELETE it twice, same result.
-  router.put(
-    '/lakes/:slug/subscription',
-    requireSignIn,
-    validate({ params: LakeSlugParams }),
+  const follow =
+    (following: boolean): RequestHandler =>
     async (req, res) => {
-      await lakes.subscribe(currentUser(req).id, input(LakeSlugParams, req.params).slug)
+      await lakes.setSubscription(
+        currentUser(req).id,
+        input(LakeSlugParams, req.params).slug,
+        following,
+      )
       res.status(204).end()
-    },
-  )
-  router.delete(
-    '/lakes/:slug/subscription',
-    requireSignIn,
-    validate({ params: LakeSlugParams }),
-    async (req, res) => {
-      await lakes.unsubscribe(currentUser(req).id, input(LakeSlugParams, req.params).slug)
-      res.status(204).end()
-    },
-  )
+    }
+  router
+    .route('/lakes/:slug/subscription')
+    .all(requireSignIn, validate({ params: LakeSlugParams }))
+    .put(follow(true))
+    .delete(follow(false))
   return router
 }

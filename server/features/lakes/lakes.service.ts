@@ -7,12 +7,6 @@ import type { LakesRepo } from './lakes.repo'
 const DAY = 86_400_000
 
 export function lakesService(repo: LakesRepo) {
-  async function lakeIdOf(slug: string) {
-    const id = await repo.lakeId(slug)
-    if (!id) throw new HttpError(404, 'not_found', 'No such lake.')
-    return id
-  }
-
   return {
     async list(query: LakeListQuery, userId: string, now = new Date()): Promise<LakePage> {
       const { rows, total } = await repo.list(query)
@@ -55,12 +49,10 @@ export function lakesService(repo: LakesRepo) {
       return { items, total, page: query.page, pageSize: query.pageSize }
     },
 
-    async subscribe(userId: string, slug: string) {
-      await repo.subscribe(userId, await lakeIdOf(slug))
-    },
-
-    async unsubscribe(userId: string, slug: string) {
-      await repo.unsubscribe(userId, await lakeIdOf(slug))
+    async setSubscription(userId: string, slug: string, following: boolean) {
+      const lakeId = await repo.lakeId(slug)
+      if (!lakeId) throw new HttpError(404, 'not_found', 'No such lake.')
+      await (following ? repo.subscribe(userId, lakeId) : repo.unsubscribe(userId, lakeId))
     },
   }
 }
