@@ -47,6 +47,9 @@ const FORECAST_UPDATE = Object.fromEntries(
     .map((key) => [key, sql.raw(`excluded.${snake(key)}`)]),
 )
 
+/** A PostgreSQL array literal of values that never need quoting: finite numbers, ISO instants. */
+const plainArray = (values: (number | string)[]) => `{${values.join(',')}}`
+
 export function ingestRepo(db: Db) {
   return {
     /** Stations to read now: active, and not resting behind an open circuit breaker. */
@@ -111,16 +114,35 @@ export function ingestRepo(db: Db) {
      */
     async commitPages(pages: PageCommit[]) {
       const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null)
-      const good = pages.flatMap((p) => p.good.map((g) => ({ ...g, ds: p.ds })))
       const bad = pages.flatMap((p) => p.bad.map((b) => ({ ...b, ds: p.ds })))
       const arr = <T>(rows: T[], f: (row: T) => unknown) => sql.param(rows.map(f))
+      // Good rows go as plain array literals (which page, when, value, original value): pg's
+      // per-element quoting of big arrays cost more than the insert itself.
+      const page: number[] = []
+      const at: string[] = []
+      const value: number[] = []
+      const original: number[] = []
+      pages.forEach((p, i) => {
+        for (const g of p.good) {
+          page.push(i + 1)
+          at.push(g.observedAt.toISOString())
+          value.push(g.value)
+          original.push(g.originalValue)
+        }
+      })
       await db.execute(sql`
-        with good as (
-          -- One array parameter per column: a page is one round trip, however long.
+        with page as (
+          select * from unnest(${arr(pages, (p) => p.ds.id)}::uuid[], ${arr(pages, (p) => p.ds.stationId)}::uuid[],
+                               ${arr(pages, (p) => p.ds.parameter)}::parameter[], ${arr(pages, (p) => p.ds.unit)}::text[],
+                               ${arr(pages, (p) => iso(p.mark.highWaterMark))}::timestamptz[],
+                               ${arr(pages, (p) => iso(p.mark.backfillCursor))}::timestamptz[])
+            with ordinality as p(id, station_id, parameter, unit, hwm, cursor, i)
+        ), good as (
           insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
-          select * from unnest(${arr(good, (g) => g.ds.stationId)}::uuid[], ${arr(good, (g) => g.ds.parameter)}::parameter[],
-                               ${arr(good, (g) => g.observedAt.toISOString())}::timestamptz[], ${arr(good, (g) => g.value)}::float8[],
-                               ${arr(good, (g) => g.originalValue)}::float8[], ${arr(good, (g) => g.ds.unit)}::text[])
+          select p.station_id, p.parameter, r.observed_at, r.value, r.original_value, p.unit
+          from unnest(${plainArray(page)}::int[], ${plainArray(at)}::timestamptz[], ${plainArray(value)}::float8[],
+                      ${plainArray(original)}::float8[]) as r(i, observed_at, value, original_value)
+          join page p using (i)
           on conflict do nothing
         ), bad as (
           insert into quarantine (station_id, parameter, feed_id, observed_at, raw, reason, detail)
@@ -131,10 +153,9 @@ export function ingestRepo(db: Db) {
           on conflict do nothing
         )
         update datastreams d
-        set high_water_mark = coalesce(m.hwm, d.high_water_mark), backfill_cursor = coalesce(m.cursor, d.backfill_cursor)
-        from unnest(${arr(pages, (p) => p.ds.id)}::uuid[], ${arr(pages, (p) => iso(p.mark.highWaterMark))}::timestamptz[],
-                    ${arr(pages, (p) => iso(p.mark.backfillCursor))}::timestamptz[]) as m(id, hwm, cursor)
-        where d.id = m.id`)
+        set high_water_mark = coalesce(p.hwm, d.high_water_mark), backfill_cursor = coalesce(p.cursor, d.backfill_cursor)
+        from page p
+        where d.id = p.id`)
     },
 
     /**

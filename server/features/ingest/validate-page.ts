@@ -1,4 +1,4 @@
-import { plausibility, toSi, type Parameter } from '../../../shared/readings'
+import { plausibility, toSi, type Parameter, type Rejection } from '../../../shared/readings'
 import { Observation } from './feed.schemas'
 import type { GoodRow, QuarantineRow } from './ingest.repo'
 
@@ -16,10 +16,26 @@ const rawId = (raw: unknown, i: number) =>
     ? String((raw as Record<string, unknown>)['@iot.id'])
     : `unparsed-${i}`
 
+type Parsed = { obs: Observation; t: number }
+
+/** A reading in SI, or why it is rejected: unknown unit, out of range, rate of change. */
+function judge(
+  parameter: Parameter,
+  unit: string,
+  result: number,
+  at: Date,
+  previous?: { value: number; at: Date },
+): { si: number } | Rejection {
+  const si = toSi(parameter, result, unit)
+  if (si === null)
+    return { reason: 'unknown_unit', detail: `no conversion from ${unit} for ${parameter}` }
+  return plausibility(parameter, si, at, previous) ?? { si }
+}
+
 /**
  * Sorts a page by time, drops exact repeats, and splits it into good rows (in SI) and rows for
  * quarantine with their reason: malformed, unknown unit, out of range, rate of change, or a
- * second value for a time already seen.
+ * second value for a time already seen. Plain loops: this runs for every row the feed sends.
  */
 export function validatePage(
   parameter: Parameter,
@@ -28,10 +44,12 @@ export function validatePage(
   previous?: { value: number; at: Date },
 ): PageVerdict {
   const bad: QuarantineRow[] = []
-  const parsed: (Observation & { at: Date })[] = []
-  rows.forEach((raw, i) => {
+  const parsed: Parsed[] = []
+  for (let i = 0; i < rows.length; i++) {
+    const raw = rows[i]
     const obs = Observation.safeParse(raw)
-    if (!obs.success) {
+    if (obs.success) parsed.push({ obs: obs.data, t: Date.parse(obs.data.phenomenonTime) })
+    else {
       const detail = obs.error.issues[0]?.message ?? 'unreadable'
       bad.push({
         feedId: rawId(raw, i),
@@ -40,38 +58,26 @@ export function validatePage(
         reason: 'malformed',
         detail,
       })
-      return
     }
-    parsed.push({ ...obs.data, at: new Date(obs.data.phenomenonTime) })
-  })
-  parsed.sort((a, b) => a.at.getTime() - b.at.getTime())
+  }
+  parsed.sort((a, b) => a.t - b.t)
 
   const good: GoodRow[] = []
   const seen = new Map<number, number>()
-  let latest: Date | undefined
-  for (const obs of parsed) {
-    const t = obs.at.getTime()
-    if (!latest || t > latest.getTime()) latest = obs.at
-    const quarantined = (reason: string, detail: string) =>
-      bad.push({ feedId: obs['@iot.id'], observedAt: obs.at, raw: obs, reason, detail })
-    if (seen.has(t)) {
-      if (seen.get(t) !== obs.result)
-        quarantined('conflicting_duplicate', `a second value for ${obs.phenomenonTime}`)
-      continue
-    }
-    seen.set(t, obs.result)
-    const si = toSi(parameter, obs.result, unit)
-    if (si === null) {
-      quarantined('unknown_unit', `no conversion from ${unit} for ${parameter}`)
-      continue
-    }
-    const rejection = plausibility(parameter, si, obs.at, previous)
-    if (rejection) {
-      quarantined(rejection.reason, rejection.detail)
-      continue
-    }
-    good.push({ observedAt: obs.at, value: si, originalValue: obs.result })
-    previous = { value: si, at: obs.at }
+  for (const { obs, t } of parsed) {
+    const at = new Date(t)
+    const earlier = seen.get(t)
+    if (earlier === obs.result) continue
+    if (earlier === undefined) seen.set(t, obs.result)
+    const verdict =
+      earlier !== undefined
+        ? { reason: 'conflicting_duplicate', detail: `a second value for ${obs.phenomenonTime}` }
+        : judge(parameter, unit, obs.result, at, previous)
+    if ('si' in verdict) {
+      good.push({ observedAt: at, value: verdict.si, originalValue: obs.result })
+      previous = { value: verdict.si, at }
+    } else bad.push({ feedId: obs['@iot.id'], observedAt: at, raw: obs, ...verdict })
   }
-  return { good, bad, latest, previous }
+  const last = parsed.at(-1)
+  return { good, bad, latest: last && new Date(last.t), previous }
 }
