@@ -11,6 +11,11 @@ import { authRepo } from './features/auth/auth.repo'
 import { authRoutes, sessionMiddleware } from './features/auth/auth.routes'
 import { authService } from './features/auth/auth.service'
 import { tokenKey } from './features/auth/auth.tokens'
+import { banksRepo } from './features/banks/banks.repo'
+import { banksRoutes } from './features/banks/banks.routes'
+import { banksService } from './features/banks/banks.service'
+import { conditionsRoutes } from './features/conditions/conditions.routes'
+import { conditionsFor } from './features/conditions/conditions.service'
 import { healthRoutes } from './features/health/health.routes'
 import { lakeReadRepo } from './features/lakes/lake-read.repo'
 import { lakeReadService } from './features/lakes/lake-read.service'
@@ -103,6 +108,8 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limiter }))
   api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
   api.use(lakesRoutes(lakesService(lakesRepo(deps.db)), lakeReadService(lakeReadRepo(deps.db))))
+  api.use(conditionsRoutes(conditionsFor(deps.db)))
+  api.use(banksRoutes(banksService(banksRepo(deps.db))))
   api.use(stationsRoutes(stationsService(stationsRepo(deps.db))))
   api.use(settingsRoutes(settingsService(settingsRepo(deps.db))))
   api.use(notFound)

@@ -36,7 +36,8 @@ export interface WindowConditions extends WindowWeather {
   thunderstormProbabilityPct: number
 }
 
-export interface WindowPlan {
+/** One window of a lake's day, before any angler's banks are ranked in it. */
+export interface WindowDay {
   id: WindowId
   label: string
   start: string
@@ -45,17 +46,25 @@ export interface WindowPlan {
   weather: WindowConditions | null
   /** Wave height where the wind has the longest run, for the open-water caution. */
   openWaterWaveM: number
-  banks: RankedBank[]
-  tackle: TackleCall[]
-  cautions: Caution[]
 }
 
-export interface DayPlan {
+/** A lake's day without banks: what the server computes once per lake and date and caches. */
+export interface LakeDay {
   date: string
   phase: SeasonalPhase
   clarity: ClarityClass
   waterC: number
   sky: SkyDay
+  windows: WindowDay[]
+}
+
+export interface WindowPlan extends WindowDay {
+  banks: RankedBank[]
+  tackle: TackleCall[]
+  cautions: Caution[]
+}
+
+export interface DayPlan extends Omit<LakeDay, 'windows'> {
   windows: WindowPlan[]
 }
 
@@ -109,26 +118,20 @@ function summarise(hours: ForecastHour[], lowLight: boolean): WindowConditions |
   }
 }
 
-/**
- * The day's plan for one lake: three windows, each with its wind, the saved banks ranked, the
- * tackle calls for the best bank (or the lake's usual cover when none are saved), and cautions.
- */
-export function dayPlan(input: {
+interface LakeDayInput {
   lake: LakeGeometry
   date: string
   timeZone: string
-  banks: Bank[]
   hourly: ForecastHour[]
   waterC: number
   secchiM: number
   phase: SeasonalPhase
-  /** Cover to call tackle for when the angler has no banks saved. */
-  lakeCover?: Cover[]
-}): DayPlan {
+}
+
+/** A lake's day: sky, and each window's wind, light and open-water waves. All the geometry is here. */
+export function lakeDay(input: LakeDayInput): LakeDay {
   const [lon, lat] = lakeCenter(input.lake)
   const sky = skyDay(lat, lon, input.date, input.timeZone)
-  const clarity = clarityClass(input.secchiM)
-  const conditions = { clarity, waterC: input.waterC, phase: input.phase }
   const hours = input.hourly.map((h) => ({ ...h, t: toInstant(h.at).getTime() }))
   if (hours.some((h) => !Number.isFinite(h.windMs) || h.windMs < 0)) {
     throw new DomainError(
@@ -137,40 +140,79 @@ export function dayPlan(input: {
       'hourly',
     )
   }
-
   const windows = windowBounds(sky, input.date, input.timeZone).map(
-    ([id, start, end]): WindowPlan => {
+    ([id, start, end]): WindowDay => {
       const inside = hours.filter((h) => h.t >= start.getTime() && h.t < end.getTime())
       const weather = summarise(inside, id !== 'midday')
-      const base = {
+      return {
         id,
         label: WINDOW_LABELS[id],
         start: start.toISOString(),
         end: end.toISOString(),
+        weather,
+        openWaterWaveM: weather
+          ? openWaterWave(input.lake, weather.windFromDeg, weather.windMs)
+          : 0,
       }
-      if (!weather)
-        return { ...base, weather, openWaterWaveM: 0, banks: [], tackle: [], cautions: [] }
-      const openWaterWaveM = openWaterWave(input.lake, weather.windFromDeg, weather.windMs)
-      const banks = rankBanks({ lake: input.lake, banks: input.banks, window: weather, conditions })
-      const best = input.banks.find((b) => b.id === banks[0]?.id)
-      const tackle = tackleCalls({
-        ...conditions,
-        windMs: weather.windMs,
-        sky: weather.sky,
-        cover: best?.cover ?? input.lakeCover ?? ['open'],
-        depthM: best?.depthM,
-      })
-      const windowCautions = cautions({
-        windMs: weather.windMs,
-        gustMs: weather.gustMs,
-        waveHeightM: Math.max(openWaterWaveM, ...banks.map((b) => b.exposure.waveHeightM)),
-        thunderstormProbabilityPct: weather.thunderstormProbabilityPct,
-        waterC: input.waterC,
-        airC: weather.airC,
-        relativeHumidityPct: weather.relativeHumidityPct,
-      })
-      return { ...base, weather, openWaterWaveM, banks, tackle, cautions: windowCautions }
     },
   )
-  return { date: input.date, phase: input.phase, clarity, waterC: input.waterC, sky, windows }
+  return {
+    date: input.date,
+    phase: input.phase,
+    clarity: clarityClass(input.secchiM),
+    waterC: input.waterC,
+    sky,
+    windows,
+  }
+}
+
+/**
+ * An angler's plan from a lake's day: in each window the saved banks ranked, the tackle calls for
+ * the best bank (or the lake's usual cover when none are saved), and cautions. Banks carry their
+ * stored exposure tables, so this is arithmetic only; `lake` is needed only for banks without one.
+ */
+export function planForBanks(
+  day: LakeDay,
+  banks: Bank[],
+  opts: { lake?: LakeGeometry; lakeCover?: Cover[] } = {},
+): DayPlan {
+  const conditions = { clarity: day.clarity, waterC: day.waterC, phase: day.phase }
+  const windows = day.windows.map((w): WindowPlan => {
+    const { weather } = w
+    if (!weather) return { ...w, banks: [], tackle: [], cautions: [] }
+    const ranked = rankBanks({ lake: opts.lake, banks, window: weather, conditions })
+    const best = banks.find((b) => b.id === ranked[0]?.id)
+    const tackle = tackleCalls({
+      ...conditions,
+      windMs: weather.windMs,
+      sky: weather.sky,
+      cover: best?.cover ?? opts.lakeCover ?? ['open'],
+      depthM: best?.depthM,
+    })
+    const windowCautions = cautions({
+      windMs: weather.windMs,
+      gustMs: weather.gustMs,
+      waveHeightM: Math.max(w.openWaterWaveM, ...ranked.map((b) => b.exposure.waveHeightM)),
+      thunderstormProbabilityPct: weather.thunderstormProbabilityPct,
+      waterC: day.waterC,
+      airC: weather.airC,
+      relativeHumidityPct: weather.relativeHumidityPct,
+    })
+    return { ...w, banks: ranked, tackle, cautions: windowCautions }
+  })
+  return { ...day, windows }
+}
+
+/** The day's plan for one lake and a set of banks, in one call. */
+export function dayPlan(
+  input: LakeDayInput & {
+    banks: Bank[]
+    /** Cover to call tackle for when the angler has no banks saved. */
+    lakeCover?: Cover[]
+  },
+): DayPlan {
+  return planForBanks(lakeDay(input), input.banks, {
+    lake: input.lake,
+    lakeCover: input.lakeCover,
+  })
 }

@@ -1,3 +1,4 @@
+import { DomainError } from '../errors'
 import type { LakeGeometry, Position } from '../geo/types'
 import type { ClarityClass } from './clarity'
 import { bankExposure, exposureTable, type BankExposure, type ExposureTable } from './exposure'
@@ -175,16 +176,27 @@ function safetyPoints(x: BankExposure, w: WindowWeather): ScoreComponent {
   return { key: 'safety', points: 0, reason: 'No safety concern from wind or waves here.' }
 }
 
+function requireLake(lake: LakeGeometry | undefined): LakeGeometry {
+  if (!lake)
+    throw new DomainError(
+      'invalid_geometry',
+      'A bank without an exposure table needs the lake.',
+      'lake',
+    )
+  return lake
+}
+
 /** Saved banks ranked for one window of wind and light; each score is the sum of named components. */
 export function rankBanks(input: {
-  lake: LakeGeometry
+  /** Needed only for banks without a stored exposure table. */
+  lake?: LakeGeometry
   banks: Bank[]
   window: WindowWeather
   conditions: RankConditions
 }): RankedBank[] {
   const { lake, banks, window: w, conditions: c } = input
   const ranked = banks.map((bank) => {
-    const table = bank.exposure ?? exposureTable(lake, bank.points)
+    const table = bank.exposure ?? exposureTable(requireLake(lake), bank.points)
     const x = bankExposure(table, w.windFromDeg, w.windMs)
     const components = [
       windPoints(x, w, c),

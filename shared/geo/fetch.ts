@@ -20,6 +20,8 @@ export class ShoreIndex {
   readonly rings: Xy[][]
   /** x1, y1, x2, y2 per edge. */
   readonly edges: Float64Array
+  /** lon1, lat1, lon2, lat2 per edge, in the same order: to turn a point on an edge back into WGS84. */
+  readonly edgesLonLat: Float64Array
   readonly tree: Flatbush
   /** Diagonal of the lake's bounding box: no fetch is longer. */
   readonly spanM: number
@@ -38,20 +40,25 @@ export class ShoreIndex {
     this.projection = lakeProjection(lake)
     const { project } = this.projection
     // Shorelines counter-clockwise and islands clockwise, so water is always left of an edge.
-    this.rings = polygonsOf(lake).flatMap((polygon) =>
+    const oriented = polygonsOf(lake).flatMap((polygon) =>
       polygon.map((ring, i) => {
         const xy = ring.map(project)
-        return ringAreaXy(xy) > 0 === (i === 0) ? xy : xy.reverse()
+        return ringAreaXy(xy) > 0 === (i === 0)
+          ? { xy, lonLat: ring }
+          : { xy: xy.reverse(), lonLat: [...ring].reverse() }
       }),
     )
+    this.rings = oriented.map((r) => r.xy)
     const count = this.rings.reduce((n, r) => n + r.length - 1, 0)
     this.edges = new Float64Array(count * 4)
+    this.edgesLonLat = new Float64Array(count * 4)
     this.tree = new Flatbush(count, NODE_SIZE)
     let k = 0
-    for (const ring of this.rings) {
-      for (let i = 0; i + 1 < ring.length; i++) {
-        const [x1, y1] = ring[i]!
-        const [x2, y2] = ring[i + 1]!
+    for (const { xy, lonLat } of oriented) {
+      for (let i = 0; i + 1 < xy.length; i++) {
+        const [x1, y1] = xy[i]!
+        const [x2, y2] = xy[i + 1]!
+        this.edgesLonLat.set([...lonLat[i]!, ...lonLat[i + 1]!], k * 4)
         this.edges.set([x1, y1, x2, y2], k++ * 4)
         this.tree.add(Math.min(x1, x2), Math.min(y1, y2), Math.max(x1, x2), Math.max(y1, y2))
       }
@@ -195,6 +202,33 @@ export class ShoreIndex {
     let best = Infinity
     for (let e = 0; e < this.edges.length / 4; e++) best = Math.min(best, this.hit(e))
     return best
+  }
+
+  /**
+   * The nearest point on any shore (islands included) within `maxM` metres of `point`, with its
+   * distance; null when no shore is that close. Edges are short, so the point found on the plane
+   * maps back to WGS84 by its fraction along the edge.
+   */
+  nearestShorePoint(point: Position, maxM: number): { point: Position; distanceM: number } | null {
+    const [ox, oy] = this.projection.project(point)
+    let best: { distanceM: number; edge: number; f: number } | null = null
+    for (const e of this.tree.neighbors(ox, oy, Infinity, maxM)) {
+      const x1 = this.edges[e * 4]!
+      const y1 = this.edges[e * 4 + 1]!
+      const ex = this.edges[e * 4 + 2]! - x1
+      const ey = this.edges[e * 4 + 3]! - y1
+      const len2 = ex * ex + ey * ey
+      const f = len2 ? Math.max(0, Math.min(1, ((ox - x1) * ex + (oy - y1) * ey) / len2)) : 0
+      const distanceM = Math.hypot(x1 + f * ex - ox, y1 + f * ey - oy)
+      if (distanceM <= maxM && (!best || distanceM < best.distanceM))
+        best = { distanceM, edge: e, f }
+    }
+    if (!best) return null
+    const [lon1, lat1, lon2, lat2] = this.edgesLonLat.subarray(best.edge * 4, best.edge * 4 + 4)
+    return {
+      point: [lon1! + best.f * (lon2! - lon1!), lat1! + best.f * (lat2! - lat1!)],
+      distanceM: best.distanceM,
+    }
   }
 
   /**

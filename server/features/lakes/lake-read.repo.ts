@@ -72,3 +72,4 @@ export function lakeReadRepo(db: Db) {
   }
 }
 export type LakeReadRepo = ReturnType<typeof lakeReadRepo>
+export type LakeRow = typeof lakes.$inferSelect

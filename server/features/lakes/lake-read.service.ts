@@ -11,12 +11,12 @@ import { skyDay } from '../../../shared/conditions/sky'
 import { median, theilSen } from '../../../shared/conditions/trend'
 import { pressureTendency } from '../../../shared/conditions/weather'
 import { DomainError } from '../../../shared/errors'
-import { isStale } from '../../../shared/readings'
+import { isStale, type Parameter } from '../../../shared/readings'
 import type { LakeRead, WindHour } from '../../../shared/schemas/lake-read'
 import type { LakeSeries } from '../../../shared/schemas/lake-series'
 import { addDays, localDate } from '../../../shared/time'
 import { HttpError } from '../../http/errors'
-import type { LakeReadRepo } from './lake-read.repo'
+import type { LakeReadRepo, LakeRow } from './lake-read.repo'
 
 const DAY = 86_400_000
 type Point = { at: Date; value: number }
@@ -60,6 +60,21 @@ function trendPerDay(points: Point[], now: Date): number | null {
   return recent.length >= 3 && line ? line.slope : null
 }
 
+/** Marks each gauge value stale or not by its age at `now`; a cached read is re-judged this way. */
+export function withStaleFlags(read: LakeRead, now: Date): LakeRead {
+  const stale = (parameter: Parameter, at: string) => isStale(parameter, new Date(at), now)
+  const { waterTemp, clarity, level } = read
+  return {
+    ...read,
+    waterTemp: waterTemp && { ...waterTemp, stale: stale('water_temp', waterTemp.at) },
+    clarity: clarity && {
+      ...clarity,
+      stale: stale(clarity.source === 'secchi' ? 'secchi' : 'turbidity', clarity.at),
+    },
+    level: level && { ...level, stale: stale('gauge_height', level.at) },
+  }
+}
+
 export function lakeReadService(repo: LakeReadRepo) {
   return {
     /** Hourly series for the charts: gauge means per hour (Secchi estimated from turbidity) and observed weather. */
@@ -101,9 +116,7 @@ export function lakeReadService(repo: LakeReadRepo) {
     },
 
     /** The Lake read at `now`, from stored readings and weather; nothing here calls the feed. */
-    async read(slug: string, now = new Date()): Promise<LakeRead> {
-      const lake = await repo.lakeBySlug(slug)
-      if (!lake) throw new HttpError(404, 'not_found', 'No such lake.')
+    async compute(lake: LakeRow, now = new Date()): Promise<LakeRead> {
       const gauge = await repo.gauge(lake.id)
       const rows = gauge
         ? await repo.series(
@@ -125,7 +138,7 @@ export function lakeReadService(repo: LakeReadRepo) {
       const waterTemp = lastTemp
         ? {
             at: iso(lastTemp.at),
-            stale: isStale('water_temp', lastTemp.at, now),
+            stale: false,
             valueC: lastTemp.value,
             trendCPerDay: trendPerDay(temps, now),
           }
@@ -146,7 +159,7 @@ export function lakeReadService(repo: LakeReadRepo) {
       const clarity = clarityPoint
         ? {
             at: iso(clarityPoint.at),
-            stale: isStale(diskFresh ? 'secchi' : 'turbidity', clarityPoint.at, now),
+            stale: false,
             secchiM: clarityPoint.value,
             source: diskFresh ? ('secchi' as const) : ('turbidity' as const),
             class: clarityClass(clarityPoint.value),
@@ -159,7 +172,7 @@ export function lakeReadService(repo: LakeReadRepo) {
       const levelRead = lastLevel
         ? {
             at: iso(lastLevel.at),
-            stale: isStale('gauge_height', lastLevel.at, now),
+            stale: false,
             gaugeM: lastLevel.value,
             vsMedian30dM:
               level.length >= 96 ? lastLevel.value - median(level.map((p) => p.value)) : null,
@@ -217,34 +230,37 @@ export function lakeReadService(repo: LakeReadRepo) {
       })
       const times = [lastTemp?.at, lastTurb?.at, lastLevel?.at].filter((d): d is Date => !!d)
 
-      return {
-        lake: {
-          id: lake.id,
-          slug: lake.slug,
-          name: lake.name,
-          region: lake.region,
-          timeZone: lake.timeZone,
-          normalPoolM: lake.normalPoolM,
-          areaKm2: lake.areaKm2,
-          center: [lake.centerLon, lake.centerLat],
+      return withStaleFlags(
+        {
+          lake: {
+            id: lake.id,
+            slug: lake.slug,
+            name: lake.name,
+            region: lake.region,
+            timeZone: lake.timeZone,
+            normalPoolM: lake.normalPoolM,
+            areaKm2: lake.areaKm2,
+            center: [lake.centerLon, lake.centerLat],
+          },
+          shoreline: lake.shoreline,
+          asOf: iso(now),
+          lastReadingAt: times.length
+            ? iso(new Date(Math.max(...times.map((d) => d.getTime()))))
+            : null,
+          waterTemp,
+          clarity,
+          level: levelRead,
+          windNow: latest ? hour(latest) : null,
+          windNext12h: next12,
+          airC: latest?.airC ?? null,
+          pressure,
+          sky: skyDay(lake.centerLat, lake.centerLon, localDate(now, lake.timeZone), lake.timeZone),
+          phase,
+          openWaterWaveM: wave,
+          cautions: list,
         },
-        shoreline: lake.shoreline,
-        asOf: iso(now),
-        lastReadingAt: times.length
-          ? iso(new Date(Math.max(...times.map((d) => d.getTime()))))
-          : null,
-        waterTemp,
-        clarity,
-        level: levelRead,
-        windNow: latest ? hour(latest) : null,
-        windNext12h: next12,
-        airC: latest?.airC ?? null,
-        pressure,
-        sky: skyDay(lake.centerLat, lake.centerLon, localDate(now, lake.timeZone), lake.timeZone),
-        phase,
-        openWaterWaveM: wave,
-        cautions: list,
-      }
+        now,
+      )
     },
   }
 }

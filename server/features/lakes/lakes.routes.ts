@@ -13,14 +13,6 @@ export function lakesRoutes(lakes: LakesService, reads: LakeReadService): Router
     res.json(await lakes.list(input(LakeListQuery, req.query), currentUser(req).id))
   })
   router.get(
-    '/lakes/:slug/read',
-    requireSignIn,
-    validate({ params: LakeSlugParams }),
-    async (req, res) => {
-      res.json(await reads.read(input(LakeSlugParams, req.params).slug))
-    },
-  )
-  router.get(
     '/lakes/:slug/series',
     requireSignIn,
     validate({ params: LakeSlugParams, query: SeriesQuery }),

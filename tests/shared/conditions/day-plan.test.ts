@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest'
-import { dayPlan, type ForecastHour } from '../../../shared/conditions/day-plan'
+import {
+  dayPlan,
+  lakeDay,
+  planForBanks,
+  type ForecastHour,
+  type LakeDay,
+} from '../../../shared/conditions/day-plan'
+import { exposureTable } from '../../../shared/conditions/exposure'
+import { DomainError } from '../../../shared/errors'
 import { rankBanks, type Bank } from '../../../shared/conditions/ranking'
 import type { Polygon } from '../../../shared/geo/types'
 import { box, densified } from '../geo/fixtures'
@@ -146,5 +154,38 @@ describe('dayPlan', () => {
     })
     expect(partial.windows[2]!.weather).toBeNull()
     expect(partial.windows[2]!.banks).toEqual([])
+  })
+})
+
+describe('lakeDay + planForBanks', () => {
+  const hours: ForecastHour[] = Array.from({ length: 24 }, (_, h) => ({
+    at: new Date(Date.UTC(2026, 3, 10, 5 + h)).toISOString(),
+    windFromDeg: 90 + h * 5,
+    windMs: 6,
+    gustMs: 9,
+    airC: 16,
+    relativeHumidityPct: 55,
+    cloudCoverPct: 20,
+    thunderstormProbabilityPct: 0,
+  }))
+  const input = {
+    lake,
+    date: '2026-04-10',
+    timeZone: 'America/Chicago',
+    hourly: hours,
+    waterC: 13,
+    secchiM: 0.5,
+    phase: 'pre-spawn' as const,
+  }
+
+  it('gives the same plan from a cached day and stored exposure tables as computed in one go', () => {
+    // What the server does: the lake's day cached once, each bank's table stored when it was saved.
+    const stored = banks.map((b) => ({ ...b, exposure: exposureTable(lake, b.points) }))
+    const cachedDay = JSON.parse(JSON.stringify(lakeDay(input))) as LakeDay
+    expect(planForBanks(cachedDay, stored)).toEqual(dayPlan({ ...input, banks }))
+  })
+
+  it('refuses a bank with neither a stored table nor the lake to compute one', () => {
+    expect(() => planForBanks(lakeDay(input), banks)).toThrow(DomainError)
   })
 })

@@ -174,3 +174,29 @@ describe('bad input', () => {
     )
   })
 })
+
+describe('nearestShorePoint', () => {
+  const outer = densified(box(-90.1, 45, 0.1, 0.05))
+  const island = [...densified(box(-90.06, 45.02, 0.02, 0.01), 4)].reverse()
+  const lake: Polygon = { type: 'Polygon', coordinates: [outer, island] }
+  const index = shoreIndex(lake)
+
+  it('moves a point 25 m out in the water onto the west shore, 25 m away (GeographicLib)', () => {
+    const picked = destination([-90.1, 45.013], 90, 25)
+    const near = index.nearestShorePoint(picked, 40)!
+    within(near.distanceM, 25, 0.01)
+    expect(near.point[0]).toBeCloseTo(-90.1, 9)
+    within(distanceM(picked, near.point), 25, 0.01)
+  })
+
+  it('finds an island’s shore when it is the nearer one', () => {
+    const picked = destination([-90.06, 45.025], 270, 10)
+    const near = index.nearestShorePoint(picked, 40)!
+    expect(near.point[0]).toBeCloseTo(-90.06, 9)
+    within(near.distanceM, 10, 0.01)
+  })
+
+  it('gives null for a point farther than the limit from every shore', () => {
+    expect(index.nearestShorePoint([-90.08, 45.01], 40)).toBeNull()
+  })
+})

@@ -1,0 +1,65 @@
+import { and, asc, eq, ne } from 'drizzle-orm'
+import type { Db } from '../../db/index'
+import { banks, lakes } from '../../db/schema/index'
+
+export type BankRow = typeof banks.$inferSelect
+export type BankValues = Omit<typeof banks.$inferInsert, 'id' | 'userId' | 'lakeId'>
+
+export function banksRepo(db: Db) {
+  const owned = (userId: string, lakeId: string, id: string) =>
+    and(eq(banks.id, id), eq(banks.userId, userId), eq(banks.lakeId, lakeId))
+  return {
+    async lake(slug: string) {
+      const [row] = await db
+        .select({ id: lakes.id, name: lakes.name, shoreline: lakes.shoreline })
+        .from(lakes)
+        .where(eq(lakes.slug, slug))
+      return row
+    },
+    list: (userId: string, lakeId: string) =>
+      db
+        .select()
+        .from(banks)
+        .where(and(eq(banks.userId, userId), eq(banks.lakeId, lakeId)))
+        .orderBy(asc(banks.name)),
+    async nameTaken(userId: string, lakeId: string, name: string, exceptId?: string) {
+      const [row] = await db
+        .select({ id: banks.id })
+        .from(banks)
+        .where(
+          and(
+            eq(banks.userId, userId),
+            eq(banks.lakeId, lakeId),
+            eq(banks.name, name),
+            exceptId ? ne(banks.id, exceptId) : undefined,
+          ),
+        )
+      return !!row
+    },
+    /** Inserts unless the angler already has a bank of that name on the lake. */
+    async insert(userId: string, lakeId: string, values: BankValues) {
+      const [row] = await db
+        .insert(banks)
+        .values({ ...values, userId, lakeId })
+        .onConflictDoNothing()
+        .returning()
+      return row
+    },
+    async update(userId: string, lakeId: string, id: string, values: BankValues) {
+      const [row] = await db
+        .update(banks)
+        .set(values)
+        .where(owned(userId, lakeId, id))
+        .returning()
+      return row
+    },
+    async remove(userId: string, lakeId: string, id: string) {
+      const gone = await db
+        .delete(banks)
+        .where(owned(userId, lakeId, id))
+        .returning({ id: banks.id })
+      return gone.length > 0
+    },
+  }
+}
+export type BanksRepo = ReturnType<typeof banksRepo>

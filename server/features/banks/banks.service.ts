@@ -1,0 +1,89 @@
+import { exposureTable } from '../../../shared/conditions/exposure'
+import { DomainError } from '../../../shared/errors'
+import { shoreIndex } from '../../../shared/geo/fetch'
+import type { LakeGeometry } from '../../../shared/geo/types'
+import type { BankInput, BankView } from '../../../shared/schemas/banks'
+import { HttpError } from '../../http/errors'
+import type { BankRow, BankValues, BanksRepo } from './banks.repo'
+
+/** A picked point this close to the shore counts as on it, and is moved onto it. */
+export const SNAP_M = 40
+
+const invalid = (field: string, message: string) =>
+  new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
+
+export function toBankView(row: BankRow): BankView {
+  return {
+    id: row.id,
+    name: row.name,
+    points: row.points,
+    cover: row.cover,
+    depthM: row.depthM,
+    slope: row.slope,
+    notes: row.notes,
+    exposure: row.exposure,
+    updatedAt: row.updatedAt.toISOString(),
+  }
+}
+
+/** The stored form of a bank: points snapped onto the shore and the exposure table worked out. */
+function withExposure(shoreline: LakeGeometry, input: BankInput): BankValues {
+  const index = shoreIndex(shoreline)
+  const points = input.points.map((p, i) => {
+    const near = index.nearestShorePoint(p, SNAP_M)
+    if (!near)
+      throw invalid(
+        'points',
+        `Point ${i + 1} is not on the shore. Pick points along the shoreline.`,
+      )
+    return near.point
+  })
+  try {
+    return { ...input, points, exposure: exposureTable(shoreline, points) }
+  } catch (err) {
+    // Points that snap too close together make no bank to face the water from.
+    if (err instanceof DomainError) throw invalid('points', err.message)
+    throw err
+  }
+}
+
+export function banksService(repo: BanksRepo) {
+  async function lakeOf(slug: string) {
+    const lake = await repo.lake(slug)
+    if (!lake) throw new HttpError(404, 'not_found', 'No such lake.')
+    return lake
+  }
+  const nameTaken = () =>
+    new HttpError(409, 'name_taken', 'You already have a bank of that name on this lake.', {
+      name: 'You already have a bank of that name on this lake.',
+    })
+  const noBank = () => new HttpError(404, 'not_found', 'No such bank.')
+
+  return {
+    async list(userId: string, slug: string) {
+      const lake = await lakeOf(slug)
+      return { items: (await repo.list(userId, lake.id)).map(toBankView) }
+    },
+
+    async create(userId: string, slug: string, input: BankInput) {
+      const lake = await lakeOf(slug)
+      const row = await repo.insert(userId, lake.id, withExposure(lake.shoreline, input))
+      if (!row) throw nameTaken()
+      return toBankView(row)
+    },
+
+    async update(userId: string, slug: string, id: string, input: BankInput) {
+      const lake = await lakeOf(slug)
+      if (await repo.nameTaken(userId, lake.id, input.name, id)) throw nameTaken()
+      const row = await repo.update(userId, lake.id, id, withExposure(lake.shoreline, input))
+      if (!row) throw noBank()
+      return toBankView(row)
+    },
+
+    async remove(userId: string, slug: string, id: string) {
+      const lake = await lakeOf(slug)
+      if (!(await repo.remove(userId, lake.id, id))) throw noBank()
+    },
+  }
+}
+export type BanksService = ReturnType<typeof banksService>

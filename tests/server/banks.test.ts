@@ -1,0 +1,215 @@
+import { eq, sql } from 'drizzle-orm'
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { exposureTable } from '../../shared/conditions/exposure'
+import { shoreIndex } from '../../shared/geo/fetch'
+import type { Polygon, Position } from '../../shared/geo/types'
+import { BankList, BankView, type BankInput } from '../../shared/schemas/banks'
+import { DayPlanResponse } from '../../shared/schemas/day-plan'
+import { LakeRead } from '../../shared/schemas/lake-read'
+import { localDate, addDays } from '../../shared/time'
+import { lakeDays, lakes } from '../../server/db/schema/index'
+import { seedDemo } from '../../server/db/seed/index'
+import { conditionsFor } from '../../server/features/conditions/conditions.service'
+import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { ingestWeather } from '../../server/features/ingest/weather.ingest'
+import { signedInAgent, testApp } from '../helpers/app'
+import { createTestDb } from '../helpers/db'
+import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
+
+let ctx: Awaited<ReturnType<typeof createTestDb>>
+let feed: TestFeed
+let shore: Position[]
+let shoreline: Polygon
+
+async function lakeRow(slug: string) {
+  const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, slug))
+  return lake!
+}
+
+/** A point a few metres out from a shoreline vertex, toward the lake's centre: a fingertip's miss. */
+function nearShore(i: number): Position {
+  const [lon, lat] = shore[i]!
+  return [lon + (-88.214 - lon) * 0.002, lat + (34.872 - lat) * 0.002]
+}
+
+const bank = (over: Partial<BankInput> = {}) => ({
+  name: 'Rock point',
+  points: [nearShore(10), nearShore(13)],
+  cover: ['rock', 'sparse-grass'],
+  depthM: 3,
+  slope: 'steep',
+  notes: 'Flat behind it',
+  ...over,
+})
+
+beforeAll(async () => {
+  ctx = await createTestDb()
+  await seedDemo(ctx.db)
+  feed = await startTestFeed(new Date().toISOString())
+  await backfillReadings(ingestDeps(ctx.db, feed), (await lakeRow('quillmere')).id, 20)
+  await backfillReadings(ingestDeps(ctx.db, feed), (await lakeRow('vessandra')).id, 3)
+  await ingestWeather(ingestDeps(ctx.db, feed))
+  await conditionsFor(ctx.db).refreshAll(feed.now())
+  shoreline = (await lakeRow('quillmere')).shoreline as Polygon
+  shore = shoreline.coordinates[0]!
+})
+afterAll(async () => {
+  await feed.close()
+  await ctx.drop()
+})
+
+describe('banks', () => {
+  it('snaps the points onto the shore and stores the exposure table for 16 directions', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'banker@example.test')
+    const res = await angler.post('/api/lakes/quillmere/banks').send(bank()).expect(201)
+    const saved = BankView.parse(res.body)
+    const index = shoreIndex(shoreline)
+    for (const p of saved.points)
+      expect(index.nearestShorePoint(p, 1)!.distanceM).toBeLessThan(0.01)
+    expect(saved.exposure).toEqual(
+      JSON.parse(JSON.stringify(exposureTable(shoreline, saved.points))),
+    )
+    expect(saved.exposure.rows).toHaveLength(16)
+    const list = BankList.parse((await angler.get('/api/lakes/quillmere/banks').expect(200)).body)
+    expect(list.items.map((b) => b.name)).toEqual(['Rock point'])
+  })
+
+  it('keeps a bank to its angler: anyone else gets 404, and no session gets 401', async () => {
+    const app = testApp(ctx.db)
+    const owner = await signedInAgent(app, ctx.db, 'owner@example.test')
+    const other = await signedInAgent(app, ctx.db, 'nosy@example.test')
+    const { id } = BankView.parse(
+      (await owner.post('/api/lakes/quillmere/banks').send(bank()).expect(201)).body,
+    )
+    expect((await other.get('/api/lakes/quillmere/banks').expect(200)).body.items).toEqual([])
+    await other
+      .put(`/api/lakes/quillmere/banks/${id}`)
+      .send(bank({ name: 'Mine' }))
+      .expect(404)
+    await other.delete(`/api/lakes/quillmere/banks/${id}`).expect(404)
+    // The same id under another lake is not the bank either.
+    await owner.delete(`/api/lakes/vessandra/banks/${id}`).expect(404)
+    await request(app).get('/api/lakes/quillmere/banks').expect(401)
+    await request(app).post('/api/lakes/quillmere/banks').send(bank()).expect(401)
+    expect((await owner.get('/api/lakes/quillmere/banks').expect(200)).body.items).toHaveLength(1)
+  })
+
+  it('answers bad banks with 400 and a message per field, and a repeated name with 409', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'careless@example.test')
+    const offShore = await angler
+      .post('/api/lakes/quillmere/banks')
+      .send(bank({ points: [nearShore(10), [-88.214, 34.872]] }))
+      .expect(400)
+    expect(offShore.body.error.fields.points).toMatch(/Point 2 is not on the shore/)
+    const bad = await angler
+      .post('/api/lakes/quillmere/banks')
+      .send({ ...bank({ name: '  ', cover: [] }), depthM: -2, points: [nearShore(3)] })
+      .expect(400)
+    expect(Object.keys(bad.body.error.fields).sort()).toEqual(['cover', 'depthM', 'name', 'points'])
+    // Two picks on the same spot make no bank to face the water from.
+    const same = await angler
+      .post('/api/lakes/quillmere/banks')
+      .send(bank({ points: [nearShore(10), nearShore(10)] }))
+      .expect(400)
+    expect(same.body.error.fields.points).toMatch(/at least 1 m/)
+    await angler.post('/api/lakes/quillmere/banks').send(bank()).expect(201)
+    const twice = await angler.post('/api/lakes/quillmere/banks').send(bank()).expect(409)
+    expect(twice.body.error.fields.name).toBeTruthy()
+    expect((await angler.get('/api/lakes/quillmere/banks').expect(200)).body.items).toHaveLength(1)
+    await angler.post('/api/lakes/no-such-lake/banks').send(bank()).expect(404)
+  })
+
+  it('edits a bank (new points, new exposure) and deletes it', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'editor@example.test')
+    const first = BankView.parse(
+      (await angler.post('/api/lakes/quillmere/banks').send(bank()).expect(201)).body,
+    )
+    const moved = BankView.parse(
+      (
+        await angler
+          .put(`/api/lakes/quillmere/banks/${first.id}`)
+          .send(bank({ name: 'Far side', points: [nearShore(200), nearShore(204)] }))
+          .expect(200)
+      ).body,
+    )
+    expect(moved.name).toBe('Far side')
+    expect(moved.exposure.facingDeg).not.toBeCloseTo(first.exposure.facingDeg, 0)
+    await angler.delete(`/api/lakes/quillmere/banks/${first.id}`).expect(204)
+    await angler.delete(`/api/lakes/quillmere/banks/${first.id}`).expect(404)
+  })
+})
+
+describe('GET /api/lakes/:slug/plan/:date', () => {
+  it("ranks the angler's banks in each window with reasons, from the cached day", async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'planner@example.test')
+    await angler.post('/api/lakes/quillmere/banks').send(bank()).expect(201)
+    await angler
+      .post('/api/lakes/quillmere/banks')
+      .send(bank({ name: 'Dock row', points: [nearShore(150), nearShore(153)], cover: ['docks'] }))
+      .expect(201)
+    const today = localDate(feed.now(), 'America/Chicago')
+    const res = DayPlanResponse.parse(
+      (await angler.get(`/api/lakes/quillmere/plan/${today}`).expect(200)).body,
+    )
+    expect(res.banksSaved).toBe(2)
+    expect(res.dates[0]).toBe(today)
+    expect(res.dates.length).toBeGreaterThanOrEqual(6)
+    const windows = res.plan!.windows.filter((w) => w.weather)
+    expect(windows.length).toBeGreaterThan(0)
+    for (const w of windows) {
+      expect(w.banks.map((b) => b.rank)).toEqual([1, 2])
+      expect(w.banks[0]!.components.map((c) => c.key)).toContain('wind')
+      expect(w.tackle[0]!.why.length).toBeGreaterThan(0)
+      expect(w.cautions.at(-1)!.kind).toBe('authority')
+    }
+
+    // Another angler sees the same lake's day with none of these banks.
+    const other = await signedInAgent(app, ctx.db, 'bystander@example.test')
+    const theirs = DayPlanResponse.parse(
+      (await other.get(`/api/lakes/quillmere/plan/${today}`).expect(200)).body,
+    )
+    expect(theirs.banksSaved).toBe(0)
+    for (const w of theirs.plan!.windows) expect(w.banks).toEqual([])
+  })
+
+  it('reads the cache: with readings and weather gone, plan and read are unchanged until the next refresh', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'cached@example.test')
+    const today = localDate(feed.now(), 'America/Chicago')
+    const before = (await angler.get(`/api/lakes/quillmere/plan/${today}`).expect(200)).body
+    const readBefore = LakeRead.parse(
+      (await angler.get('/api/lakes/quillmere/read').expect(200)).body,
+    )
+    const [cached] = await ctx.db.select().from(lakeDays).where(eq(lakeDays.date, today))
+    expect(cached).toBeTruthy()
+    await ctx.db.execute(sql`delete from weather_hours`)
+    await ctx.db.execute(sql`delete from readings`)
+    const after = (await angler.get(`/api/lakes/quillmere/plan/${today}`).expect(200)).body
+    expect(after.plan).toEqual(before.plan)
+    const readAfter = LakeRead.parse(
+      (await angler.get('/api/lakes/quillmere/read').expect(200)).body,
+    )
+    expect(readAfter.waterTemp).toEqual(readBefore.waterTemp)
+  })
+
+  it('says why there is no plan, refuses dates outside the forecast and bad dates', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'early@example.test')
+    const today = localDate(feed.now(), 'America/Chicago')
+    // Three days of history are too few for a seasonal phase.
+    const res = DayPlanResponse.parse(
+      (await angler.get(`/api/lakes/vessandra/plan/${today}`).expect(200)).body,
+    )
+    expect(res.plan).toBeNull()
+    expect(res.unavailable).toMatch(/two weeks of water temperatures/)
+    await angler.get(`/api/lakes/quillmere/plan/${addDays(today, 9)}`).expect(404)
+    const bad = await angler.get('/api/lakes/quillmere/plan/2026-13-40').expect(400)
+    expect(bad.body.error.fields.date).toBeTruthy()
+    await request(app).get(`/api/lakes/quillmere/plan/${today}`).expect(401)
+  })
+})
