@@ -30,6 +30,9 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     length: (m: number) => `${lengthOf(m).toFixed(1)} ${s.length}`,
     signedLength: (m: number) =>
       `${m >= 0 ? '+' : '−'}${Math.abs(lengthOf(m)).toFixed(1)} ${s.length}`,
+    /** Longer distances (fetch): miles with feet, kilometres with metres. */
+    distance: (m: number) =>
+      s.length === 'ft' ? `${(m / 1609.344).toFixed(1)} mi` : `${(m / 1000).toFixed(1)} km`,
     speed: (ms: number) => `${Math.round(toSpeed(ms))} ${speedUnit}`,
     from: (deg: number) => `from ${compassName(deg)}`,
     time: (iso: string | null, timeZone: string) =>

@@ -1,4 +1,5 @@
 import type { ClarityClass } from '@shared/conditions/clarity'
+import type { ExposureClass } from '@shared/conditions/exposure'
 import type { GlobalThemeOverrides } from 'naive-ui'
 
 const font = "'Barlow', system-ui, -apple-system, 'Segoe UI', sans-serif"
@@ -24,6 +25,14 @@ export const clarityColors: Record<ClarityClass, string> = {
   'very-clear': palette.glacier,
 }
 
+/** Exposure classes: still water, moving air, a worked bank, a bank too rough to fish. */
+export const exposureColors: Record<ExposureClass, string> = {
+  lee: '#5b8a8c',
+  'side wind': '#c9a227',
+  windward: '#d9731a',
+  rough: '#a3271f',
+}
+
 export const themeOverrides: GlobalThemeOverrides = {
   common: {
     fontFamily: font,
@@ -35,6 +44,8 @@ export const themeOverrides: GlobalThemeOverrides = {
     primaryColorSuppl: palette.lakeHover,
     borderRadius: '6px',
   },
+  // The default rail is too pale behind the switch's white "Follow" text (WCAG AA contrast).
+  Switch: { railColor: '#5f6b73' },
 }
 
 export const darkThemeOverrides: GlobalThemeOverrides = {

@@ -1,3 +1,4 @@
+import { DayPlanResponse } from '@shared/schemas/day-plan'
 import { LakeRead } from '@shared/schemas/lake-read'
 import { LakeSeries } from '@shared/schemas/lake-series'
 import { LakePage, type LakeListQuery } from '@shared/schemas/lakes'
@@ -12,4 +13,6 @@ export const lakesApi = {
   series: (slug: string, days: 7 | 30) =>
     apiRequest(LakeSeries, `/lakes/${encodeURIComponent(slug)}/series`, { query: { days } }),
   read: (slug: string) => apiRequest(LakeRead, `/lakes/${encodeURIComponent(slug)}/read`),
+  plan: (slug: string, date: string) =>
+    apiRequest(DayPlanResponse, `/lakes/${encodeURIComponent(slug)}/plan/${date}`),
 }

@@ -42,6 +42,12 @@ const router = createRouter({
       meta: { role: 'angler', title: 'Lake read' },
     },
     {
+      path: '/lakes/:slug/plan/:date',
+      name: 'day-plan',
+      component: () => import('@/views/DayPlanView.vue'),
+      meta: { role: 'angler', title: 'Day plan' },
+    },
+    {
       path: '/settings',
       name: 'settings',
       component: () => import('@/views/SettingsView.vue'),

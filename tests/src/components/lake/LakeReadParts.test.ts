@@ -153,4 +153,60 @@ describe('LakeOutline', () => {
     expect(wrapper.get('svg').attributes('aria-label')).toMatch(/1 island\. Wind 11 mph from NW\./)
     expect(wrapper.text()).toContain('km² of water')
   })
+
+  it('draws saved banks in their exposure class, named for screen readers', () => {
+    const wrapper = mount(LakeOutline, {
+      props: {
+        read: read(),
+        banks: [
+          {
+            id: 'a',
+            name: 'West rocks',
+            points: [
+              [-88, 35.02],
+              [-88, 35.03],
+            ],
+            exposure: 'rough',
+          },
+          {
+            id: 'b',
+            name: 'East docks',
+            points: [
+              [-87.9, 35.02],
+              [-87.9, 35.03],
+            ],
+            exposure: 'lee',
+          },
+        ],
+      },
+    })
+    const titles = wrapper.findAll('g.bank title').map((t) => t.text())
+    expect(titles).toEqual(['West rocks: rough', 'East docks: lee'])
+    // Lee banks are dashed as well as coloured, so the class does not rest on colour alone.
+    const lines = wrapper.findAll('g.bank path.line')
+    expect(lines[0]!.attributes('stroke-dasharray')).toBeUndefined()
+    expect(lines[1]!.attributes('stroke-dasharray')).toBe('2 3')
+    expect(lines[0]!.attributes('d')).toMatch(/^M[\d.]+,[\d.]+ L[\d.]+,[\d.]+$/)
+  })
+
+  it('walks the shore with the arrow keys and picks the point under the cursor with Enter', async () => {
+    const wrapper = mount(LakeOutline, { props: { read: read(), picked: [] } })
+    const svg = wrapper.get('svg')
+    expect(svg.attributes('tabindex')).toBe('0')
+    expect(svg.attributes('aria-label')).toMatch(/arrow keys move along the shore/)
+    await svg.trigger('keydown', { key: 'ArrowRight' })
+    await svg.trigger('keydown', { key: 'Enter' })
+    await svg.trigger('keydown', { key: 'ArrowLeft' })
+    await svg.trigger('keydown', { key: 'ArrowLeft' })
+    await svg.trigger('keydown', { key: 'Enter' })
+    // The cursor starts on the shoreline's first distinct vertex; one step on is the next corner,
+    // and two steps back wrap round to the island's last vertex.
+    expect(wrapper.emitted('pick')).toEqual([[[-87.9, 35.1]], [[-87.96, 35.04]]])
+  })
+
+  it('is not a picking surface when no bank is being added', () => {
+    const wrapper = mount(LakeOutline, { props: { read: read() } })
+    expect(wrapper.get('svg').attributes('tabindex')).toBeUndefined()
+    expect(wrapper.find('circle').exists()).toBe(false)
+  })
 })

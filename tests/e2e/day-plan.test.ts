@@ -1,0 +1,138 @@
+import type { Server } from 'node:http'
+import type { AddressInfo } from 'node:net'
+import { join } from 'node:path'
+import { eq } from 'drizzle-orm'
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { lakes } from '../../server/db/schema/index'
+import { seedDemo } from '../../server/db/seed/index'
+import { clientDir } from '../../server/index'
+import { conditionsFor } from '../../server/features/conditions/conditions.service'
+import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { ingestWeather } from '../../server/features/ingest/weather.ingest'
+import { testApp } from '../helpers/app'
+import { seriousViolations } from '../helpers/axe'
+import { artifactsDir, launchBrowser } from '../helpers/browser'
+import { createTestDb } from '../helpers/db'
+import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
+import { signInAs } from '../helpers/signin'
+
+let ctx: Awaited<ReturnType<typeof createTestDb>>
+let server: Server
+let browser: Awaited<ReturnType<typeof launchBrowser>>
+let base: string
+let feed: TestFeed
+
+beforeAll(async () => {
+  ctx = await createTestDb()
+  await seedDemo(ctx.db)
+  feed = await startTestFeed(new Date().toISOString())
+  const [quillmere] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+  await backfillReadings(ingestDeps(ctx.db, feed), quillmere!.id, 16)
+  await ingestWeather(ingestDeps(ctx.db, feed))
+  await conditionsFor(ctx.db).refreshAll()
+  server = testApp(ctx.db, { staticDir: clientDir }).listen(0, '127.0.0.1')
+  await new Promise((resolve) => server.once('listening', resolve))
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
+  browser = await launchBrowser()
+})
+
+afterAll(async () => {
+  await feed?.close()
+  await browser?.close()
+  server?.close()
+  await ctx?.drop()
+})
+
+/** Taps the outline at a share of the way along its shoreline path, a few pixels out in the water. */
+async function tapShore(page: Page, share: number) {
+  // A string, because this file is type-checked without the DOM library.
+  const { x, y } = await page.evaluate<{ x: number; y: number }>(`(() => {
+    const path = document.querySelector('path.water')
+    const p = path.getPointAtLength(path.getTotalLength() * ${share})
+    const m = path.getScreenCTM()
+    return { x: p.x * m.a + m.e + 3, y: p.y * m.d + m.f + 3 }
+  })()`)
+  await page.mouse.click(x, y)
+}
+
+async function expectAccessible(page: Page, name: string) {
+  // A toast mid-fade has no settled colours to judge.
+  await page.locator('.n-message').waitFor({ state: 'detached' })
+  expect(await seriousViolations(page), name).toEqual([])
+}
+
+describe("the angler's day in Chromium", () => {
+  it('adds a bank on the map, sees it ranked in the day plan, at phone and desktop sizes', async () => {
+    const page = await browser.context.newPage()
+    await signInAs(page, base, 'angler@chopline.test')
+    await expectAccessible(page, 'Lakes')
+    await page.getByRole('link', { name: 'Quillmere Reservoir' }).click()
+    await page.getByRole('region', { name: 'Banks' }).getByText('No banks saved').waitFor()
+
+    await page.getByRole('button', { name: 'Add a bank' }).click()
+    await tapShore(page, 0.1)
+    await tapShore(page, 0.12)
+    await page.getByText('2 points picked.').waitFor()
+    await page.getByLabel('Name').fill('Windy rocks')
+    await page.getByRole('checkbox', { name: 'Rock' }).check({ force: true })
+    await page.getByLabel(/Depth a cast off the bank/).fill('10')
+    await page.getByRole('button', { name: 'Save bank' }).click()
+    await page.getByText('Saved Windy rocks.').waitFor()
+    const list = page.getByRole('list', { name: 'Your banks on this lake' })
+    await expect.poll(() => list.innerText()).toMatch(/Windy rocks[\s\S]*10\.0 ft a cast out/)
+    // The bank is drawn on the outline in its exposure colour, titled for screen readers.
+    await expect.poll(() => page.locator('g.bank title').textContent()).toMatch(/^Windy rocks: /)
+    await expectAccessible(page, 'Lake read')
+    await page.screenshot({ path: join(artifactsDir, 'banks-phone.png'), fullPage: true })
+
+    await page.getByRole('link', { name: "Today's day plan →" }).click()
+    await page.getByRole('heading', { name: /Day plan · Quillmere Reservoir/ }).waitFor()
+    const firstWindow = page.locator('section.plan-window').filter({ hasText: 'Windy rocks' })
+    await expect.poll(() => firstWindow.count()).toBeGreaterThan(0)
+    await expect.poll(() => page.locator('.tackle-call').count()).toBeGreaterThan(0)
+    await expect
+      .poll(() => page.getByRole('region', { name: 'Safety cautions' }).first().innerText())
+      .toMatch(/boating law/)
+    await expectAccessible(page, 'Day plan')
+    await page.screenshot({ path: join(artifactsDir, 'day-plan-phone.png'), fullPage: true })
+
+    await page.setViewportSize({ width: 1366, height: 900 })
+    await page.reload()
+    await page.getByRole('heading', { name: /Day plan · Quillmere Reservoir/ }).waitFor()
+    await page.screenshot({ path: join(artifactsDir, 'day-plan-desktop.png'), fullPage: true })
+    await page.goBack()
+    await page.getByRole('heading', { name: 'Quillmere Reservoir' }).waitFor()
+    await page.screenshot({ path: join(artifactsDir, 'banks-desktop.png'), fullPage: true })
+
+    // Metric units apply to the plan as well.
+    await page.getByRole('link', { name: 'Settings' }).click()
+    await expectAccessible(page, 'Settings')
+    await page.getByRole('radio', { name: 'metres' }).check({ force: true })
+    await page.getByRole('button', { name: 'Save' }).click()
+    await page.getByText('Settings saved.').waitFor()
+    await page.goto(`${base}/lakes/quillmere`)
+    await expect.poll(() => list.innerText()).toMatch(/3\.0 m a cast out/)
+    await page.close()
+  })
+
+  it('picks a bank with the keyboard alone', async () => {
+    await browser.context.clearCookies()
+    const page = await browser.context.newPage()
+    await page.setViewportSize({ width: 390, height: 844 })
+    await signInAs(page, base, 'guide@chopline.test')
+    await page.goto(`${base}/lakes/quillmere`)
+    await page.getByRole('button', { name: 'Add a bank' }).click()
+    const map = page.getByRole('img', { name: /Adding a bank: arrow keys/ })
+    await map.focus()
+    await page.keyboard.press('Enter')
+    for (let i = 0; i < 3; i++) await page.keyboard.press('Shift+ArrowRight')
+    await page.keyboard.press('Enter')
+    await page.getByText('2 points picked.').waitFor()
+    await page.getByLabel('Name').fill('North cove')
+    await page.getByRole('checkbox', { name: 'Wood / laydowns' }).check({ force: true })
+    await page.getByRole('button', { name: 'Save bank' }).click()
+    await page.getByText('Saved North cove.').waitFor()
+    await page.close()
+  })
+})

@@ -1,0 +1,12 @@
+import AxeBuilder from '@axe-core/playwright'
+import type { Page } from 'playwright-core'
+
+/** axe-core's WCAG 2.1 A/AA checks on the page as it stands; the serious and critical findings. */
+export async function seriousViolations(page: Page) {
+  const { violations } = await new AxeBuilder({ page })
+    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'])
+    .analyze()
+  return violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join('; ')})`)
+}
