@@ -25,7 +25,8 @@ CREATE TABLE "lake_days" (
 CREATE TABLE "lake_reads" (
 	"lake_id" uuid PRIMARY KEY NOT NULL,
 	"read" jsonb NOT NULL,
-	"computed_at" timestamp with time zone NOT NULL
+	"computed_at" timestamp with time zone NOT NULL,
+	"flags_hold_until" timestamp with time zone
 );
 --> statement-breakpoint
 ALTER TABLE "banks" ADD CONSTRAINT "banks_user_id_users_id_fk" FOREIGN KEY ("user_id") REFERENCES "public"."users"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import { existsSync } from 'node:fs'
 import { join } from 'node:path'
+import compression from 'compression'
 import cookieParser from 'cookie-parser'
 import express, { type RequestHandler } from 'express'
 import { rateLimit } from 'express-rate-limit'
@@ -98,6 +99,9 @@ export function createApp(deps: AppDeps): express.Express {
       strictTransportSecurity: deps.secureCookies,
     }),
   )
+
+  // Anglers read this on a phone at the ramp: gzip the bundle and the JSON (clients that ask for it).
+  app.use(compression())
 
   const api = express.Router()
   api.use(express.json({ limit: '100kb' }))

@@ -46,10 +46,13 @@ export const PLAUSIBLE: Record<Parameter, { min: number; max: number; maxChangeP
 /** A gauge with no good reading for this long is stale: its numbers are shown as old, not as now. */
 export const STALE_AFTER_MS = 2 * 3_600_000
 
-/** Stale for one parameter: two hours, or one and a half of its reading intervals if longer. */
+/** How long a reading of one parameter stays fresh: two hours, or one and a half of its intervals if longer. */
+export function staleAfterMs(parameter: Parameter): number {
+  return Math.max(STALE_AFTER_MS, 1.5 * PARAMETERS[parameter].cadenceMin * 60_000)
+}
+
 export function isStale(parameter: Parameter, at: Date, now: Date): boolean {
-  const limit = Math.max(STALE_AFTER_MS, 1.5 * PARAMETERS[parameter].cadenceMin * 60_000)
-  return now.getTime() - at.getTime() > limit
+  return now.getTime() - at.getTime() > staleAfterMs(parameter)
 }
 
 /** Changes over very short spans are judged as if a quarter hour had passed. */

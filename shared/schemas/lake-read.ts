@@ -31,10 +31,13 @@ export const LakeShoreline = z.union([
   z.object({ type: z.literal('MultiPolygon'), coordinates: z.array(z.array(Ring)) }),
 ])
 
+/** A lake's outline, served apart from the read: it rarely changes, so browsers revalidate it by ETag. */
+export const LakeShape = z.object({ shoreline: LakeShoreline })
+export type LakeShape = z.infer<typeof LakeShape>
+
 /** The Lake read: everything the water strip, wind, sky and caution band show. SI units throughout. */
 export const LakeRead = z.object({
   lake: LakeSummary,
-  shoreline: LakeShoreline,
   asOf: Instant,
   lastReadingAt: Instant.nullable(),
   waterTemp: Reading.extend({ valueC: z.number(), trendCPerDay: z.number().nullable() }).nullable(),

@@ -1,5 +1,5 @@
 import { DayPlanResponse } from '@shared/schemas/day-plan'
-import { LakeRead } from '@shared/schemas/lake-read'
+import { LakeRead, LakeShape } from '@shared/schemas/lake-read'
 import { LakeSeries } from '@shared/schemas/lake-series'
 import { LakePage, type LakeListQuery } from '@shared/schemas/lakes'
 import { apiCommand, apiRequest } from './http'
@@ -13,6 +13,7 @@ export const lakesApi = {
   series: (slug: string, days: 7 | 30) =>
     apiRequest(LakeSeries, `/lakes/${encodeURIComponent(slug)}/series`, { query: { days } }),
   read: (slug: string) => apiRequest(LakeRead, `/lakes/${encodeURIComponent(slug)}/read`),
+  shape: (slug: string) => apiRequest(LakeShape, `/lakes/${encodeURIComponent(slug)}/shoreline`),
   plan: (slug: string, date: string) =>
     apiRequest(DayPlanResponse, `/lakes/${encodeURIComponent(slug)}/plan/${date}`),
 }

@@ -68,6 +68,8 @@ describe("the angler's day in Chromium", () => {
     await signInAs(page, base, 'angler@chopline.test')
     await expectAccessible(page, 'Lakes')
     await page.getByRole('link', { name: 'Quillmere Reservoir' }).click()
+    // The map loads when it scrolls into view.
+    await page.locator('.banks-slot').scrollIntoViewIfNeeded()
     await page.getByRole('region', { name: 'Banks' }).getByText('No banks saved').waitFor()
 
     await page.getByRole('button', { name: 'Add a bank' }).click()
@@ -103,6 +105,11 @@ describe("the angler's day in Chromium", () => {
     await page.screenshot({ path: join(artifactsDir, 'day-plan-desktop.png'), fullPage: true })
     await page.goBack()
     await page.getByRole('heading', { name: 'Quillmere Reservoir' }).waitFor()
+    await page.locator('.banks-slot').scrollIntoViewIfNeeded()
+    await page
+      .getByRole('list', { name: 'Your banks on this lake' })
+      .getByText('Windy rocks')
+      .waitFor()
     await page.screenshot({ path: join(artifactsDir, 'banks-desktop.png'), fullPage: true })
 
     // Metric units apply to the plan as well.
@@ -112,6 +119,7 @@ describe("the angler's day in Chromium", () => {
     await page.getByRole('button', { name: 'Save' }).click()
     await page.getByText('Settings saved.').waitFor()
     await page.goto(`${base}/lakes/quillmere`)
+    await page.locator('.banks-slot').scrollIntoViewIfNeeded()
     await expect.poll(() => list.innerText()).toMatch(/3\.0 m a cast out/)
     await page.close()
   })
@@ -122,6 +130,7 @@ describe("the angler's day in Chromium", () => {
     await page.setViewportSize({ width: 390, height: 844 })
     await signInAs(page, base, 'guide@chopline.test')
     await page.goto(`${base}/lakes/quillmere`)
+    await page.locator('.banks-slot').scrollIntoViewIfNeeded()
     await page.getByRole('button', { name: 'Add a bank' }).click()
     const map = page.getByRole('img', { name: /Adding a bank: arrow keys/ })
     await map.focus()

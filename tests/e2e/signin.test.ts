@@ -96,10 +96,12 @@ describe('sign-in in Chromium', () => {
     await expect
       .poll(() => page.getByRole('region', { name: 'Sky and season' }).innerText())
       .toMatch(/5-day mean/)
+    // The map and the charts load as they scroll into view, the charts each a labelled canvas.
+    await page.locator('.banks-slot').scrollIntoViewIfNeeded()
     await page
       .getByRole('img', { name: /Outline of Quillmere Reservoir, .* with 2 islands/ })
       .waitFor()
-    // The charts load after the numbers, each a labelled canvas.
+    await page.locator('.charts-slot').scrollIntoViewIfNeeded()
     await page.getByRole('img', { name: 'Water temperature chart' }).waitFor()
     await page.getByRole('radio', { name: '30 days' }).check({ force: true })
     await page.getByRole('heading', { name: 'Last 30 days' }).waitFor()

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { LakeRead } from '../../shared/schemas/lake-read'
+import { LakeRead, LakeShape } from '../../shared/schemas/lake-read'
 import { LakeSeries } from '../../shared/schemas/lake-series'
 import { LakePage } from '../../shared/schemas/lakes'
 import { lakes } from '../../server/db/schema/index'
@@ -71,6 +71,22 @@ describe('GET /api/lakes/:slug/read', () => {
     const bad = await angler.get('/api/lakes/Bad%20Slug!/read').expect(400)
     expect(bad.body.error.fields.slug).toBeTruthy()
     await request(app).get('/api/lakes/quillmere/read').expect(401)
+  })
+})
+
+describe('GET /api/lakes/:slug/shoreline', () => {
+  it('serves the outline apart from the read, revalidated by ETag', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'outline@example.test')
+    const res = await angler.get('/api/lakes/quillmere/shoreline').expect(200)
+    expect(LakeShape.parse(res.body).shoreline.type).toBe('Polygon')
+    expect(res.headers['cache-control']).toBe('private, no-cache')
+    await angler
+      .get('/api/lakes/quillmere/shoreline')
+      .set('if-none-match', res.headers.etag!)
+      .expect(304)
+    await angler.get('/api/lakes/nowhere/shoreline').expect(404)
+    await request(app).get('/api/lakes/quillmere/shoreline').expect(401)
   })
 })
 

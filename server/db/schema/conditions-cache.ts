@@ -13,6 +13,8 @@ export const lakeReads = pgTable('lake_reads', {
     .references(() => lakes.id, { onDelete: 'cascade' }),
   read: jsonb().$type<LakeRead>().notNull(),
   computedAt: timestamp({ withTimezone: true }).notNull(),
+  /** Until then the stored stale flags are right and the read is served as stored; null: for good. */
+  flagsHoldUntil: timestamp({ withTimezone: true }),
 })
 
 /** A lake's day (windows, wind, waves, phase) for today and each forecast day, after each ingest. */

@@ -1,5 +1,6 @@
 import { and, asc, eq, gte, lt, sql } from 'drizzle-orm'
 import type { ForecastHour, LakeDay } from '../../../shared/conditions/day-plan'
+import type { Bank } from '../../../shared/conditions/ranking'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import type { Db } from '../../db/index'
 import { lakeDays, lakeReads, lakes, weatherHours } from '../../db/schema/index'
@@ -14,15 +15,41 @@ export function conditionsRepo(db: Db) {
       return row
     },
 
-    /** The lake's identity and its cached read, in one query: what a Lake read page view needs. */
-    async lakeWithRead(slug: string) {
+    /**
+     * Everything the Day plan needs in one round trip: the lake, its cached day for `date`, the
+     * dates it has days for, and this angler's banks with their stored exposure tables.
+     */
+    async planView(slug: string, date: string, userId: string) {
+      const { rows } = await db.execute<{
+        id: string
+        slug: string
+        name: string
+        time_zone: string
+        has_read: boolean
+        day: LakeDay | null
+        computed_at: string | null
+        dates: string[]
+        banks: Bank[]
+      }>(sql`
+        select l.id, l.slug, l.name, l.time_zone, r.lake_id is not null as has_read, d.day, d.computed_at,
+          (select coalesce(array_agg(x.date::text order by x.date), '{}') from lake_days x where x.lake_id = l.id) as dates,
+          (select coalesce(json_agg(json_build_object('id', b.id, 'name', b.name, 'points', b.points,
+                    'cover', b.cover, 'depthM', b.depth_m, 'exposure', b.exposure) order by b.name), '[]')
+             from banks b where b.user_id = ${userId} and b.lake_id = l.id) as banks
+        from lakes l
+        left join lake_reads r on r.lake_id = l.id
+        left join lake_days d on d.lake_id = l.id and d.date = ${date}
+        where l.slug = ${slug}`)
+      return rows[0]
+    },
+
+    /** The lake's cached read as stored JSON text, nothing parsed; text is null before the first read. */
+    async readBySlug(slug: string) {
       const [row] = await db
         .select({
           id: lakes.id,
-          slug: lakes.slug,
-          name: lakes.name,
-          timeZone: lakes.timeZone,
-          read: lakeReads.read,
+          text: sql<string | null>`${lakeReads.read}::text`,
+          holdUntil: lakeReads.flagsHoldUntil,
         })
         .from(lakes)
         .leftJoin(lakeReads, eq(lakeReads.lakeId, lakes.id))
@@ -30,11 +57,12 @@ export function conditionsRepo(db: Db) {
       return row
     },
 
-    async saveRead(lakeId: string, read: LakeRead, computedAt: Date) {
+    async saveRead(lakeId: string, read: LakeRead, computedAt: Date, flagsHoldUntil: Date | null) {
+      const values = { read, computedAt, flagsHoldUntil }
       await db
         .insert(lakeReads)
-        .values({ lakeId, read, computedAt })
-        .onConflictDoUpdate({ target: lakeReads.lakeId, set: { read, computedAt } })
+        .values({ lakeId, ...values })
+        .onConflictDoUpdate({ target: lakeReads.lakeId, set: values })
     },
 
     /** Replaces the lake's cached days from `today` on, and drops days before yesterday. */
@@ -54,23 +82,6 @@ export function conditionsRepo(db: Db) {
           await tx.insert(lakeDays).values(days.map((d) => ({ ...d, lakeId, computedAt })))
       })
     },
-
-    async day(lakeId: string, date: string) {
-      const [row] = await db
-        .select()
-        .from(lakeDays)
-        .where(and(eq(lakeDays.lakeId, lakeId), eq(lakeDays.date, date)))
-      return row
-    },
-
-    dates: async (lakeId: string) =>
-      (
-        await db
-          .select({ date: lakeDays.date })
-          .from(lakeDays)
-          .where(eq(lakeDays.lakeId, lakeId))
-          .orderBy(asc(lakeDays.date))
-      ).map((r) => r.date),
 
     /** Hourly weather in [from, to): observed where there is an observation, forecast after. */
     async hours(lakeId: string, from: Date, to: Date): Promise<ForecastHour[]> {

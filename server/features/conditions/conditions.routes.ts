@@ -13,7 +13,7 @@ export function conditionsRoutes(conditions: ConditionsService): Router {
     requireSignIn,
     validate({ params: LakeSlugParams }),
     async (req, res) => {
-      res.json(await conditions.read(input(LakeSlugParams, req.params).slug))
+      res.type('json').send(await conditions.readJson(input(LakeSlugParams, req.params).slug))
     },
   )
   router.get(

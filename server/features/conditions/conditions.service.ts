@@ -4,9 +4,13 @@ import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { addDays, localDate, localDayBounds } from '../../../shared/time'
 import type { Db } from '../../db/index'
 import { HttpError } from '../../http/errors'
-import { banksRepo, type BanksRepo } from '../banks/banks.repo'
 import { lakeReadRepo, type LakeRow } from '../lakes/lake-read.repo'
-import { lakeReadService, withStaleFlags, type LakeReadService } from '../lakes/lake-read.service'
+import {
+  flagsHoldUntil,
+  lakeReadService,
+  withStaleFlags,
+  type LakeReadService,
+} from '../lakes/lake-read.service'
 import { conditionsRepo, type ConditionsRepo } from './conditions.repo'
 
 /** Plans cover today and the days the 7-day forecast reaches. */
@@ -22,17 +26,13 @@ function missingForPlan(read: LakeRead): string | null {
   return missing.length ? `This lake needs ${missing.join(', ')} before it can be planned.` : null
 }
 
-export function conditionsService(deps: {
-  repo: ConditionsRepo
-  reads: LakeReadService
-  banks: BanksRepo
-}) {
-  const { repo, reads, banks } = deps
+export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadService }) {
+  const { repo, reads } = deps
 
   /** Computes a lake's read and its days from what is stored, and caches both. */
   async function refreshLake(lake: LakeRow, now: Date) {
     const read = await reads.compute(lake, now)
-    await repo.saveRead(lake.id, read, now)
+    await repo.saveRead(lake.id, read, now, flagsHoldUntil(read))
     const today = localDate(now, lake.timeZone)
     const days = []
     if (!missingForPlan(read)) {
@@ -56,11 +56,11 @@ export function conditionsService(deps: {
     return read
   }
 
-  /** The lake and its cached read, computing the read first when the lake has never had one. */
-  async function lakeAndRead(slug: string, now: Date) {
-    const row = await repo.lakeWithRead(slug)
-    if (!row) throw new HttpError(404, 'not_found', 'No such lake.')
-    return { lake: row, read: row.read ?? (await refreshLake(await repo.lake(row.id), now)) }
+  /** Why a lake has no plan for a date: something the read lacks, or a forecast that ends sooner. */
+  async function whyNoPlan(slug: string) {
+    const text = (await repo.readBySlug(slug))?.text
+    const read = text ? (JSON.parse(text) as LakeRead) : null
+    return (read && missingForPlan(read)) ?? 'The forecast does not reach this date yet.'
   }
 
   return {
@@ -73,8 +73,16 @@ export function conditionsService(deps: {
 
     refreshLake,
 
-    async read(slug: string, now = new Date()): Promise<LakeRead> {
-      return withStaleFlags((await lakeAndRead(slug, now)).read, now)
+    /**
+     * The Lake read as JSON text. While its stale flags still hold it goes out exactly as stored;
+     * after that it is re-judged against the clock.
+     */
+    async readJson(slug: string, now = new Date()): Promise<string> {
+      const row = await repo.readBySlug(slug)
+      if (!row) throw new HttpError(404, 'not_found', 'No such lake.')
+      if (row.text === null) return JSON.stringify(await refreshLake(await repo.lake(row.id), now))
+      if (!row.holdUntil || now < row.holdUntil) return row.text
+      return JSON.stringify(withStaleFlags(JSON.parse(row.text) as LakeRead, now))
     },
 
     /** The Day plan: the lake's cached day with this angler's banks ranked in it. */
@@ -84,8 +92,14 @@ export function conditionsService(deps: {
       date: string,
       now = new Date(),
     ): Promise<DayPlanResponse> {
-      const { lake: row, read } = await lakeAndRead(slug, now)
-      const today = localDate(now, row.timeZone)
+      let view = await repo.planView(slug, date, userId)
+      if (!view) throw new HttpError(404, 'not_found', 'No such lake.')
+      if (!view.has_read) {
+        // A lake no ingest has reached yet is read now, and cached like any other.
+        await refreshLake(await repo.lake(view.id), now)
+        view = (await repo.planView(slug, date, userId))!
+      }
+      const today = localDate(now, view.time_zone)
       if (date < addDays(today, -1) || date >= addDays(today, PLAN_DAYS)) {
         throw new HttpError(
           404,
@@ -93,26 +107,15 @@ export function conditionsService(deps: {
           `Plans cover yesterday, today and the next ${PLAN_DAYS - 1} days.`,
         )
       }
-      const [cached, dates, saved] = await Promise.all([
-        repo.day(row.id, date),
-        repo.dates(row.id),
-        banks.list(userId, row.id),
-      ])
-      const plan = cached
-        ? planForBanks(
-            cached.day,
-            saved.map((b) => ({ ...b, depthM: b.depthM ?? undefined })),
-          )
-        : null
+      const banks = view.banks.map((b) => ({ ...b, depthM: b.depthM ?? undefined }))
+      const plan = view.day ? planForBanks(view.day, banks) : null
       return {
-        lake: { slug: row.slug, name: row.name, timeZone: row.timeZone },
+        lake: { slug: view.slug, name: view.name, timeZone: view.time_zone },
         date,
-        dates,
-        computedAt: cached?.computedAt.toISOString() ?? null,
-        banksSaved: saved.length,
-        unavailable: plan
-          ? null
-          : (missingForPlan(read) ?? 'The forecast does not reach this date yet.'),
+        dates: view.dates,
+        computedAt: view.computed_at && new Date(view.computed_at).toISOString(),
+        banksSaved: banks.length,
+        unavailable: plan ? null : await whyNoPlan(slug),
         plan,
       }
     },
@@ -125,6 +128,5 @@ export function conditionsFor(db: Db): ConditionsService {
   return conditionsService({
     repo: conditionsRepo(db),
     reads: lakeReadService(lakeReadRepo(db)),
-    banks: banksRepo(db),
   })
 }

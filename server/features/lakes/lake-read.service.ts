@@ -11,7 +11,7 @@ import { skyDay } from '../../../shared/conditions/sky'
 import { median, theilSen } from '../../../shared/conditions/trend'
 import { pressureTendency } from '../../../shared/conditions/weather'
 import { DomainError } from '../../../shared/errors'
-import { isStale, type Parameter } from '../../../shared/readings'
+import { isStale, staleAfterMs, type Parameter } from '../../../shared/readings'
 import type { LakeRead, WindHour } from '../../../shared/schemas/lake-read'
 import type { LakeSeries } from '../../../shared/schemas/lake-series'
 import { addDays, localDate } from '../../../shared/time'
@@ -60,19 +60,40 @@ function trendPerDay(points: Point[], now: Date): number | null {
   return recent.length >= 3 && line ? line.slope : null
 }
 
+const GAUGE_KEYS = ['waterTemp', 'clarity', 'level'] as const
+
+/** The parameter whose age decides whether a gauge value of the read is stale. */
+function parameterOf(read: LakeRead, key: (typeof GAUGE_KEYS)[number]): Parameter {
+  if (key === 'waterTemp') return 'water_temp'
+  if (key === 'level') return 'gauge_height'
+  return read.clarity?.source === 'secchi' ? 'secchi' : 'turbidity'
+}
+
 /** Marks each gauge value stale or not by its age at `now`; a cached read is re-judged this way. */
 export function withStaleFlags(read: LakeRead, now: Date): LakeRead {
-  const stale = (parameter: Parameter, at: string) => isStale(parameter, new Date(at), now)
-  const { waterTemp, clarity, level } = read
-  return {
-    ...read,
-    waterTemp: waterTemp && { ...waterTemp, stale: stale('water_temp', waterTemp.at) },
-    clarity: clarity && {
-      ...clarity,
-      stale: stale(clarity.source === 'secchi' ? 'secchi' : 'turbidity', clarity.at),
-    },
-    level: level && { ...level, stale: stale('gauge_height', level.at) },
+  const out = { ...read }
+  for (const key of GAUGE_KEYS) {
+    const value = read[key]
+    if (value)
+      Object.assign(out, {
+        [key]: { ...value, stale: isStale(parameterOf(read, key), new Date(value.at), now) },
+      })
   }
+  return out
+}
+
+/**
+ * Until when a read's stale flags all hold: the first moment one of its fresh values turns stale;
+ * null when none is fresh, as nothing can then turn stale before the next refresh.
+ */
+export function flagsHoldUntil(read: LakeRead): Date | null {
+  const asOf = Date.parse(read.asOf)
+  const flips = GAUGE_KEYS.flatMap((key) => {
+    const value = read[key]
+    const flip = value ? Date.parse(value.at) + staleAfterMs(parameterOf(read, key)) : NaN
+    return flip > asOf ? [flip] : []
+  })
+  return flips.length ? new Date(Math.min(...flips)) : null
 }
 
 export function lakeReadService(repo: LakeReadRepo) {
@@ -242,7 +263,6 @@ export function lakeReadService(repo: LakeReadRepo) {
             areaKm2: lake.areaKm2,
             center: [lake.centerLon, lake.centerLat],
           },
-          shoreline: lake.shoreline,
           asOf: iso(now),
           lastReadingAt: times.length
             ? iso(new Date(Math.max(...times.map((d) => d.getTime()))))

@@ -67,6 +67,13 @@ export function lakesRepo(db: Db) {
       return rows
     },
 
+    async shoreline(slug: string) {
+      const [row] = await db
+        .select({ shoreline: lakes.shoreline })
+        .from(lakes)
+        .where(eq(lakes.slug, slug))
+      return row?.shoreline
+    },
     async lakeId(slug: string) {
       const [row] = await db.select({ id: lakes.id }).from(lakes).where(eq(lakes.slug, slug))
       return row?.id

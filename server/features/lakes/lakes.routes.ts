@@ -13,6 +13,16 @@ export function lakesRoutes(lakes: LakesService, reads: LakeReadService): Router
     res.json(await lakes.list(input(LakeListQuery, req.query), currentUser(req).id))
   })
   router.get(
+    '/lakes/:slug/shoreline',
+    requireSignIn,
+    validate({ params: LakeSlugParams }),
+    async (req, res) => {
+      // Express's ETag turns a repeat fetch into a 304; the outline changes only when an admin replaces it.
+      res.set('cache-control', 'private, no-cache')
+      res.json(await lakes.shape(input(LakeSlugParams, req.params).slug))
+    },
+  )
+  router.get(
     '/lakes/:slug/series',
     requireSignIn,
     validate({ params: LakeSlugParams, query: SeriesQuery }),

@@ -1,5 +1,6 @@
 import { clarityClass, secchiFromTurbidity } from '../../../shared/conditions/clarity'
 import { isStale } from '../../../shared/readings'
+import type { LakeShape } from '../../../shared/schemas/lake-read'
 import type { LakeListQuery, LakePage } from '../../../shared/schemas/lakes'
 import { HttpError } from '../../http/errors'
 import type { LakesRepo } from './lakes.repo'
@@ -47,6 +48,12 @@ export function lakesService(repo: LakesRepo) {
         }
       })
       return { items, total, page: query.page, pageSize: query.pageSize }
+    },
+
+    async shape(slug: string): Promise<LakeShape> {
+      const shoreline = await repo.shoreline(slug)
+      if (!shoreline) throw new HttpError(404, 'not_found', 'No such lake.')
+      return { shoreline }
     },
 
     async setSubscription(userId: string, slug: string, following: boolean) {

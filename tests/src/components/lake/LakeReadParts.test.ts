@@ -2,6 +2,7 @@ import { VueQueryPlugin } from '@tanstack/vue-query'
 import { mount as baseMount } from '@vue/test-utils'
 import { createPinia } from 'pinia'
 import { describe, expect, it } from 'vitest'
+import type { Polygon } from '@shared/geo/types'
 import type { LakeRead } from '@shared/schemas/lake-read'
 import CautionBand from '@/components/lake/CautionBand.vue'
 import LakeOutline from '@/components/lake/LakeOutline.vue'
@@ -15,6 +16,26 @@ const mount: typeof baseMount = (component, options) =>
 const now = new Date().toISOString()
 const hoursAgo = (h: number) => new Date(Date.now() - h * 3_600_000).toISOString()
 
+const shoreline: Polygon = {
+  type: 'Polygon',
+  coordinates: [
+    [
+      [-88, 35],
+      [-87.9, 35],
+      [-87.9, 35.1],
+      [-88, 35.1],
+      [-88, 35],
+    ],
+    [
+      [-87.96, 35.04],
+      [-87.96, 35.06],
+      [-87.94, 35.06],
+      [-87.94, 35.04],
+      [-87.96, 35.04],
+    ],
+  ],
+}
+
 function read(overrides: Partial<LakeRead> = {}): LakeRead {
   return {
     lake: {
@@ -26,25 +47,6 @@ function read(overrides: Partial<LakeRead> = {}): LakeRead {
       normalPoolM: 1,
       areaKm2: 1,
       center: [0, 0],
-    },
-    shoreline: {
-      type: 'Polygon',
-      coordinates: [
-        [
-          [-88, 35],
-          [-87.9, 35],
-          [-87.9, 35.1],
-          [-88, 35.1],
-          [-88, 35],
-        ],
-        [
-          [-87.96, 35.04],
-          [-87.96, 35.06],
-          [-87.94, 35.06],
-          [-87.94, 35.04],
-          [-87.96, 35.04],
-        ],
-      ],
     },
     asOf: now,
     lastReadingAt: now,
@@ -144,7 +146,10 @@ describe('WindArrow', () => {
 describe('LakeOutline', () => {
   it('draws the shoreline with its island as a hole and describes it in words', () => {
     const wrapper = mount(LakeOutline, {
-      props: { read: read({ windNow: { at: now, windMs: 5, gustMs: 7, windFromDeg: 315 } }) },
+      props: {
+        read: read({ windNow: { at: now, windMs: 5, gustMs: 7, windFromDeg: 315 } }),
+        shoreline,
+      },
     })
     const path = wrapper.get('path.water')
     expect(path.attributes('fill-rule')).toBe('evenodd')
@@ -158,6 +163,7 @@ describe('LakeOutline', () => {
     const wrapper = mount(LakeOutline, {
       props: {
         read: read(),
+        shoreline,
         banks: [
           {
             id: 'a',
@@ -190,7 +196,7 @@ describe('LakeOutline', () => {
   })
 
   it('walks the shore with the arrow keys and picks the point under the cursor with Enter', async () => {
-    const wrapper = mount(LakeOutline, { props: { read: read(), picked: [] } })
+    const wrapper = mount(LakeOutline, { props: { read: read(), shoreline, picked: [] } })
     const svg = wrapper.get('svg')
     expect(svg.attributes('tabindex')).toBe('0')
     expect(svg.attributes('aria-label')).toMatch(/arrow keys move along the shore/)
@@ -205,7 +211,7 @@ describe('LakeOutline', () => {
   })
 
   it('is not a picking surface when no bank is being added', () => {
-    const wrapper = mount(LakeOutline, { props: { read: read() } })
+    const wrapper = mount(LakeOutline, { props: { read: read(), shoreline } })
     expect(wrapper.get('svg').attributes('tabindex')).toBeUndefined()
     expect(wrapper.find('circle').exists()).toBe(false)
   })

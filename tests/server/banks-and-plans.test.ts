@@ -197,6 +197,17 @@ describe('GET /api/lakes/:slug/plan/:date', () => {
     expect(readAfter.waterTemp).toEqual(readBefore.waterTemp)
   })
 
+  it('serves the stored read while its stale flags hold, and re-judges them after', async () => {
+    const conditions = conditionsFor(ctx.db)
+    const now = LakeRead.parse(JSON.parse(await conditions.readJson('quillmere')))
+    expect(now.waterTemp!.stale).toBe(false)
+    // Water temperature is read every 15 minutes and counts as stale after two hours.
+    const later = new Date(Date.parse(now.waterTemp!.at) + 2 * 3_600_000 + 60_000)
+    const then = LakeRead.parse(JSON.parse(await conditions.readJson('quillmere', later)))
+    expect(then.waterTemp!.stale).toBe(true)
+    expect(then.waterTemp!.valueC).toBe(now.waterTemp!.valueC)
+  })
+
   it('says why there is no plan, refuses dates outside the forecast and bad dates', async () => {
     const app = testApp(ctx.db)
     const angler = await signedInAgent(app, ctx.db, 'early@example.test')

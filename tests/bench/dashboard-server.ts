@@ -1,0 +1,16 @@
+import type { AddressInfo } from 'node:net'
+import { createDb } from '../../server/db/index'
+import { clientDir, serve } from '../../server/index'
+import { createLogger } from '../../server/logger'
+
+/** The app as `npm start` serves it, in a process of its own: prints its URL, runs until killed. */
+const server = await serve({
+  db: createDb(process.argv[2]!),
+  logger: createLogger('warn'),
+  host: '127.0.0.1',
+  port: 0,
+  sessionSecret: 'bench-secret-that-is-long-enough-for-hs256-keys',
+  secureCookies: false,
+  staticDir: clientDir,
+})
+console.log(`http://127.0.0.1:${(server.address() as AddressInfo).port}`)

@@ -1,0 +1,231 @@
+import { spawn } from 'node:child_process'
+import { once } from 'node:events'
+import { readFileSync, rmSync, writeFileSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import { gzipSync } from 'node:zlib'
+import autocannon from 'autocannon'
+import * as chromeLauncher from 'chrome-launcher'
+import { eq } from 'drizzle-orm'
+import lighthouse from 'lighthouse'
+import { pino } from 'pino'
+import { build } from 'vite'
+import { localDate } from '../../shared/time'
+import { startCluster } from '../../server/db/cluster'
+import { createDb } from '../../server/db/index'
+import { migrateDb } from '../../server/db/migrate'
+import { lakes } from '../../server/db/schema/index'
+import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed/index'
+import { DEMO_FEED_SEED, DEMO_STATIONS } from '../../server/db/seed/demo-stations'
+import { startFeed } from '../../server/fakes/feed/index'
+import { conditionsFor } from '../../server/features/conditions/conditions.service'
+import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { ingestWeather } from '../../server/features/ingest/weather.ingest'
+import { clientDir } from '../../server/index'
+
+/**
+ * The dashboard served from the cache: autocannon (50 connections, 10 s) against the Lake read and
+ * the Day plan and, in the same run, against /api/me (session check plus a tiny JSON body) as the
+ * baseline; the JavaScript the Lake read loads before it is usable; Lighthouse on that page.
+ */
+const SLUG = 'quillmere'
+const dataDir = fileURLToPath(new URL('../../.tmp/pg-bench-dashboard', import.meta.url))
+
+await build({ logLevel: 'warn' })
+const cluster = await startCluster({
+  dataDir,
+  port: 54393,
+  user: 'bench',
+  password: 'bench',
+  database: 'bench',
+  durable: false,
+})
+const db = createDb(cluster.url(), 4)
+const stop: (() => Promise<unknown> | unknown)[] = []
+try {
+  await migrateDb(db)
+  await seedDemo(db)
+  const feed = await startFeed({ seed: DEMO_FEED_SEED, stations: DEMO_STATIONS })
+  const deps = { db, feedUrl: feed.url, log: pino({ level: 'silent' }) }
+  const [lake] = await db.select().from(lakes).where(eq(lakes.slug, SLUG))
+  await backfillReadings(deps, lake!.id, 30)
+  await ingestWeather(deps)
+  await conditionsFor(db).refreshAll()
+  await feed.close()
+
+  const server = spawn(
+    process.execPath,
+    [
+      '--import',
+      'tsx',
+      fileURLToPath(new URL('./dashboard-server.ts', import.meta.url)),
+      cluster.url(),
+    ],
+    {
+      stdio: ['ignore', 'pipe', 'inherit'],
+    },
+  )
+  stop.push(() => server.kill())
+  const base = ((await once(server.stdout!, 'data')) as [Buffer])[0].toString().trim()
+  const rssMb = () =>
+    Number(/VmRSS:\s+(\d+)/.exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))![1]) / 1024
+
+  // Sign in as the demo angler and save three banks, as a user of the dashboard would.
+  const signin = await fetch(`${base}/api/auth/signin`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: 'angler@chopline.test', password: DEMO_PASSWORD }),
+  })
+  const cookie = signin.headers.getSetCookie()[0]!.split(';')[0]!
+  const ring = lake!.shoreline.type === 'Polygon' ? lake!.shoreline.coordinates[0]! : []
+  for (const [i, at] of [40, 200, 420].entries()) {
+    const res = await fetch(`${base}/api/lakes/${SLUG}/banks`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', cookie },
+      body: JSON.stringify({
+        name: `Bench bank ${i + 1}`,
+        points: [ring[at], ring[at + 3]],
+        cover: ['rock', 'wood'],
+        depthM: 3,
+      }),
+    })
+    if (res.status !== 201) throw new Error(`bank ${i + 1}: ${res.status} ${await res.text()}`)
+  }
+
+  const today = localDate(new Date(), lake!.timeZone)
+  const routes = {
+    'baseline GET /api/me': '/api/me',
+    'GET /api/lakes/:slug/read': `/api/lakes/${SLUG}/read`,
+    'GET /api/lakes/:slug/plan/:date': `/api/lakes/${SLUG}/plan/${today}`,
+  }
+  const load = (path: string) =>
+    autocannon({ url: base + path, connections: 50, duration: 10, headers: { cookie } })
+  // Warm up the JIT and the pool before anything is measured.
+  for (const path of Object.values(routes))
+    await autocannon({ url: base + path, connections: 10, duration: 2, headers: { cookie } })
+  const rssBefore = rssMb()
+  const results: Record<string, { rps: number; p99: number; errors: number }> = {}
+  for (const [name, path] of Object.entries(routes)) {
+    const r = await load(path)
+    results[name] = { rps: r.requests.average, p99: r.latency.p99, errors: r.errors + r.non2xx }
+  }
+  const rssAfter = rssMb()
+
+  // What the Lake read loads before it is usable: the entry and the view with their static
+  // imports, not the chunks it loads later (the charts).
+  type Chunk = { file: string; imports?: string[]; css?: string[] }
+  const manifest = JSON.parse(readFileSync(`${clientDir}/.vite/manifest.json`, 'utf8')) as Record<
+    string,
+    Chunk
+  >
+  const files = new Set<string>()
+  const walk = (key: string) => {
+    const chunk = manifest[key]!
+    if (files.has(chunk.file)) return
+    files.add(chunk.file)
+    for (const i of chunk.imports ?? []) walk(i)
+  }
+  walk('index.html')
+  walk('src/views/LakeReadView.vue')
+  const jsGzipKb =
+    [...files].reduce((n, f) => n + gzipSync(readFileSync(`${clientDir}/${f}`)).length, 0) / 1024
+
+  // Lighthouse (mobile defaults: simulated slow 4G and a slower CPU) on the signed-in Lake read.
+  const chrome = await chromeLauncher.launch({
+    chromePath: '/usr/bin/chromium',
+    chromeFlags: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1',
+    ],
+  })
+  stop.push(() => chrome.kill())
+  const report = await lighthouse(`${base}/lakes/${SLUG}`, {
+    port: chrome.port,
+    output: 'json',
+    logLevel: 'error',
+    onlyCategories: ['performance', 'accessibility'],
+    extraHeaders: { cookie },
+  })
+  writeFileSync(
+    fileURLToPath(new URL('../../.tmp/lighthouse-lake-read.json', import.meta.url)),
+    JSON.stringify(report?.lhr),
+  )
+  const score = (c: string) => Math.round((report?.lhr.categories[c]?.score ?? 0) * 100)
+  const metric = (id: string) => report?.lhr.audits[id]?.displayValue ?? '—'
+  const lighthouseMetrics = Object.fromEntries(
+    [
+      'first-contentful-paint',
+      'largest-contentful-paint',
+      'total-blocking-time',
+      'cumulative-layout-shift',
+      'speed-index',
+    ].map((id) => [id, metric(id)]),
+  )
+  const performanceScore = score('performance')
+  const accessibilityScore = score('accessibility')
+
+  console.table(lighthouseMetrics)
+  const baseline = results['baseline GET /api/me']!
+  const read = results['GET /api/lakes/:slug/read']!
+  const plan = results['GET /api/lakes/:slug/plan/:date']!
+  console.table(
+    Object.fromEntries(
+      Object.entries(results).map(([name, r]) => [
+        name,
+        {
+          'req/s': Math.round(r.rps),
+          'p99 (ms)': r.p99,
+          errors: r.errors,
+          'vs baseline': (r.rps / baseline.rps).toFixed(2),
+        },
+      ]),
+    ),
+  )
+  console.table({
+    'server RSS before (MB)': Math.round(rssBefore),
+    'server RSS after (MB)': Math.round(rssAfter),
+    'Lake read JS before usable (kB gzip)': Number(jsGzipKb.toFixed(1)),
+    'Lighthouse performance': performanceScore,
+    'Lighthouse accessibility': accessibilityScore,
+    targets: 'ratios >= 0.5, p99 <= 50 ms, 0 errors, JS <= 200 kB, perf >= 90, a11y >= 95',
+  })
+  const readRatio = read.rps / baseline.rps
+  const planRatio = plan.rps / baseline.rps
+  console.log(
+    JSON.stringify({
+      bench: 'dashboard',
+      readRps: Math.round(read.rps),
+      readP99Ms: read.p99,
+      planRps: Math.round(plan.rps),
+      planP99Ms: plan.p99,
+      baselineRps: Math.round(baseline.rps),
+      readRatio: Number(readRatio.toFixed(2)),
+      planRatio: Number(planRatio.toFixed(2)),
+      errors: read.errors + plan.errors + baseline.errors,
+      rssBeforeMb: Math.round(rssBefore),
+      rssAfterMb: Math.round(rssAfter),
+      lakeReadJsGzipKb: Number(jsGzipKb.toFixed(1)),
+      lighthousePerformance: performanceScore,
+      lighthouseAccessibility: accessibilityScore,
+      pass:
+        readRatio >= 0.5 &&
+        planRatio >= 0.5 &&
+        Math.max(read.p99, plan.p99) <= 50 &&
+        read.errors + plan.errors === 0 &&
+        jsGzipKb <= 200 &&
+        performanceScore >= 90 &&
+        accessibilityScore >= 95,
+    }),
+  )
+} finally {
+  for (const s of stop.reverse()) await s()
+  await db.$client.end()
+  await cluster.stop()
+  rmSync(cluster.dataDir, { recursive: true, force: true })
+}
