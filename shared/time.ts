@@ -2,18 +2,29 @@ import { DomainError } from './errors'
 
 const DAY_MS = 86_400_000
 
+/** One formatter per time zone: building an Intl.DateTimeFormat costs far more than using one. */
+const formatters = new Map<string, Intl.DateTimeFormat>()
+function formatterFor(timeZone: string): Intl.DateTimeFormat {
+  let format = formatters.get(timeZone)
+  if (!format) {
+    format = new Intl.DateTimeFormat('en-US', {
+      timeZone,
+      hourCycle: 'h23',
+      year: 'numeric',
+      month: '2-digit',
+      day: '2-digit',
+      hour: '2-digit',
+      minute: '2-digit',
+      second: '2-digit',
+    })
+    formatters.set(timeZone, format)
+  }
+  return format
+}
+
 /** Offset of `timeZone` from UTC at `instant`, in milliseconds (positive east of Greenwich). */
 export function zoneOffsetMs(instant: Date, timeZone: string): number {
-  const parts = new Intl.DateTimeFormat('en-US', {
-    timeZone,
-    hourCycle: 'h23',
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    second: '2-digit',
-  }).formatToParts(instant)
+  const parts = formatterFor(timeZone).formatToParts(instant)
   const get = (type: string) => Number(parts.find((p) => p.type === type)?.value)
   const asUtc = Date.UTC(
     get('year'),

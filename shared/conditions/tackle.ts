@@ -30,7 +30,8 @@ export function tackleCalls(input: TackleInput, rules: TackleRule[] = TACKLE_RUL
     if (rule.fit === undefined || calls.has(rule.family)) continue
     calls.set(rule.family, {
       family: rule.family,
-      ...structuredClone(FAMILY_DEFAULTS[rule.family]),
+      ...FAMILY_DEFAULTS[rule.family],
+      colors: [...FAMILY_DEFAULTS[rule.family].colors],
       fit: 0,
       why: [],
       ruleIds: [],

@@ -5,6 +5,29 @@ import type { LakeRead } from '../../../shared/schemas/lake-read'
 import type { Db } from '../../db/index'
 import { lakeDays, lakeReads, lakes, weatherHours } from '../../db/schema/index'
 
+const PLAN_VIEW = `
+  select l.id, l.slug, l.name, l.time_zone, r.lake_id is not null as has_read, d.day, d.computed_at,
+    (select coalesce(array_agg(x.date::text order by x.date), '{}') from lake_days x where x.lake_id = l.id) as dates,
+    (select coalesce(json_agg(json_build_object('id', b.id, 'name', b.name, 'points', b.points,
+              'cover', b.cover, 'depthM', b.depth_m, 'exposure', b.exposure) order by b.name), '[]')
+       from banks b where b.user_id = $3 and b.lake_id = l.id) as banks
+  from lakes l
+  left join lake_reads r on r.lake_id = l.id
+  left join lake_days d on d.lake_id = l.id and d.date = $2
+  where l.slug = $1`
+
+interface PlanViewRow {
+  id: string
+  slug: string
+  name: string
+  time_zone: string
+  has_read: boolean
+  day: LakeDay | null
+  computed_at: Date | null
+  dates: string[]
+  banks: Bank[]
+}
+
 export function conditionsRepo(db: Db) {
   return {
     allLakes: () => db.select().from(lakes),
@@ -20,26 +43,12 @@ export function conditionsRepo(db: Db) {
      * dates it has days for, and this angler's banks with their stored exposure tables.
      */
     async planView(slug: string, date: string, userId: string) {
-      const { rows } = await db.execute<{
-        id: string
-        slug: string
-        name: string
-        time_zone: string
-        has_read: boolean
-        day: LakeDay | null
-        computed_at: string | null
-        dates: string[]
-        banks: Bank[]
-      }>(sql`
-        select l.id, l.slug, l.name, l.time_zone, r.lake_id is not null as has_read, d.day, d.computed_at,
-          (select coalesce(array_agg(x.date::text order by x.date), '{}') from lake_days x where x.lake_id = l.id) as dates,
-          (select coalesce(json_agg(json_build_object('id', b.id, 'name', b.name, 'points', b.points,
-                    'cover', b.cover, 'depthM', b.depth_m, 'exposure', b.exposure) order by b.name), '[]')
-             from banks b where b.user_id = ${userId} and b.lake_id = l.id) as banks
-        from lakes l
-        left join lake_reads r on r.lake_id = l.id
-        left join lake_days d on d.lake_id = l.id and d.date = ${date}
-        where l.slug = ${slug}`)
+      // A named statement: each pool connection plans it once, not on every page view.
+      const { rows } = await db.$client.query<PlanViewRow>({
+        name: 'conditions_plan_view',
+        text: PLAN_VIEW,
+        values: [slug, date, userId],
+      })
       return rows[0]
     },
 

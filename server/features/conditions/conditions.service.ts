@@ -113,7 +113,7 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
         lake: { slug: view.slug, name: view.name, timeZone: view.time_zone },
         date,
         dates: view.dates,
-        computedAt: view.computed_at && new Date(view.computed_at).toISOString(),
+        computedAt: view.computed_at?.toISOString() ?? null,
         banksSaved: banks.length,
         unavailable: plan ? null : await whyNoPlan(slug),
         plan,
