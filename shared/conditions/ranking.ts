@@ -97,7 +97,7 @@ function windPoints(x: BankExposure, w: WindowWeather, c: RankConditions): Score
       return {
         key: 'wind',
         points: 1,
-        reason: `Wind onto the bank, but waves near ${x.waveHeightM.toFixed(1)} m make it hard to fish.`,
+        reason: 'Wind onto the bank, but the waves there make it hard to fish.',
       }
     case 'side wind':
       return { key: 'wind', points: 0.5, reason: 'Wind runs along this bank.' }
@@ -126,11 +126,10 @@ function depthPoints(bank: Bank, c: RankConditions): ScoreComponent {
   const [lo, hi] = PHASE_DEPTH_M[c.phase]
   const off = bank.depthM < lo ? lo - bank.depthM : bank.depthM > hi ? bank.depthM - hi : 0
   const points = off === 0 ? 1 : off <= 1 ? 0.5 : 0
-  return {
-    key: 'depth',
-    points,
-    reason: `${bank.depthM.toFixed(1)} m a cast out; ${lo}-${hi} m suits the ${c.phase} phase.`,
-  }
+  // No numbers in the words: reasons are shown in every angler's units, so they name none.
+  const fit =
+    off === 0 ? 'suits' : bank.depthM < lo ? 'is shallower than suits' : 'is deeper than suits'
+  return { key: 'depth', points, reason: `Depth a cast out ${fit} the ${c.phase} phase.` }
 }
 
 function clarityPoints(bank: Bank, x: BankExposure, c: RankConditions): ScoreComponent {
@@ -167,12 +166,12 @@ function safetyPoints(x: BankExposure, w: WindowWeather): ScoreComponent {
     return {
       key: 'safety',
       points: -3,
-      reason: 'Waves of 2 ft or more here: unsafe for a small boat.',
+      reason: 'Waves here are big enough to swamp a small boat.',
     }
   if (x.waveHeightM >= 0.3)
-    return { key: 'safety', points: -1, reason: 'A 1 ft chop builds on this bank.' }
+    return { key: 'safety', points: -1, reason: 'A chop a small boat feels builds on this bank.' }
   if (w.gustMs >= 11.3 && x.onshore > 0)
-    return { key: 'safety', points: -1, reason: 'Gusts past 22 kt push the boat onto this bank.' }
+    return { key: 'safety', points: -1, reason: 'Strong gusts push the boat onto this bank.' }
   return { key: 'safety', points: 0, reason: 'No safety concern from wind or waves here.' }
 }
 

@@ -1,5 +1,5 @@
 import { assertFinite } from '../errors'
-import { cToF, msToKnots } from '../units'
+import { cToF, msToKmh, msToKnots, mToFt } from '../units'
 import { heatIndexC, windChillC } from './weather'
 
 export type CautionLevel = 'info' | 'caution' | 'warning' | 'danger'
@@ -30,8 +30,10 @@ interface CautionRule {
   source: string
 }
 
-const kt = (ms: number) => Math.round(msToKnots(ms))
-const ft = (m: number) => (m / 0.3048).toFixed(1)
+// Cautions are worked out once per lake for every angler, so they name both unit systems.
+const windText = (ms: number) => `${Math.round(msToKnots(ms))} kt (${Math.round(msToKmh(ms))} km/h)`
+const waveText = (m: number) => `${mToFt(m).toFixed(1)} ft (${m.toFixed(1)} m)`
+const tempText = (c: number) => `${Math.round(cToF(c))} °F (${Math.round(c)} °C)`
 
 /** Each caution is a row: when it applies, at what level, what it says and where that comes from. */
 export const CAUTION_RULES: CautionRule[] = [
@@ -44,7 +46,7 @@ export const CAUTION_RULES: CautionRule[] = [
       return c.windMs >= 7 ? 'caution' : null
     },
     message: (c) =>
-      `Wind ${kt(c.windMs)} kt, gusts ${kt(Math.max(c.gustMs ?? 0, c.windMs))} kt. Small craft advisories on the Great Lakes start at 22 kt and gales at 34 kt; small bass boats are at risk well below that. Stay near sheltered water.`,
+      `Wind ${windText(c.windMs)}, gusts ${windText(Math.max(c.gustMs ?? 0, c.windMs))}. Small craft advisories on the Great Lakes start at 22 kt and gales at 34 kt; small bass boats are at risk well below that. Stay near sheltered water.`,
     source: 'NWS marine hazard criteria (upper Great Lakes); 7 m/s caution is common practice',
   },
   {
@@ -56,7 +58,7 @@ export const CAUTION_RULES: CautionRule[] = [
       return h >= 0.3 ? 'caution' : null
     },
     message: (c) =>
-      `Waves to ${ft(c.waveHeightM ?? 0)} ft on exposed water. Quarter into the chop, slow down, and keep to the lee shore on long runs.`,
+      `Waves to ${waveText(c.waveHeightM ?? 0)} on exposed water. Quarter into the chop, slow down, and keep to the lee shore on long runs.`,
     source: 'NWS small craft advisory at 4 ft waves; 1 and 2 ft cautions are common practice',
   },
   {
@@ -78,7 +80,7 @@ export const CAUTION_RULES: CautionRule[] = [
       return cToF(c.waterC) < 70 ? 'caution' : null
     },
     message: (c) =>
-      `Water ${Math.round(cToF(c.waterC ?? 0))} °F: a fall brings cold shock (1-10-1: about 1 minute to control breathing, 10 of useful movement, an hour before unconsciousness). Wear the life jacket and clip on the kill-switch lanyard.`,
+      `Water ${tempText(c.waterC ?? 0)}: a fall brings cold shock (1-10-1: about 1 minute to control breathing, 10 of useful movement, an hour before unconsciousness). Wear the life jacket and clip on the kill-switch lanyard.`,
     source: '1-10-1 principle; 70 °F threshold from memory',
   },
   {
@@ -91,7 +93,7 @@ export const CAUTION_RULES: CautionRule[] = [
       return hi >= 80 ? 'caution' : null
     },
     message: (c) =>
-      `Heat index ${Math.round(cToF(heatIndexC(c.airC ?? 0, c.relativeHumidityPct ?? 0)))} °F. Drink water before you are thirsty, cover up, and rest in shade.`,
+      `Heat index ${tempText(heatIndexC(c.airC ?? 0, c.relativeHumidityPct ?? 0))}. Drink water before you are thirsty, cover up, and rest in shade.`,
     source: 'NWS heat index risk bands',
   },
   {
@@ -104,7 +106,7 @@ export const CAUTION_RULES: CautionRule[] = [
       return wc <= -10 ? 'warning' : wc <= 0 ? 'caution' : null
     },
     message: (c) =>
-      `Wind chill ${Math.round(cToF(windChillC(c.airC ?? 0, c.windMs) ?? 0))} °F, colder still at running speed. Cover skin; frostbite comes fast below -28 °C wind chill.`,
+      `Wind chill ${tempText(windChillC(c.airC ?? 0, c.windMs) ?? 0)}, colder still at running speed. Cover skin; frostbite comes fast below -28 °C wind chill.`,
     source: 'NWS wind chill (2001); -28 °C frostbite threshold from memory',
   },
 ]

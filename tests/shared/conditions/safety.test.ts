@@ -34,6 +34,8 @@ describe('cautions', () => {
   it('flags cold water below 70 °F with the 1-10-1 principle (from memory)', () => {
     const c = cautions({ windMs: 2, waterC: fToC(55) }).find((x) => x.kind === 'cold-water')
     expect(c?.message).toMatch(/1-10-1/)
+    // Worked out once for every angler, so it names both scales: 55 °F is 12.8 °C.
+    expect(c?.message).toContain('Water 55 °F (13 °C)')
     expect(cautions({ windMs: 2, waterC: fToC(75) }).some((x) => x.kind === 'cold-water')).toBe(
       false,
     )
