@@ -83,6 +83,9 @@ describe("the angler's day in Chromium", () => {
     await page.getByText('Saved Windy rocks.').waitFor()
     const list = page.getByRole('list', { name: 'Your banks on this lake' })
     await expect.poll(() => list.innerText()).toMatch(/Windy rocks[\s\S]*10\.0 ft a cast out/)
+    // The exposure table stored on save, one row per compass point.
+    await list.getByText('Fetch by wind direction').click()
+    await expect.poll(() => list.locator('tbody tr').count()).toBe(16)
     // The bank is drawn on the outline in its exposure colour, titled for screen readers.
     await expect.poll(() => page.locator('g.bank title').textContent()).toMatch(/^Windy rocks: /)
     await expectAccessible(page, 'Lake read')
@@ -108,7 +111,7 @@ describe("the angler's day in Chromium", () => {
     await page.locator('.banks-slot').scrollIntoViewIfNeeded()
     await page
       .getByRole('list', { name: 'Your banks on this lake' })
-      .getByText('Windy rocks')
+      .getByText('Windy rocks', { exact: true })
       .waitFor()
     await page.screenshot({ path: join(artifactsDir, 'banks-desktop.png'), fullPage: true })
 
