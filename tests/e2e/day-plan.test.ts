@@ -145,6 +145,13 @@ describe("the angler's day in Chromium", () => {
     await page.getByRole('checkbox', { name: 'Wood / laydowns' }).check({ force: true })
     await page.getByRole('button', { name: 'Save bank' }).click()
     await page.getByText('Saved North cove.').waitFor()
+    // The dark theme loads on demand and repaints the page.
+    const background = () =>
+      page.evaluate<string>('getComputedStyle(document.body).backgroundColor')
+    const light = await background()
+    await page.getByRole('button', { name: 'Dark' }).click()
+    await expect.poll(background).not.toBe(light)
+    await page.getByRole('button', { name: 'Light' }).waitFor()
     await page.close()
   })
 })
