@@ -21,6 +21,7 @@ import { conditionsFor } from '../../server/features/conditions/conditions.servi
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
 import { ingestWeather } from '../../server/features/ingest/weather.ingest'
 import { clientDir } from '../../server/index'
+import { CHROMIUM_ARGS } from '../helpers/browser'
 
 /**
  * The dashboard served from the cache: autocannon (50 connections, 10 s) against the Lake read and
@@ -141,17 +142,7 @@ try {
   // Lighthouse on the signed-in Lake read.
   const chrome = await chromeLauncher.launch({
     chromePath: '/usr/bin/chromium',
-    chromeFlags: [
-      '--headless',
-      '--no-sandbox',
-      '--disable-gpu',
-      '--disable-quic',
-      '--no-first-run',
-      '--disable-background-networking',
-      '--disable-component-update',
-      '--disable-sync',
-      '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1',
-    ],
+    chromeFlags: CHROMIUM_ARGS,
   })
   stop.push(() => chrome.kill())
   // Mobile (the default: simulated slow 4G, a 4x slower CPU) is what counts; desktop is printed too.

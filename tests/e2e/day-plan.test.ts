@@ -1,48 +1,19 @@
-import type { Server } from 'node:http'
-import type { AddressInfo } from 'node:net'
 import { join } from 'node:path'
-import { eq } from 'drizzle-orm'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { lakes } from '../../server/db/schema/index'
-import { seedDemo } from '../../server/db/seed/index'
-import { clientDir } from '../../server/index'
-import { conditionsFor } from '../../server/features/conditions/conditions.service'
-import { backfillReadings } from '../../server/features/ingest/readings.ingest'
-import { ingestWeather } from '../../server/features/ingest/weather.ingest'
-import { testApp } from '../helpers/app'
 import { seriousViolations } from '../helpers/axe'
-import { artifactsDir, launchBrowser } from '../helpers/browser'
-import { createTestDb } from '../helpers/db'
-import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
+import { artifactsDir } from '../helpers/browser'
+import { startE2e, type E2e } from '../helpers/e2e'
 import { signInAs } from '../helpers/signin'
 
-let ctx: Awaited<ReturnType<typeof createTestDb>>
-let server: Server
-let browser: Awaited<ReturnType<typeof launchBrowser>>
+let e2e: E2e
 let base: string
-let feed: TestFeed
 
 beforeAll(async () => {
-  ctx = await createTestDb()
-  await seedDemo(ctx.db)
-  feed = await startTestFeed(new Date().toISOString())
-  const [quillmere] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
-  await backfillReadings(ingestDeps(ctx.db, feed), quillmere!.id, 16)
-  await ingestWeather(ingestDeps(ctx.db, feed))
-  await conditionsFor(ctx.db).refreshAll()
-  server = testApp(ctx.db, { staticDir: clientDir }).listen(0, '127.0.0.1')
-  await new Promise((resolve) => server.once('listening', resolve))
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
-  browser = await launchBrowser()
+  e2e = await startE2e(16)
+  base = e2e.base
 })
-
-afterAll(async () => {
-  await feed?.close()
-  await browser?.close()
-  server?.close()
-  await ctx?.drop()
-})
+afterAll(() => e2e?.close())
 
 /** Taps the outline at a share of the way along its shoreline path, a few pixels out in the water. */
 async function tapShore(page: Page, share: number) {
@@ -64,7 +35,7 @@ async function expectAccessible(page: Page, name: string) {
 
 describe("the angler's day in Chromium", () => {
   it('adds a bank on the map, sees it ranked in the day plan, at phone and desktop sizes', async () => {
-    const page = await browser.context.newPage()
+    const page = await e2e.browser.context.newPage()
     await signInAs(page, base, 'angler@chopline.test')
     await expectAccessible(page, 'Lakes')
     await page.getByRole('link', { name: 'Quillmere Reservoir' }).click()
@@ -128,8 +99,8 @@ describe("the angler's day in Chromium", () => {
   })
 
   it('picks a bank with the keyboard alone', async () => {
-    await browser.context.clearCookies()
-    const page = await browser.context.newPage()
+    await e2e.browser.context.clearCookies()
+    const page = await e2e.browser.context.newPage()
     await page.setViewportSize({ width: 390, height: 844 })
     await signInAs(page, base, 'guide@chopline.test')
     await page.goto(`${base}/lakes/quillmere`)

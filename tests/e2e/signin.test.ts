@@ -1,50 +1,23 @@
-import type { AddressInfo } from 'node:net'
-import type { Server } from 'node:http'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { eq } from 'drizzle-orm'
-import { lakes } from '../../server/db/schema/index'
-import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed/index'
-import { backfillReadings } from '../../server/features/ingest/readings.ingest'
-import { ingestWeather } from '../../server/features/ingest/weather.ingest'
-import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
-import { clientDir } from '../../server/index'
-import { artifactsDir, launchBrowser } from '../helpers/browser'
-import { createTestDb } from '../helpers/db'
-import { testApp } from '../helpers/app'
+import { DEMO_PASSWORD } from '../../server/db/seed/index'
+import { artifactsDir } from '../helpers/browser'
+import { startE2e, type E2e } from '../helpers/e2e'
+import { signInAs } from '../helpers/signin'
 
-let ctx: Awaited<ReturnType<typeof createTestDb>>
-let server: Server
-let browser: Awaited<ReturnType<typeof launchBrowser>>
+let e2e: E2e
 let base: string
 
-let feed: TestFeed
-
 beforeAll(async () => {
-  ctx = await createTestDb()
-  await seedDemo(ctx.db)
-  // Two weeks of readings and the weather for one lake, from the fake feed, as npm start loads them.
-  feed = await startTestFeed(new Date().toISOString())
-  const [quillmere] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
-  await backfillReadings(ingestDeps(ctx.db, feed), quillmere!.id, 15)
-  await ingestWeather(ingestDeps(ctx.db, feed))
-  // The built client (npm test runs vite build first), served exactly as npm start serves it.
-  server = testApp(ctx.db, { staticDir: clientDir }).listen(0, '127.0.0.1')
-  await new Promise((resolve) => server.once('listening', resolve))
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`
-  browser = await launchBrowser()
+  // Fifteen days of readings: enough for trends and the seasonal phase.
+  e2e = await startE2e(15)
+  base = e2e.base
 })
-
-afterAll(async () => {
-  await feed?.close()
-  await browser?.close()
-  server?.close()
-  await ctx?.drop()
-})
+afterAll(() => e2e?.close())
 
 describe('sign-in in Chromium', () => {
   it('signs the demo angler in through the real page and lands on Lakes', async () => {
-    const page = await browser.context.newPage()
+    const page = await e2e.browser.context.newPage()
     await page.goto(`${base}/lakes`)
     // A guarded page sends a signed-out visitor to sign in, remembering where they were going.
     await page.waitForURL(/\/signin\?redirect=/)
@@ -63,8 +36,8 @@ describe('sign-in in Chromium', () => {
 
   it('shows the server message for a wrong password and the admin link for an admin', async () => {
     // Signed in, /signin would send us on to Lakes.
-    await browser.context.clearCookies()
-    const page = await browser.context.newPage()
+    await e2e.browser.context.clearCookies()
+    const page = await e2e.browser.context.newPage()
     await page.goto(`${base}/signin`)
     await page.getByLabel('E-mail').fill('admin@chopline.test')
     await page.getByLabel('Password').fill('not the password')
@@ -79,12 +52,9 @@ describe('sign-in in Chromium', () => {
   })
 
   it('opens a lake read with its water strip, cautions, wind and season, on a phone and a desktop', async () => {
-    await browser.context.clearCookies()
-    const page = await browser.context.newPage()
-    await page.goto(`${base}/signin`)
-    await page.getByLabel('E-mail').fill('angler@chopline.test')
-    await page.getByLabel('Password').fill(DEMO_PASSWORD)
-    await page.getByRole('button', { name: 'Sign in' }).click()
+    await e2e.browser.context.clearCookies()
+    const page = await e2e.browser.context.newPage()
+    await signInAs(page, base, 'angler@chopline.test')
     await page.getByRole('link', { name: 'Quillmere Reservoir' }).click()
     await page.waitForURL(`${base}/lakes/quillmere`)
     await page.getByRole('heading', { name: 'Quillmere Reservoir' }).waitFor()

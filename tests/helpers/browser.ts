@@ -6,6 +6,19 @@ import { chromium, type BrowserContext } from 'playwright-core'
 
 export const artifactsDir = fileURLToPath(new URL('../e2e/artifacts', import.meta.url))
 
+/** Headless, no first-run work, and no network beyond loopback (this machine has none). */
+export const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1',
+]
+
 /** Debian's Chromium, headless, with a fresh profile and no network beyond loopback. */
 export async function launchBrowser(): Promise<{
   context: BrowserContext
@@ -17,17 +30,7 @@ export async function launchBrowser(): Promise<{
     executablePath: '/usr/bin/chromium',
     headless: true,
     viewport: { width: 390, height: 844 },
-    args: [
-      '--headless',
-      '--no-sandbox',
-      '--disable-gpu',
-      '--disable-quic',
-      '--no-first-run',
-      '--disable-background-networking',
-      '--disable-component-update',
-      '--disable-sync',
-      '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1',
-    ],
+    args: CHROMIUM_ARGS,
   })
   context.setDefaultTimeout(10_000)
   return {

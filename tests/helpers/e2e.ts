@@ -1,0 +1,40 @@
+import type { AddressInfo } from 'node:net'
+import { eq } from 'drizzle-orm'
+import { lakes } from '../../server/db/schema/index'
+import { seedDemo } from '../../server/db/seed/index'
+import { clientDir } from '../../server/index'
+import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { ingestWeather } from '../../server/features/ingest/weather.ingest'
+import { testApp } from './app'
+import { launchBrowser } from './browser'
+import { createTestDb } from './db'
+import { ingestDeps, startTestFeed } from './feed'
+
+/**
+ * The demo data with `days` of Quillmere readings and the weather from the fake feed, as npm start
+ * loads them; the built client served as npm start serves it; and Chromium.
+ */
+export async function startE2e(days: number) {
+  const ctx = await createTestDb()
+  await seedDemo(ctx.db)
+  const feed = await startTestFeed(new Date().toISOString())
+  const [quillmere] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+  await backfillReadings(ingestDeps(ctx.db, feed), quillmere!.id, days)
+  await ingestWeather(ingestDeps(ctx.db, feed))
+  await feed.close()
+  // npm test runs vite build before the tests.
+  const server = testApp(ctx.db, { staticDir: clientDir }).listen(0, '127.0.0.1')
+  await new Promise((resolve) => server.once('listening', resolve))
+  const browser = await launchBrowser()
+  return {
+    db: ctx.db,
+    base: `http://127.0.0.1:${(server.address() as AddressInfo).port}`,
+    browser,
+    close: async () => {
+      await browser.close()
+      server.close()
+      await ctx.drop()
+    },
+  }
+}
+export type E2e = Awaited<ReturnType<typeof startE2e>>
