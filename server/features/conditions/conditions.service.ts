@@ -71,8 +71,6 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
       return { lakes: lakes.length }
     },
 
-    refreshLake,
-
     /**
      * The Lake read as JSON text. While its stale flags still hold it goes out exactly as stored;
      * after that it is re-judged against the clock.
