@@ -9,12 +9,19 @@ import type { JobContext } from './cli'
  * so only one instance does the work of a given run.
  */
 export function startScheduler(ctx: JobContext): { stop: () => Promise<void> } {
+  // Runs in flight, so that stopping waits for them before the pool under them ends.
+  const running = new Set<Promise<void>>()
   const guarded = (name: string, log: Logger, run: () => Promise<unknown>) => async () => {
-    try {
-      log.info({ job: name, result: await run() }, 'job run')
-    } catch (err) {
-      log.error({ job: name, err }, 'job run failed')
-    }
+    const done = (async () => {
+      try {
+        log.info({ job: name, result: await run() }, 'job run')
+      } catch (err) {
+        log.error({ job: name, err }, 'job run failed')
+      }
+    })()
+    running.add(done)
+    await done
+    running.delete(done)
   }
   const tasks = [
     cron.schedule(
@@ -37,6 +44,7 @@ export function startScheduler(ctx: JobContext): { stop: () => Promise<void> } {
   return {
     stop: async () => {
       for (const task of tasks) await task.stop()
+      await Promise.all(running)
     },
   }
 }

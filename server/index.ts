@@ -11,8 +11,12 @@ export const clientDir = fileURLToPath(new URL('../dist', import.meta.url))
 export interface ServeOptions extends AppDeps {
   host: string
   port: number
-  /** Runs after the HTTP server has closed: end the pool, stop what was started for it. */
+  /**
+   * Runs after the HTTP server has closed and before the pool ends: stop background work (the job
+   * scheduler) that still uses the database. `afterDbClose` then stops what the pool ran on.
+   */
   onClose?: () => Promise<void>
+  afterDbClose?: () => Promise<void>
 }
 
 /** Listens, and on SIGINT/SIGTERM stops taking requests, lets open ones finish, then runs onClose. */
@@ -29,8 +33,9 @@ export function serve(opts: ServeOptions): Promise<Server> {
       closing = true
       opts.logger.info({ signal }, 'shutting down')
       server.close(async () => {
-        await opts.db.$client.end()
         await opts.onClose?.()
+        await opts.db.$client.end()
+        await opts.afterDbClose?.()
         process.exit(0)
       })
       server.closeIdleConnections()

@@ -113,6 +113,8 @@ export async function serveLocal(
       onClose: async () => {
         await feed.stop()
         await close?.()
+      },
+      afterDbClose: async () => {
         await stack.cluster?.stop()
       },
     })
