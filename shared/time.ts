@@ -82,5 +82,8 @@ export function toInstant(at: string | Date, field = 'at'): Date {
   return d
 }
 
+/** An instant as ISO 8601 text, or null when there is none. */
+export const isoOrNull = (d: Date | null | undefined): string | null => (d ? d.toISOString() : null)
+
 export const HOUR_MS = 3_600_000
 export { DAY_MS }

@@ -1,6 +1,6 @@
 import { getMoonIllumination, getMoonTimes, getTimes } from 'suncalc'
 import { assertFinite } from '../errors'
-import { HOUR_MS, localDayBounds } from '../time'
+import { HOUR_MS, isoOrNull, localDayBounds } from '../time'
 
 export type MoonPhaseName =
   | 'new moon'
@@ -24,8 +24,6 @@ export interface SkyDay {
   moonIllumination: number
   moonPhase: MoonPhaseName
 }
-
-const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null)
 
 function within(d: Date | null | undefined, [start, end]: [Date, Date]): Date | null {
   return d && d >= start && d < end ? d : null
@@ -71,13 +69,13 @@ export function skyDay(lat: number, lon: number, date: string, timeZone: string)
       .filter((d): d is Date => d !== null)
       .sort((a, b) => a.getTime() - b.getTime())[0]
   return {
-    sunrise: iso(within(sun.sunrise, bounds)),
-    sunset: iso(within(sun.sunset, bounds)),
-    civilDawn: iso(within(sun.dawn, bounds)),
-    civilDusk: iso(within(sun.dusk, bounds)),
-    solarNoon: iso(within(sun.solarNoon, bounds)),
-    moonrise: iso(first((t) => t.rise)),
-    moonset: iso(first((t) => t.set)),
+    sunrise: isoOrNull(within(sun.sunrise, bounds)),
+    sunset: isoOrNull(within(sun.sunset, bounds)),
+    civilDawn: isoOrNull(within(sun.dawn, bounds)),
+    civilDusk: isoOrNull(within(sun.dusk, bounds)),
+    solarNoon: isoOrNull(within(sun.solarNoon, bounds)),
+    moonrise: isoOrNull(first((t) => t.rise)),
+    moonset: isoOrNull(first((t) => t.set)),
     moonIllumination: getMoonIllumination(noon).fraction,
     moonPhase: phaseName(start, end, noon),
   }

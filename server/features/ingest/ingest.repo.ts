@@ -1,3 +1,4 @@
+import { isoOrNull } from '../../../shared/time'
 import { and, eq, getTableColumns, inArray, isNull, lte, or, sql } from 'drizzle-orm'
 import type { Parameter } from '../../../shared/readings'
 import type { Db } from '../../db/index'
@@ -113,7 +114,6 @@ export function ingestRepo(db: Db) {
      * commit together, so a crash leaves all of them or none. Repeats change nothing.
      */
     async commitPages(pages: PageCommit[]) {
-      const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null)
       const bad = pages.flatMap((p) => p.bad.map((b) => ({ ...b, ds: p.ds })))
       const arr = <T>(rows: T[], f: (row: T) => unknown) => sql.param(rows.map(f))
       // Good rows go as plain array literals (which page, when, value, original value): pg's
@@ -134,8 +134,8 @@ export function ingestRepo(db: Db) {
         with page as (
           select * from unnest(${arr(pages, (p) => p.ds.id)}::uuid[], ${arr(pages, (p) => p.ds.stationId)}::uuid[],
                                ${arr(pages, (p) => p.ds.parameter)}::parameter[], ${arr(pages, (p) => p.ds.unit)}::text[],
-                               ${arr(pages, (p) => iso(p.mark.highWaterMark))}::timestamptz[],
-                               ${arr(pages, (p) => iso(p.mark.backfillCursor))}::timestamptz[])
+                               ${arr(pages, (p) => isoOrNull(p.mark.highWaterMark))}::timestamptz[],
+                               ${arr(pages, (p) => isoOrNull(p.mark.backfillCursor))}::timestamptz[])
             with ordinality as p(id, station_id, parameter, unit, hwm, cursor, i)
         ), good as (
           insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
@@ -147,7 +147,7 @@ export function ingestRepo(db: Db) {
         ), bad as (
           insert into quarantine (station_id, parameter, feed_id, observed_at, raw, reason, detail)
           select * from unnest(${arr(bad, (b) => b.ds.stationId)}::uuid[], ${arr(bad, (b) => b.ds.parameter)}::text[],
-                               ${arr(bad, (b) => b.feedId)}::text[], ${arr(bad, (b) => iso(b.observedAt))}::timestamptz[],
+                               ${arr(bad, (b) => b.feedId)}::text[], ${arr(bad, (b) => isoOrNull(b.observedAt))}::timestamptz[],
                                ${arr(bad, (b) => JSON.stringify(b.raw))}::jsonb[], ${arr(bad, (b) => b.reason)}::text[],
                                ${arr(bad, (b) => b.detail)}::text[])
           on conflict do nothing

@@ -1,7 +1,6 @@
+import { isoOrNull } from '../../../shared/time'
 import type { StationList } from '../../../shared/schemas/stations'
 import type { StationsRepo } from './stations.repo'
-
-const iso = (d: Date | null) => (d ? d.toISOString() : null)
 
 export function stationsService(repo: StationsRepo) {
   return {
@@ -19,16 +18,16 @@ export function stationsService(repo: StationsRepo) {
             .map((d) => ({
               parameter: d.parameter,
               unit: d.unit,
-              highWaterMark: iso(d.highWaterMark),
+              highWaterMark: isoOrNull(d.highWaterMark),
             })),
           health: {
             state: s.state,
-            lastGoodAt: iso(s.lastGoodAt),
-            lastRunAt: iso(s.lastRunAt),
+            lastGoodAt: isoOrNull(s.lastGoodAt),
+            lastRunAt: isoOrNull(s.lastRunAt),
             lastError: s.lastError,
             gapCount: s.gapCount,
             rejected24h: s.rejected24h,
-            circuitOpenUntil: iso(s.circuitOpenUntil),
+            circuitOpenUntil: isoOrNull(s.circuitOpenUntil),
           },
         })),
       }
