@@ -5,6 +5,7 @@ import type { LakeRead } from '../../../shared/schemas/lake-read'
 import type { Db } from '../../db/index'
 import { lakeDays, lakeReads, lakes, weatherHours } from '../../db/schema/index'
 
+/** The Day plan's one query: $1 slug, $2 date, $3 the angler. */
 const PLAN_VIEW = `
   select l.id, l.slug, l.name, l.time_zone, r.lake_id is not null as has_read, d.day, d.computed_at,
     (select coalesce(array_agg(x.date::text order by x.date), '{}') from lake_days x where x.lake_id = l.id) as dates,
@@ -25,7 +26,8 @@ interface PlanViewRow {
   day: LakeDay | null
   computed_at: Date | null
   dates: string[]
-  banks: Bank[]
+  /** depth_m comes back as null when it was not given. */
+  banks: (Omit<Bank, 'depthM'> & { depthM: number | null })[]
 }
 
 export function conditionsRepo(db: Db) {
