@@ -1,6 +1,6 @@
 import { compassName } from '@shared/conditions/exposure'
 import { DEFAULT_SETTINGS, type Settings } from '@shared/schemas/settings'
-import { cToF, mToFt, msToKmh, msToKnots, msToMph } from '@shared/units'
+import { cToF, ftToM, mToFt, msToKmh, msToKnots, msToMph } from '@shared/units'
 
 /** "12 min ago", "3 h ago": how old a reading is. */
 export function age(iso: string, now = Date.now()): string {
@@ -21,6 +21,8 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     speedUnit,
     toTemp: (c: number) => (s.temperature === 'F' ? cToF(c) : c),
     toLength: lengthOf,
+    /** A length typed in the angler's unit, back to metres. */
+    fromLength: (x: number) => (s.length === 'ft' ? ftToM(x) : x),
     toSpeed: (ms: number) => toSpeed(ms),
     temp: (c: number) =>
       s.temperature === 'F' ? `${Math.round(cToF(c))} °F` : `${c.toFixed(1)} °C`,

@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm'
 import { lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { clientDir } from '../../server/index'
+import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
 import { ingestWeather } from '../../server/features/ingest/weather.ingest'
 import { testApp } from './app'
@@ -12,7 +13,7 @@ import { ingestDeps, startTestFeed } from './feed'
 
 /**
  * The demo data with `days` of Quillmere readings and the weather from the fake feed, as npm start
- * loads them; the built client served as npm start serves it; and Chromium.
+ * loads them, with the conditions cache refreshed; the built client served as npm start serves it; and Chromium.
  */
 export async function startE2e(days: number) {
   const ctx = await createTestDb()
@@ -21,6 +22,8 @@ export async function startE2e(days: number) {
   const [quillmere] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
   await backfillReadings(ingestDeps(ctx.db, feed), quillmere!.id, days)
   await ingestWeather(ingestDeps(ctx.db, feed))
+  // As the ingest jobs do after each run.
+  await conditionsFor(ctx.db).refreshAll()
   await feed.close()
   // npm test runs vite build before the tests.
   const server = testApp(ctx.db, { staticDir: clientDir }).listen(0, '127.0.0.1')

@@ -6,6 +6,7 @@ import { LakeSeries } from '../../shared/schemas/lake-series'
 import { LakePage } from '../../shared/schemas/lakes'
 import { lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
+import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
 import { ingestWeather } from '../../server/features/ingest/weather.ingest'
 import { signedInAgent, testApp } from '../helpers/app'
@@ -29,6 +30,8 @@ beforeAll(async () => {
   await ingestWeather(ingestDeps(ctx.db, feed))
   feed.setNow(new Date(Date.now() - 3 * 3_600_000))
   await loadLake('vessandra', 3)
+  // What the ingest jobs do after each run: every lake's read worked out once and cached.
+  await conditionsFor(ctx.db).refreshAll()
 })
 afterAll(async () => {
   await feed.close()

@@ -36,10 +36,14 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
     const today = localDate(now, lake.timeZone)
     const days = []
     if (!missingForPlan(read)) {
-      for (let i = 0; i < PLAN_DAYS; i++) {
-        const date = addDays(today, i)
-        const hourly = await repo.hours(lake.id, ...localDayBounds(date, lake.timeZone))
-        if (!hourly.length) break
+      const dates = Array.from({ length: PLAN_DAYS }, (_, i) => addDays(today, i))
+      // One read of the weather for all the days; each window takes the hours inside it.
+      const hourly = await repo.hours(
+        lake.id,
+        localDayBounds(today, lake.timeZone)[0],
+        localDayBounds(dates.at(-1)!, lake.timeZone)[1],
+      )
+      for (const date of dates) {
         const day = lakeDay({
           lake: lake.shoreline,
           date,
@@ -49,6 +53,8 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
           secchiM: read.clarity!.secchiM,
           phase: read.phase!.phase,
         })
+        // The forecast ends here.
+        if (day.windows.every((w) => !w.weather)) break
         days.push({ date, day })
       }
     }

@@ -1,4 +1,5 @@
 import { and, asc, count, eq, ilike, or, sql } from 'drizzle-orm'
+import type { ClarityClass } from '../../../shared/conditions/clarity'
 import type { LakeListQuery } from '../../../shared/schemas/lakes'
 import type { Db } from '../../db/index'
 import { lakes, subscriptions } from '../../db/schema/index'
@@ -35,35 +36,30 @@ export function lakesRepo(db: Db) {
       return { rows, total: total?.n ?? 0 }
     },
 
-    /** For a page of lakes: my subscriptions and each lake's latest gauge values and wind. */
+    /**
+     * For a page of lakes: my subscriptions and each lake's one-line read, taken from the cached
+     * Lake read (the ingest jobs refresh it), so the list repeats none of its gauge logic.
+     */
     async today(lakeIds: string[], userId: string) {
       if (!lakeIds.length) return []
       const { rows } = await db.execute<{
         lake_id: string
         subscribed: boolean
         water_c: number | null
-        water_at: string | null
-        turbidity: number | null
-        turbidity_at: string | null
-        secchi: number | null
-        secchi_at: string | null
+        clarity: ClarityClass | null
+        last_reading_at: string | null
         wind_ms: number | null
         wind_from: number | null
       }>(sql`
         select l.id as lake_id,
           exists (select 1 from subscriptions s where s.lake_id = l.id and s.user_id = ${userId}) as subscribed,
-          w.value as water_c, w.observed_at as water_at,
-          t.value as turbidity, t.observed_at as turbidity_at,
-          d.value as secchi, d.observed_at as secchi_at,
-          wx.wind_ms, wx.wind_from_deg as wind_from
+          (r.read -> 'waterTemp' ->> 'valueC')::float8 as water_c,
+          r.read -> 'clarity' ->> 'class' as clarity,
+          r.read ->> 'lastReadingAt' as last_reading_at,
+          (r.read -> 'windNow' ->> 'windMs')::float8 as wind_ms,
+          (r.read -> 'windNow' ->> 'windFromDeg')::float8 as wind_from
         from unnest(${sql.param(lakeIds)}::uuid[]) as l(id)
-        left join lateral (select id from stations where lake_id = l.id and active order by name limit 1) g on true
-        ${latest('water_temp', 'w')}
-        ${latest('turbidity', 't')}
-        ${latest('secchi', 'd')}
-        left join lateral (
-          select wind_ms, wind_from_deg from weather_hours
-          where lake_id = l.id and kind = 'observed' order by at desc limit 1) wx on true`)
+        left join lake_reads r on r.lake_id = l.id`)
       return rows
     },
 
@@ -89,10 +85,4 @@ export function lakesRepo(db: Db) {
   }
 }
 
-/** The latest reading of one parameter at the lake's gauge, as a lateral join aliased `alias`. */
-function latest(parameter: string, alias: string) {
-  return sql.raw(`left join lateral (
-          select value, observed_at from readings
-          where station_id = g.id and parameter = '${parameter}' order by observed_at desc limit 1) ${alias} on true`)
-}
 export type LakesRepo = ReturnType<typeof lakesRepo>

@@ -1,11 +1,8 @@
-import { clarityClass, secchiFromTurbidity } from '../../../shared/conditions/clarity'
 import { isStale } from '../../../shared/readings'
 import type { LakeShape } from '../../../shared/schemas/lake-read'
 import type { LakeListQuery, LakePage } from '../../../shared/schemas/lakes'
 import { HttpError } from '../../http/errors'
 import type { LakesRepo } from './lakes.repo'
-
-const DAY = 86_400_000
 
 export function lakesService(repo: LakesRepo) {
   return {
@@ -21,18 +18,7 @@ export function lakesService(repo: LakesRepo) {
       )
       const items = rows.map(({ centerLon, centerLat, ...lake }) => {
         const t = today.get(lake.id)
-        // A Secchi disk reading from the last week beats the turbidity estimate.
-        const disk =
-          t?.secchi != null && t.secchi_at && now.getTime() - Date.parse(t.secchi_at) < 7 * DAY
-        const secchiM = disk
-          ? t!.secchi!
-          : t?.turbidity != null
-            ? secchiFromTurbidity(t.turbidity)
-            : null
-        const times = [t?.water_at, t?.turbidity_at]
-          .filter((x): x is string => !!x)
-          .map((x) => Date.parse(x))
-        const last = times.length ? new Date(Math.max(...times)) : null
+        const last = t?.last_reading_at ? new Date(t.last_reading_at) : null
         return {
           ...lake,
           center: [centerLon, centerLat] as [number, number],
@@ -41,7 +27,7 @@ export function lakesService(repo: LakesRepo) {
           stale: !last || isStale('water_temp', last, now),
           today: {
             waterC: t?.water_c ?? null,
-            clarity: secchiM === null ? null : clarityClass(secchiM),
+            clarity: t?.clarity ?? null,
             windMs: t?.wind_ms ?? null,
             windFromDeg: t?.wind_from ?? null,
           },
