@@ -2,24 +2,39 @@ import { DomainError } from './errors'
 
 const DAY_MS = 86_400_000
 
-/** One formatter per time zone: building an Intl.DateTimeFormat costs far more than using one. */
-const formatters = new Map<string, Intl.DateTimeFormat>()
-function formatterFor(timeZone: string): Intl.DateTimeFormat {
-  let format = formatters.get(timeZone)
+/** One Intl.DateTimeFormat (en-US) per set of options: building one costs far more than using it. */
+const formats = new Map<string, Intl.DateTimeFormat>()
+export function dateTimeFormat(options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
+  const key = JSON.stringify(options)
+  let format = formats.get(key)
   if (!format) {
-    format = new Intl.DateTimeFormat('en-US', {
-      timeZone,
-      hourCycle: 'h23',
-      year: 'numeric',
-      month: '2-digit',
-      day: '2-digit',
-      hour: '2-digit',
-      minute: '2-digit',
-      second: '2-digit',
-    })
-    formatters.set(timeZone, format)
+    format = new Intl.DateTimeFormat('en-US', options)
+    formats.set(key, format)
   }
   return format
+}
+
+const formatterFor = (timeZone: string) =>
+  dateTimeFormat({
+    timeZone,
+    hourCycle: 'h23',
+    year: 'numeric',
+    month: '2-digit',
+    day: '2-digit',
+    hour: '2-digit',
+    minute: '2-digit',
+    second: '2-digit',
+  })
+
+/** A calendar date (YYYY-MM-DD) in words: "Tue, Mar 10", or "Tuesday, March 10" when long. */
+export function dateLabel(date: string, style: 'short' | 'long' = 'short'): string {
+  const [y, m, d] = assertDate(date)
+  return dateTimeFormat({
+    weekday: style,
+    month: style,
+    day: 'numeric',
+    timeZone: 'UTC',
+  }).format(new Date(Date.UTC(y, m - 1, d, 12)))
 }
 
 /** Offset of `timeZone` from UTC at `instant`, in milliseconds (positive east of Greenwich). */

@@ -3,7 +3,7 @@ import { storeToRefs } from 'pinia'
 import { computed } from 'vue'
 import { DEFAULT_SETTINGS } from '@shared/schemas/settings'
 import { settingsApi } from '@/api/settings'
-import { makeFormat } from '@/format'
+import { makeFormat } from '@shared/format'
 import { useAuthStore } from '@/stores/auth'
 
 /** The signed-in user's settings from the server (defaults until they arrive or when signed out). */

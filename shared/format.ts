@@ -1,6 +1,7 @@
-import { compassName } from '@shared/conditions/exposure'
-import { DEFAULT_SETTINGS, type Settings } from '@shared/schemas/settings'
-import { cToF, ftToM, mToFt, msToKmh, msToKnots, msToMph } from '@shared/units'
+import { compassName } from './conditions/exposure'
+import { DEFAULT_SETTINGS, type Settings } from './schemas/settings'
+import { dateTimeFormat } from './time'
+import { cToF, ftToM, mToFt, msToKmh, msToKnots, msToMph } from './units'
 
 /** "12 min ago", "3 h ago": how old a reading is. */
 export function age(iso: string, now = Date.now()): string {
@@ -39,7 +40,7 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     from: (deg: number) => `from ${compassName(deg)}`,
     time: (iso: string | null, timeZone: string) =>
       iso
-        ? new Intl.DateTimeFormat('en-US', {
+        ? dateTimeFormat({
             timeZone,
             hour: 'numeric',
             minute: '2-digit',

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { makeFormat } from '@/format'
+import { makeFormat } from '../../shared/format'
 
 describe('makeFormat', () => {
   it('shows SI values in the default US units (NIST SP 811 factors)', () => {
