@@ -1,33 +1,38 @@
 import { pathToFileURL } from 'node:url'
 import { createDb, type Db } from '../server/db/index'
 import { localConnection } from '../server/cli/local-config'
-import { loadEnv } from '../server/env'
+import { loadEnv, publicOrigin } from '../server/env'
+import { smtpMailer, type MailContext } from '../server/features/mail/mailer'
 import { createLogger, type Logger } from '../server/logger'
 
 export interface JobContext {
   db: Db
   feedUrl: string
   log: Logger
+  mail: MailContext
+  /** Signs the links the jobs put in e-mail (unsubscribe). */
+  sessionSecret: string
 }
 
 /**
- * Runs a job once when its file is executed directly (`tsx jobs/<name>.ts`): against DATABASE_URL
- * and FEED_URL, or the stack `npm start` runs when they are unset.
+ * Runs a job once when its file is executed directly (`tsx jobs/<name>.ts`): against DATABASE_URL,
+ * FEED_URL and SMTP_URL, or the stack `npm start` runs where they are unset.
  */
 export function runFromCli(moduleUrl: string, job: (ctx: JobContext) => Promise<unknown>): void {
   if (!process.argv[1] || pathToFileURL(process.argv[1]).href !== moduleUrl) return
   const env = loadEnv()
-  const { databaseUrl, feedUrl } = localConnection(env)
+  const { databaseUrl, feedUrl, smtpUrl, sessionSecret } = localConnection(env)
   const db = createDb(databaseUrl, 4)
   const log = createLogger(env.LOG_LEVEL)
-  job({ db, feedUrl, log })
-    .then((result) => {
-      log.info({ result }, 'job finished')
-      return db.$client.end()
-    })
+  const mailer = smtpMailer(smtpUrl, env.MAIL_FROM)
+  job({ db, feedUrl, log, sessionSecret, mail: { mailer, origin: publicOrigin(env) } })
+    .then((result) => log.info({ result }, 'job finished'))
     .catch((err: unknown) => {
       log.error({ err }, 'job failed')
       process.exitCode = 1
+    })
+    .finally(() => {
+      mailer.close()
       return db.$client.end()
     })
 }

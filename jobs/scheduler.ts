@@ -3,6 +3,7 @@ import type { Logger } from '../server/logger'
 import { INGEST_READINGS_CRON, runIngestReadings } from './ingest-readings'
 import { INGEST_WEATHER_CRON, runIngestWeather } from './ingest-weather'
 import type { JobContext } from './cli'
+import { runSendBriefs, SEND_BRIEFS_CRON } from './send-briefs'
 
 /**
  * The in-process schedule. Every instance may run it: each job takes a PostgreSQL advisory lock,
@@ -23,24 +24,14 @@ export function startScheduler(ctx: JobContext): { stop: () => Promise<void> } {
     await done
     running.delete(done)
   }
-  const tasks = [
-    cron.schedule(
-      INGEST_READINGS_CRON,
-      guarded('ingest-readings', ctx.log, () => runIngestReadings(ctx)),
-      {
-        name: 'ingest-readings',
-        noOverlap: true,
-      },
-    ),
-    cron.schedule(
-      INGEST_WEATHER_CRON,
-      guarded('ingest-weather', ctx.log, () => runIngestWeather(ctx)),
-      {
-        name: 'ingest-weather',
-        noOverlap: true,
-      },
-    ),
+  const jobs: [string, string, () => Promise<unknown>][] = [
+    ['ingest-readings', INGEST_READINGS_CRON, () => runIngestReadings(ctx)],
+    ['ingest-weather', INGEST_WEATHER_CRON, () => runIngestWeather(ctx)],
+    ['send-briefs', SEND_BRIEFS_CRON, () => runSendBriefs(ctx)],
   ]
+  const tasks = jobs.map(([name, expression, run]) =>
+    cron.schedule(expression, guarded(name, ctx.log, run), { name, noOverlap: true }),
+  )
   return {
     stop: async () => {
       for (const task of tasks) await task.stop()

@@ -15,9 +15,14 @@ import { tokenKey } from './features/auth/auth.tokens'
 import { banksRepo } from './features/banks/banks.repo'
 import { banksRoutes } from './features/banks/banks.routes'
 import { banksService } from './features/banks/banks.service'
+import { briefSendsRepo } from './features/brief/brief-sends.repo'
+import { briefRepo } from './features/brief/brief.repo'
+import { briefRoutes } from './features/brief/brief.routes'
+import { briefService, type Mailbox } from './features/brief/brief.service'
 import { conditionsRoutes } from './features/conditions/conditions.routes'
 import { conditionsFor } from './features/conditions/conditions.service'
 import { healthRoutes } from './features/health/health.routes'
+import type { MailContext } from './features/mail/mailer'
 import { lakeReadRepo } from './features/lakes/lake-read.repo'
 import { lakeReadService } from './features/lakes/lake-read.service'
 import { lakesRepo } from './features/lakes/lakes.repo'
@@ -47,7 +52,11 @@ export interface AppDeps {
   staticDir?: string
   /** Vite's dev middleware, for `npm run dev`. */
   devMiddleware?: RequestHandler
-  /** Sign-in and sign-up attempts per window per client address. */
+  /** Outgoing mail (verification links); the morning brief job has its own. */
+  mail: MailContext
+  /** The local SMTP stand-in's catch, listed for admins in development; absent in production. */
+  mailbox?: Mailbox
+  /** Sign-in, sign-up and verification-mail attempts per window per client address. */
   authRateLimit?: { windowMs: number; limit: number }
 }
 
@@ -55,7 +64,8 @@ export function createApp(deps: AppDeps): express.Express {
   const app = express()
   app.disable('x-powered-by')
 
-  const auth = authService(authRepo(deps.db), tokenKey(deps.sessionSecret))
+  const linkKey = tokenKey(deps.sessionSecret)
+  const auth = authService(authRepo(deps.db), linkKey)
   const limits = deps.authRateLimit ?? { windowMs: 15 * 60_000, limit: 20 }
   const limiter = rateLimit({
     ...limits,
@@ -116,6 +126,17 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(banksRoutes(banksService(banksRepo(deps.db))))
   api.use(stationsRoutes(stationsService(stationsRepo(deps.db))))
   api.use(settingsRoutes(settingsService(settingsRepo(deps.db))))
+  api.use(
+    briefRoutes(
+      briefService({
+        repo: briefRepo(deps.db),
+        sends: briefSendsRepo(deps.db),
+        mail: deps.mail,
+        linkKey,
+      }),
+      { limiter, mailbox: deps.mailbox },
+    ),
+  )
   api.use(notFound)
   app.use('/api', api)
 

@@ -15,6 +15,14 @@ const Env = z.object({
   FEED_URL: z.url().optional(),
   /** Port of the local fake feed that npm start runs when FEED_URL is unset. */
   FEED_PORT: z.coerce.number().int().min(0).max(65535).default(3100),
+  /** Outgoing mail (smtp:// or smtps://); when unset, npm start and npm run dev run the local stand-in. */
+  SMTP_URL: z
+    .string()
+    .regex(/^smtps?:\/\//, 'SMTP_URL must start with smtp:// or smtps://')
+    .optional(),
+  /** Port of the local SMTP stand-in that npm start runs when SMTP_URL is unset. */
+  SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
+  MAIL_FROM: z.string().min(3).default('Chopline <brief@chopline.example>'),
   CHOPLINE_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
 })
 export type Env = z.infer<typeof Env>
@@ -26,4 +34,9 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new Error(`Invalid environment:\n${z.prettifyError(parsed.error)}`)
   }
   return parsed.data
+}
+
+/** The origin links in e-mail point at: APP_ORIGIN, or where the local server listens. */
+export function publicOrigin(env: Env): string {
+  return env.APP_ORIGIN ?? `http://${env.HOST}:${env.PORT}`
 }

@@ -5,6 +5,8 @@ import { createDb } from './db/index'
 import { migrateDb } from './db/migrate'
 import { loadEnv } from './env'
 import { createLogger } from './logger'
+import { smtpMailer } from './features/mail/mailer'
+import { startScheduler } from '../jobs/scheduler'
 
 export const clientDir = fileURLToPath(new URL('../dist', import.meta.url))
 
@@ -49,21 +51,38 @@ export function serve(opts: ServeOptions): Promise<Server> {
 /** Production entry: an external PostgreSQL and a secret from the environment. */
 async function main() {
   const env = loadEnv()
-  if (!env.DATABASE_URL || !env.SESSION_SECRET) {
-    throw new Error('DATABASE_URL and SESSION_SECRET must be set (npm start sets them up locally).')
+  const { DATABASE_URL, SESSION_SECRET, FEED_URL, SMTP_URL, APP_ORIGIN } = env
+  if (!DATABASE_URL || !SESSION_SECRET || !FEED_URL || !SMTP_URL || !APP_ORIGIN) {
+    throw new Error(
+      'DATABASE_URL, SESSION_SECRET, FEED_URL, SMTP_URL and APP_ORIGIN must be set (npm start sets up local stand-ins).',
+    )
   }
   const logger = createLogger(env.LOG_LEVEL)
-  const db = createDb(env.DATABASE_URL)
+  const db = createDb(DATABASE_URL)
   await migrateDb(db)
+  const mail = { mailer: smtpMailer(SMTP_URL, env.MAIL_FROM), origin: APP_ORIGIN }
+  // Jobs run in every instance; each run takes a PostgreSQL lock, so one instance does the work.
+  const scheduler = startScheduler({
+    db,
+    feedUrl: FEED_URL,
+    log: logger,
+    mail,
+    sessionSecret: SESSION_SECRET,
+  })
   await serve({
     db,
     logger,
     host: env.HOST,
     port: env.PORT,
-    sessionSecret: env.SESSION_SECRET,
+    sessionSecret: SESSION_SECRET,
     secureCookies: env.NODE_ENV === 'production',
-    appOrigin: env.APP_ORIGIN,
+    appOrigin: APP_ORIGIN,
     staticDir: clientDir,
+    mail,
+    onClose: async () => {
+      await scheduler.stop()
+      mail.mailer.close()
+    },
   })
   logger.info(`Chopline listening on http://${env.HOST}:${env.PORT}`)
 }

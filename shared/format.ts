@@ -14,6 +14,9 @@ export function age(iso: string, now = Date.now()): string {
 export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
   const speed = { mph: [msToMph, 'mph'], kmh: [msToKmh, 'km/h'], knots: [msToKnots, 'kt'] } as const
   const [toSpeed, speedUnit] = speed[s.speed]
+  /** A change in temperature (no offset between scales). */
+  const tempChange = (c: number) =>
+    s.temperature === 'F' ? `${((c * 9) / 5).toFixed(1)} °F` : `${c.toFixed(1)} °C`
   const lengthOf = (m: number) => (s.length === 'ft' ? mToFt(m) : m)
   return {
     settings: s,
@@ -27,9 +30,14 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     toSpeed: (ms: number) => toSpeed(ms),
     temp: (c: number) =>
       s.temperature === 'F' ? `${Math.round(cToF(c))} °F` : `${c.toFixed(1)} °C`,
-    /** A change in temperature (no offset between scales). */
-    tempChange: (c: number) =>
-      s.temperature === 'F' ? `${((c * 9) / 5).toFixed(1)} °F` : `${c.toFixed(1)} °C`,
+    tempChange,
+    /** A temperature trend per day: "warming 1.2 °F/day", "steady" below 0.1 °C a day. */
+    tempTrend: (perDay: number | null) =>
+      perDay === null
+        ? 'trend unknown'
+        : Math.abs(perDay) < 0.1
+          ? 'steady'
+          : `${perDay > 0 ? 'warming' : 'cooling'} ${tempChange(Math.abs(perDay))}/day`,
     length: (m: number) => `${lengthOf(m).toFixed(1)} ${s.length}`,
     signedLength: (m: number) =>
       `${m >= 0 ? '+' : '−'}${Math.abs(lengthOf(m)).toFixed(1)} ${s.length}`,

@@ -102,3 +102,13 @@ export const isoOrNull = (d: Date | null | undefined): string | null => (d ? d.t
 
 export const HOUR_MS = 3_600_000
 export { DAY_MS }
+
+/** Whether the runtime knows `timeZone` as an IANA zone name ("America/Chicago", "UTC"). */
+export function isTimeZone(timeZone: string): boolean {
+  try {
+    dateTimeFormat({ timeZone })
+    return true
+  } catch {
+    return false
+  }
+}

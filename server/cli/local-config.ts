@@ -25,10 +25,15 @@ export function localDatabase(env: Env) {
   }
 }
 
-/** Where jobs run by hand find the stack `npm start` runs, when DATABASE_URL and FEED_URL are unset. */
-export function localConnection(env: Env): { databaseUrl: string; feedUrl: string } {
+/**
+ * Where jobs run by hand find the stack `npm start` runs, for each of DATABASE_URL, FEED_URL,
+ * SMTP_URL and SESSION_SECRET that is unset.
+ */
+export function localConnection(env: Env) {
   return {
     databaseUrl: env.DATABASE_URL ?? clusterUrl(localDatabase(env)),
     feedUrl: env.FEED_URL ?? `http://127.0.0.1:${env.FEED_PORT}`,
+    smtpUrl: env.SMTP_URL ?? `smtp://127.0.0.1:${env.SMTP_PORT}`,
+    sessionSecret: env.SESSION_SECRET ?? localSecret('session-secret', 48),
   }
 }

@@ -14,7 +14,10 @@ import { startFeed } from '../fakes/feed/index'
 import { backfillReadings } from '../features/ingest/readings.ingest'
 import { ingestRepo } from '../features/ingest/ingest.repo'
 import type { Logger } from '../logger'
-import { loadEnv, type Env } from '../env'
+import { loadEnv, publicOrigin, type Env } from '../env'
+import { startMailServer } from '../fakes/mail/index'
+import { smtpMailer } from '../features/mail/mailer'
+import { runSendBriefs } from '../../jobs/send-briefs'
 import { serve, type ServeOptions } from '../index'
 import { createLogger } from '../logger'
 
@@ -28,15 +31,19 @@ interface LocalStack {
 const DEMO_HISTORY_DAYS = 30
 
 /**
- * The feed (the local fake unless FEED_URL names a real one) and the job schedule. On a first start
- * the demo lakes get a month of history, then the regular jobs take over.
+ * The feed and the SMTP server (the local stand-ins unless FEED_URL and SMTP_URL name real ones)
+ * and the job schedule. On a first start the demo lakes get a month of history, then the regular
+ * jobs take over.
  */
-async function startFeedAndJobs(env: Env, db: Db, log: Logger) {
-  const fake = env.FEED_URL
+async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret: string) {
+  const fakeFeed = env.FEED_URL
     ? undefined
     : await startFeed({ seed: DEMO_FEED_SEED, stations: DEMO_STATIONS }, env.FEED_PORT)
-  const feedUrl = env.FEED_URL ?? fake!.url
-  const ctx = { db, feedUrl, log }
+  const fakeSmtp = env.SMTP_URL ? undefined : await startMailServer({ port: env.SMTP_PORT })
+  const feedUrl = env.FEED_URL ?? fakeFeed!.url
+  const mailer = smtpMailer(env.SMTP_URL ?? fakeSmtp!.url, env.MAIL_FROM)
+  const mail = { mailer, origin: publicOrigin(env) }
+  const ctx = { db, feedUrl, log, mail, sessionSecret }
   const scheduler = startScheduler(ctx)
   void (async () => {
     const [row] = await db.select({ n: count() }).from(readings)
@@ -48,12 +55,16 @@ async function startFeedAndJobs(env: Env, db: Db, log: Logger) {
     await runIngestReadings(ctx)
     await runIngestWeather(ctx)
     log.info('readings and weather are up to date')
+    await runSendBriefs(ctx)
   })().catch((err: unknown) => log.error({ err }, 'first ingestion failed'))
   return {
-    feedUrl,
+    mail,
+    mailbox: fakeSmtp,
     stop: async () => {
       await scheduler.stop()
-      await fake?.close()
+      mailer.close()
+      await fakeSmtp?.close()
+      await fakeFeed?.close()
     },
   }
 }
@@ -100,7 +111,7 @@ export async function serveLocal(
     const stack = await prepareLocalStack(env)
     const logger = createLogger(env.LOG_LEVEL)
     const { close, ...client } = await serving(env)
-    const feed = await startFeedAndJobs(env, stack.db, logger)
+    const services = await startServicesAndJobs(env, stack.db, logger, stack.sessionSecret)
     await serve({
       ...client,
       db: stack.db,
@@ -110,8 +121,10 @@ export async function serveLocal(
       sessionSecret: stack.sessionSecret,
       secureCookies: false,
       appOrigin: env.APP_ORIGIN,
+      mail: services.mail,
+      mailbox: services.mailbox,
       onClose: async () => {
-        await feed.stop()
+        await services.stop()
         await close?.()
       },
       afterDbClose: async () => {
@@ -125,5 +138,7 @@ export async function serveLocal(
   console.log(`\nChopline is running at http://${env.HOST}:${env.PORT}\n`)
   console.log(`Demo sign-ins (password "${DEMO_PASSWORD}"):`)
   for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(7)} ${u.email}`)
+  if (!env.SMTP_URL)
+    console.log('Mail is caught locally, not sent: admins read it under Admin → Mail.')
   console.log('\nPress Ctrl-C to stop.')
 }

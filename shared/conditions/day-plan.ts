@@ -3,13 +3,13 @@ import { lakeCenter } from '../geo/polygon'
 import type { LakeGeometry } from '../geo/types'
 import { HOUR_MS, localDayBounds, toInstant } from '../time'
 import { clarityClass, type ClarityClass } from './clarity'
-import { openWaterWaveM as openWaterWave } from './exposure'
+import { compassName, openWaterWaveM as openWaterWave, ROUGH_WAVE_M } from './exposure'
 import { cautions, type Caution } from './safety'
 import { rankBanks, type Bank, type RankedBank, type WindowWeather } from './ranking'
 import type { SeasonalPhase } from './season'
 import { skyDay, type SkyDay } from './sky'
 import { tackleCalls, type TackleCall } from './tackle'
-import type { Cover, Sky } from './tackle-rules'
+import { SURFACE_BREAKING_WIND_MS, type Cover, type Sky } from './tackle-rules'
 
 export interface ForecastHour {
   at: string
@@ -215,4 +215,20 @@ export function dayPlan(
     lake: input.lake,
     lakeCover: input.lakeCover,
   })
+}
+
+/**
+ * Where to start on a lake where the angler has saved no banks, from the window's wind (common
+ * practice): the shore the wind blows onto when it breaks the surface, the lee when the open
+ * water is rough, cover anywhere when it is calm. Null when the forecast does not reach the window.
+ */
+export function lakeWideSuggestion(window: WindowDay): string | null {
+  const { weather } = window
+  if (!weather) return null
+  const from = compassName(weather.windFromDeg)
+  if (window.openWaterWaveM >= ROUGH_WAVE_M)
+    return `Rough open water: fish the ${from} shore, in the lee, and stay off the open lake.`
+  if (weather.windMs < SURFACE_BREAKING_WIND_MS)
+    return 'Little wind: work cover (wood, grass, docks) slowly anywhere on the lake.'
+  return `Wind from ${from}: start on windblown points and banks of the ${compassName(weather.windFromDeg + 180)} shore, rock and sparse grass first.`
 }

@@ -127,6 +127,9 @@ export function fetchFromTable(table: ExposureTable, windFromDeg: number): numbe
 
 export type ExposureClass = 'lee' | 'side wind' | 'windward' | 'rough'
 
+/** Waves a small boat notices as a chop: 0.3 m (1 ft), our line between windward and rough. */
+export const ROUGH_WAVE_M = 0.3
+
 export interface BankExposure {
   exposure: ExposureClass
   onshore: number
@@ -150,7 +153,7 @@ export function bankExposure(
   let exposure: ExposureClass
   if (onshore < -0.34 || fetchM < 50 || windMs < 1) exposure = 'lee'
   else if (onshore < 0.34) exposure = 'side wind'
-  else exposure = waveHeightM >= 0.3 ? 'rough' : 'windward'
+  else exposure = waveHeightM >= ROUGH_WAVE_M ? 'rough' : 'windward'
   return { exposure, onshore, fetchM, waveHeightM }
 }
 

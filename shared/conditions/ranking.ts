@@ -1,7 +1,13 @@
 import { DomainError } from '../errors'
 import type { LakeGeometry, Position } from '../geo/types'
 import type { ClarityClass } from './clarity'
-import { bankExposure, exposureTable, type BankExposure, type ExposureTable } from './exposure'
+import {
+  bankExposure,
+  exposureTable,
+  ROUGH_WAVE_M,
+  type BankExposure,
+  type ExposureTable,
+} from './exposure'
 import type { SeasonalPhase } from './season'
 import type { Cover, Sky } from './tackle-rules'
 
@@ -168,7 +174,7 @@ function safetyPoints(x: BankExposure, w: WindowWeather): ScoreComponent {
       points: -3,
       reason: 'Waves here are big enough to swamp a small boat.',
     }
-  if (x.waveHeightM >= 0.3)
+  if (x.waveHeightM >= ROUGH_WAVE_M)
     return { key: 'safety', points: -1, reason: 'A chop a small boat feels builds on this bank.' }
   if (w.gustMs >= 11.3 && x.onshore > 0)
     return { key: 'safety', points: -1, reason: 'Strong gusts push the boat onto this bank.' }

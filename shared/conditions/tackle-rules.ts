@@ -59,7 +59,8 @@ const clearish = (x: TackleInput) =>
 const has = (x: TackleInput, ...covers: Cover[]) => covers.some((c) => x.cover.includes(c))
 const inPhase = (x: TackleInput, ...phases: SeasonalPhase[]) => phases.includes(x.phase)
 /** Wind that breaks the surface: about 2.5 m/s (light breeze, Beaufort 2) and up. */
-const breezy = (x: TackleInput) => x.windMs >= 2.5
+export const SURFACE_BREAKING_WIND_MS = 2.5
+const breezy = (x: TackleInput) => x.windMs >= SURFACE_BREAKING_WIND_MS
 const spring = (x: TackleInput) => inPhase(x, 'early-pre-spawn', 'pre-spawn')
 
 /** How each family is rigged before any detail row applies. */

@@ -4,6 +4,8 @@ import request from 'supertest'
 import type { Role } from '../../shared/schemas/auth'
 import { createApp, type AppDeps } from '../../server/app'
 import type { Db } from '../../server/db/index'
+import { smtpMailer } from '../../server/features/mail/mailer'
+import { TEST_ORIGIN } from './mail'
 import { users } from '../../server/db/schema/index'
 
 export const TEST_SECRET = 'test-secret-that-is-long-enough-for-hs256-keys'
@@ -16,6 +18,11 @@ export function testApp(db: Db, overrides: Partial<AppDeps> = {}) {
     sessionSecret: TEST_SECRET,
     secureCookies: false,
     authRateLimit: { windowMs: 60_000, limit: 1000 },
+    // Nothing listens on the discard port: tests that send mail pass a mailer for the stand-in.
+    mail: {
+      mailer: smtpMailer('smtp://127.0.0.1:9', 'Chopline <test@chopline.example>'),
+      origin: TEST_ORIGIN,
+    },
     ...overrides,
   })
 }

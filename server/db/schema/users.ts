@@ -12,6 +12,8 @@ export const users = pgTable(
     email: text().notNull(),
     passwordHash: text().notNull(),
     role: role().notNull().default('angler'),
+    /** Set when the owner opens a verification link; the morning brief goes only to verified addresses. */
+    emailVerifiedAt: timestamp({ withTimezone: true }),
     ...timestamps,
   },
   (t) => [uniqueIndex('users_email_key').on(t.email)],

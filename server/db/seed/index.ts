@@ -2,15 +2,16 @@ import { inArray } from 'drizzle-orm'
 import { lakeAreaM2, lakeCenter } from '../../../shared/geo/polygon'
 import { hashPassword } from '../../features/auth/passwords'
 import type { Db } from '../index'
-import { lakes, stations, users } from '../schema/index'
+import { briefSettings, lakes, stations, subscriptions, users } from '../schema/index'
 import type { Role } from '../../../shared/schemas/auth'
 import { DEMO_LAKES, demoShoreline } from './demo-lakes'
 import { DEMO_STATIONS } from './demo-stations'
 
 /** Development only: `npm start` refuses to seed these when NODE_ENV=production. */
 export const DEMO_PASSWORD = 'chopline-demo'
+const DEMO_ANGLER = { email: 'angler@chopline.test', role: 'angler' } as const
 export const DEMO_USERS: { email: string; role: Role }[] = [
-  { email: 'angler@chopline.test', role: 'angler' },
+  DEMO_ANGLER,
   { email: 'guide@chopline.test', role: 'guide' },
   { email: 'admin@chopline.test', role: 'admin' },
 ]
@@ -28,12 +29,15 @@ export async function seedDemo(db: Db): Promise<void> {
       ),
     )
   const missing = DEMO_USERS.filter((u) => !existing.some((e) => e.email === u.email))
+  let created: { id: string; email: string }[] = []
   if (missing.length) {
     const passwordHash = await hashPassword(DEMO_PASSWORD)
-    await db
+    created = await db
       .insert(users)
-      .values(missing.map((u) => ({ ...u, passwordHash })))
+      // Demo addresses are confirmed, so the morning brief reaches the local inbox at once.
+      .values(missing.map((u) => ({ ...u, passwordHash, emailVerifiedAt: new Date() })))
       .onConflictDoNothing({ target: users.email })
+      .returning({ id: users.id, email: users.email })
   }
 
   const rows = DEMO_LAKES.map((shape) => {
@@ -65,4 +69,14 @@ export async function seedDemo(db: Db): Promise<void> {
       }),
     )
     .onConflictDoNothing({ target: stations.feedThingId })
+
+  // A new demo angler follows the first lake and takes the morning brief at the default hour.
+  const angler = created.find((u) => u.email === DEMO_ANGLER.email)
+  const firstLake = DEMO_LAKES[0]!
+  if (angler) {
+    await db
+      .insert(subscriptions)
+      .values({ userId: angler.id, lakeId: lakeIds.get(firstLake.slug)! })
+    await db.insert(briefSettings).values({ userId: angler.id, timeZone: firstLake.timeZone })
+  }
 }

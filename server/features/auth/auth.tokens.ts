@@ -34,3 +34,38 @@ export async function verifySessionToken(
     return null
   }
 }
+
+/** What a signed link may do; a token made for one purpose is refused for every other. */
+export type LinkPurpose = 'verify-email' | 'brief-unsubscribe'
+
+/**
+ * A token for a link in an e-mail: signed with the app's key, bound to one purpose (the JWT
+ * audience) and one subject, with claims the link needs and an expiry.
+ */
+export async function signLinkToken(
+  key: Uint8Array,
+  link: { purpose: LinkPurpose; subject: string; claims?: Record<string, string>; expiresAt: Date },
+): Promise<string> {
+  return new SignJWT(link.claims ?? {})
+    .setProtectedHeader({ alg: 'HS256' })
+    .setAudience(link.purpose)
+    .setSubject(link.subject)
+    .setIssuedAt()
+    .setExpirationTime(link.expiresAt)
+    .sign(key)
+}
+
+/** The subject and claims of a valid link token for `purpose`; null if forged, expired or another kind. */
+export async function verifyLinkToken(
+  key: Uint8Array,
+  purpose: LinkPurpose,
+  token: string,
+): Promise<{ subject: string; claims: Record<string, unknown> } | null> {
+  try {
+    const { payload } = await jwtVerify(token, key, { algorithms: ['HS256'], audience: purpose })
+    if (typeof payload.sub !== 'string') return null
+    return { subject: payload.sub, claims: payload }
+  } catch {
+    return null
+  }
+}

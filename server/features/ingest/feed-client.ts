@@ -30,7 +30,10 @@ export class FeedError extends Error {
 const RETRYABLE = new Set<FeedErrorKind>(['timeout', 'network', 'http', 'parse'])
 
 /** Exponential backoff with "equal jitter": half the delay fixed, half random. */
-export function backoffMs(policy: FetchPolicy, attempt: number): number {
+export function backoffMs(
+  policy: Pick<FetchPolicy, 'baseDelayMs' | 'maxDelayMs'>,
+  attempt: number,
+): number {
   const ceiling = Math.min(policy.maxDelayMs, policy.baseDelayMs * 2 ** attempt)
   return ceiling / 2 + (Math.random() * ceiling) / 2
 }

@@ -1,0 +1,18 @@
+import { tokenKey } from '../server/features/auth/auth.tokens'
+import { sendBriefs, type BriefDeps } from '../server/features/brief/send-briefs'
+import { withJobLock } from '../server/features/ingest/job-lock'
+import { runFromCli, type JobContext } from './cli'
+
+/** Every five minutes: briefs whose local send time has passed, and retries that are due. */
+export const SEND_BRIEFS_CRON = '*/5 * * * *'
+
+export function runSendBriefs(
+  ctx: Pick<JobContext, 'db' | 'log' | 'mail' | 'sessionSecret'> &
+    Pick<BriefDeps, 'now' | 'policy'>,
+) {
+  return withJobLock(ctx.db, 'send-briefs', ctx.log, () =>
+    sendBriefs({ ...ctx, linkKey: tokenKey(ctx.sessionSecret) }),
+  )
+}
+
+runFromCli(import.meta.url, (ctx) => runSendBriefs(ctx))

@@ -1,0 +1,176 @@
+import { lakeWideSuggestion, planForBanks, type LakeDay } from '../../../shared/conditions/day-plan'
+import type { Bank } from '../../../shared/conditions/ranking'
+import {
+  AUTHORITY_CAUTION,
+  type Caution,
+  type CautionLevel,
+} from '../../../shared/conditions/safety'
+import type { TackleCall } from '../../../shared/conditions/tackle'
+import { makeFormat, type Format } from '../../../shared/format'
+import type { BriefSettings } from '../../../shared/schemas/brief'
+import type { LakeRead } from '../../../shared/schemas/lake-read'
+import { dateLabel } from '../../../shared/time'
+
+/** A followed lake as the brief sees it: cached read and day, and this subscriber's banks there. */
+export interface BriefLake {
+  slug: string
+  name: string
+  timeZone: string
+  read: LakeRead | null
+  /** The cached day for the brief's date; null when there is none. */
+  day: LakeDay | null
+  banks: Bank[]
+}
+
+export interface BriefInput {
+  /** The subscriber's local date the brief is for. */
+  date: string
+  units: BriefSettings['units']
+  lakes: BriefLake[]
+  /** The app's public origin, for links. */
+  origin: string
+  unsubscribeUrl: string
+}
+
+/** The brief as its templates show it: every value already in words and the subscriber's units. */
+export interface BriefView {
+  subject: string
+  preheader: string
+  dateLabel: string
+  lakes: LakeSection[]
+  authority: string
+  settingsUrl: string
+  unsubscribeUrl: string
+}
+
+interface LakeSection {
+  name: string
+  planUrl: string
+  read: string
+  /** Why there is no plan today, instead of windows. */
+  unavailable: string | null
+  windows: WindowSection[]
+  cautions: { level: CautionLevel; danger: boolean; message: string }[]
+}
+
+interface WindowSection {
+  label: string
+  hours: string
+  wind: string
+  banks: { rank: number; name: string; exposure: string; reason: string }[]
+  /** Where to start when no banks are saved on this lake. */
+  suggestion: string | null
+  tackle: { call: string; why: string } | null
+}
+
+const TOP_BANKS = 3
+const CAUTION_RANK: Record<CautionLevel, number> = { danger: 0, warning: 1, caution: 2, info: 3 }
+
+const words = (slug: string) => slug.replace(/-/g, ' ')
+const capitalised = (s: string) => s.charAt(0).toUpperCase() + s.slice(1)
+
+/** "Spinnerbait: willow-colorado blades, gold and silver; white, chartreuse; no trailer; erratic". */
+function tackleLine(call: TackleCall): string {
+  const parts = [
+    call.blade && `${words(call.blade)} blades${call.bladeFinish ? `, ${call.bladeFinish}` : ''}`,
+    call.size,
+    call.colors.join(', '),
+    call.trailer !== undefined && (call.trailer ? `${call.trailer} trailer` : 'no trailer'),
+    call.trailerHook !== undefined && (call.trailerHook ? 'trailer hook' : 'no trailer hook'),
+    `${call.retrieve} retrieve`,
+  ].filter(Boolean)
+  return `${capitalised(call.family)}: ${parts.join('; ')}`
+}
+
+function readLine(read: LakeRead | null, day: LakeDay | null, f: Format): string {
+  if (!read) return 'No readings from this lake yet.'
+  const phase = day?.phase ?? read.phase?.phase
+  const parts = [
+    read.waterTemp
+      ? `Water ${f.temp(read.waterTemp.valueC)}, ${f.tempTrend(read.waterTemp.trendCPerDay)}${read.waterTemp.stale ? ' (old reading)' : ''}`
+      : 'No water temperature',
+    read.clarity
+      ? `${capitalised(words(read.clarity.class))} (${f.length(read.clarity.secchiM)} visibility)${read.clarity.trend ? `, ${read.clarity.trend.label}` : ''}${read.clarity.stale ? ' (old reading)' : ''}`
+      : 'no clarity reading',
+    phase && words(phase),
+  ].filter(Boolean)
+  return parts.join(' · ')
+}
+
+function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection {
+  const planUrl = `${input.origin}/lakes/${lake.slug}/plan/${input.date}`
+  const read = readLine(lake.read, lake.day, f)
+  if (!lake.day) {
+    return {
+      name: lake.name,
+      planUrl,
+      read,
+      unavailable: 'No plan for today yet: the lake needs fresh readings and a forecast.',
+      windows: [],
+      cautions: [],
+    }
+  }
+  const plan = planForBanks(lake.day, lake.banks)
+  const cautions = new Map<string, Caution>()
+  const windows = plan.windows.map((w): WindowSection => {
+    for (const c of w.cautions) if (c.kind !== 'authority') cautions.set(c.message, c)
+    const hours = `${f.time(w.start, lake.timeZone)} – ${f.time(w.end, lake.timeZone)}`
+    if (!w.weather)
+      return {
+        label: w.label,
+        hours,
+        wind: 'beyond the forecast',
+        banks: [],
+        suggestion: null,
+        tackle: null,
+      }
+    const best = w.tackle[0]
+    return {
+      label: w.label,
+      hours,
+      wind: `${f.speed(w.weather.windMs)} ${f.from(w.weather.windFromDeg)}, gusts ${f.speed(w.weather.gustMs)}`,
+      banks: w.banks.slice(0, TOP_BANKS).map((b) => {
+        const strongest = [...b.components].sort((x, y) => y.points - x.points)[0]
+        return {
+          rank: b.rank,
+          name: b.name,
+          exposure: b.exposure.exposure,
+          reason: strongest?.reason ?? '',
+        }
+      }),
+      suggestion: lake.banks.length ? null : lakeWideSuggestion(w),
+      tackle: best ? { call: tackleLine(best), why: best.why.join(' ') } : null,
+    }
+  })
+  return {
+    name: lake.name,
+    planUrl,
+    read,
+    unavailable: null,
+    windows,
+    cautions: [...cautions.values()]
+      .sort((a, b) => CAUTION_RANK[a.level] - CAUTION_RANK[b.level])
+      .map((c) => ({
+        level: c.level,
+        danger: c.level === 'danger' || c.level === 'warning',
+        message: c.message,
+      })),
+  }
+}
+
+/** The morning brief for one subscriber, from cached days and stored bank tables only. */
+export function composeBrief(input: BriefInput): BriefView {
+  const f = makeFormat({ ...input.units, homeLakeSlug: null })
+  const lakes = input.lakes.map((lake) => lakeSection(lake, input, f))
+  const day = dateLabel(input.date)
+  const names = lakes.map((l) => l.name)
+  return {
+    subject: `Morning brief, ${day}: ${names.length <= 2 ? names.join(' and ') : `${names.length} lakes`}`,
+    preheader: lakes.map((l) => `${l.name}: ${l.read}`).join(' | '),
+    dateLabel: dateLabel(input.date, 'long'),
+    lakes,
+    authority: AUTHORITY_CAUTION.message,
+    settingsUrl: `${input.origin}/settings#brief`,
+    unsubscribeUrl: input.unsubscribeUrl,
+  }
+}
