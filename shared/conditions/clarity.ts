@@ -11,6 +11,14 @@ export const CLARITY_CLASSES = [
 ] as const
 export type ClarityClass = (typeof CLARITY_CLASSES)[number]
 
+export const CLARITY_LABELS: Record<ClarityClass, string> = {
+  muddy: 'muddy',
+  stained: 'stained',
+  'lightly-stained': 'lightly stained',
+  clear: 'clear',
+  'very-clear': 'very clear',
+}
+
 /**
  * Upper Secchi depth of each class, metres. Stained at 0.6 m (2 ft) or less and muddy below about
  * 0.3 m (1 ft) are common practice; 1.2 m (4 ft) and 3 m (10 ft) are our own breakpoints.

@@ -12,6 +12,17 @@ export const SEASONAL_PHASES = [
 ] as const
 export type SeasonalPhase = (typeof SEASONAL_PHASES)[number]
 
+/** The phases in words, as anglers write them. */
+export const PHASE_LABELS: Record<SeasonalPhase, string> = {
+  winter: 'winter',
+  'early-pre-spawn': 'early pre-spawn',
+  'pre-spawn': 'pre-spawn',
+  spawn: 'spawn',
+  'post-spawn': 'post-spawn',
+  summer: 'summer',
+  fall: 'fall',
+}
+
 /**
  * Thresholds on the 5-day mean water temperature, °C. Sources:
  * early pre-spawn from the mid 40s °F when warming (common practice);

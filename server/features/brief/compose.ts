@@ -5,6 +5,8 @@ import {
   type Caution,
   type CautionLevel,
 } from '../../../shared/conditions/safety'
+import { CLARITY_LABELS } from '../../../shared/conditions/clarity'
+import { PHASE_LABELS } from '../../../shared/conditions/season'
 import type { TackleCall } from '../../../shared/conditions/tackle'
 import { makeFormat, type Format } from '../../../shared/format'
 import type { BriefSettings } from '../../../shared/schemas/brief'
@@ -61,6 +63,8 @@ interface WindowSection {
   /** Where to start when no banks are saved on this lake. */
   suggestion: string | null
   tackle: { call: string; why: string } | null
+  /** The earlier window whose banks and tackle this one repeats, which are then left out. */
+  sameAs: string | null
 }
 
 const TOP_BANKS = 3
@@ -69,17 +73,17 @@ const CAUTION_RANK: Record<CautionLevel, number> = { danger: 0, warning: 1, caut
 const words = (slug: string) => slug.replace(/-/g, ' ')
 const capitalised = (s: string) => s.charAt(0).toUpperCase() + s.slice(1)
 
-/** "Spinnerbait: willow-colorado blades, gold and silver; white, chartreuse; no trailer; erratic". */
+/** "Spinnerbait. Blades: colorado, gold. Colours: white, chartreuse. Retrieve: …", as the Day plan lists it. */
 function tackleLine(call: TackleCall): string {
   const parts = [
-    call.blade && `${words(call.blade)} blades${call.bladeFinish ? `, ${call.bladeFinish}` : ''}`,
-    call.size,
-    call.colors.join(', '),
-    call.trailer !== undefined && (call.trailer ? `${call.trailer} trailer` : 'no trailer'),
-    call.trailerHook !== undefined && (call.trailerHook ? 'trailer hook' : 'no trailer hook'),
-    `${call.retrieve} retrieve`,
+    call.blade && `Blades: ${words(call.blade)}${call.bladeFinish ? `, ${call.bladeFinish}` : ''}`,
+    call.size && `Size: ${call.size}`,
+    `Colours: ${call.colors.join(', ')}`,
+    call.trailer !== undefined && `Trailer: ${call.trailer}`,
+    call.trailerHook !== undefined && `Trailer hook: ${call.trailerHook ? 'yes' : 'no'}`,
+    `Retrieve: ${call.retrieve}`,
   ].filter(Boolean)
-  return `${capitalised(call.family)}: ${parts.join('; ')}`
+  return [capitalised(call.family), ...parts].join('. ')
 }
 
 function readLine(read: LakeRead | null, day: LakeDay | null, f: Format): string {
@@ -90,9 +94,9 @@ function readLine(read: LakeRead | null, day: LakeDay | null, f: Format): string
       ? `Water ${f.temp(read.waterTemp.valueC)}, ${f.tempTrend(read.waterTemp.trendCPerDay)}${read.waterTemp.stale ? ' (old reading)' : ''}`
       : 'No water temperature',
     read.clarity
-      ? `${capitalised(words(read.clarity.class))} (${f.length(read.clarity.secchiM)} visibility)${read.clarity.trend ? `, ${read.clarity.trend.label}` : ''}${read.clarity.stale ? ' (old reading)' : ''}`
+      ? `${capitalised(CLARITY_LABELS[read.clarity.class])} (${f.length(read.clarity.secchiM)} visibility)${read.clarity.trend ? `, ${read.clarity.trend.label}` : ''}${read.clarity.stale ? ' (old reading)' : ''}`
       : 'no clarity reading',
-    phase && words(phase),
+    phase && PHASE_LABELS[phase],
   ].filter(Boolean)
   return parts.join(' · ')
 }
@@ -123,6 +127,7 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
         banks: [],
         suggestion: null,
         tackle: null,
+        sameAs: null,
       }
     const best = w.tackle[0]
     return {
@@ -140,14 +145,23 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
       }),
       suggestion: lake.banks.length ? null : lakeWideSuggestion(w),
       tackle: best ? { call: tackleLine(best), why: best.why.join(' ') } : null,
+      sameAs: null,
     }
+  })
+  // A steady wind gives every window the same picks: say so rather than repeat them.
+  const picks = windows.map((w) => JSON.stringify([w.banks, w.suggestion, w.tackle]))
+  const shown = windows.map((w, i): WindowSection => {
+    const first = picks.indexOf(picks[i]!)
+    if (first === i || !w.tackle) return w
+    const sameAs = windows[first]!.label.toLowerCase()
+    return { ...w, banks: [], suggestion: null, tackle: null, sameAs }
   })
   return {
     name: lake.name,
     planUrl,
     read,
     unavailable: null,
-    windows,
+    windows: shown,
     cautions: [...cautions.values()]
       .sort((a, b) => CAUTION_RANK[a.level] - CAUTION_RANK[b.level])
       .map((c) => ({

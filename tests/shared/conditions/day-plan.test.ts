@@ -1,10 +1,12 @@
 import { describe, expect, it } from 'vitest'
 import {
   dayPlan,
+  lakeWideSuggestion,
   lakeDay,
   planForBanks,
   type ForecastHour,
   type LakeDay,
+  type WindowDay,
 } from '../../../shared/conditions/day-plan'
 import { exposureTable } from '../../../shared/conditions/exposure'
 import { DomainError } from '../../../shared/errors'
@@ -187,5 +189,35 @@ describe('lakeDay + planForBanks', () => {
 
   it('refuses a bank with neither a stored table nor the lake to compute one', () => {
     expect(() => planForBanks(lakeDay(input), banks)).toThrow(DomainError)
+  })
+})
+
+describe('lakeWideSuggestion', () => {
+  const window = (windMs: number, openWaterWaveM: number): WindowDay => ({
+    id: 'dawn',
+    label: 'Dawn to mid-morning',
+    start: '2026-04-10T11:00:00Z',
+    end: '2026-04-10T14:00:00Z',
+    weather: {
+      windFromDeg: 225,
+      windMs,
+      gustMs: windMs * 1.4,
+      sky: 'partly',
+      airC: 18,
+      relativeHumidityPct: 60,
+      thunderstormProbabilityPct: 0,
+    },
+    openWaterWaveM,
+  })
+
+  it('sends the angler to the shore the wind blows onto when it breaks the surface (common practice)', () => {
+    expect(lakeWideSuggestion(window(5, 0.2))).toMatch(/^Wind from SW: .* NE shore/)
+  })
+  it('keeps to the lee when the open water is rough (common practice)', () => {
+    expect(lakeWideSuggestion(window(11, 0.5))).toMatch(/SW shore, in the lee/)
+  })
+  it('works cover anywhere in a calm (common practice), and says nothing past the forecast', () => {
+    expect(lakeWideSuggestion(window(1, 0))).toMatch(/^Little wind/)
+    expect(lakeWideSuggestion({ ...window(1, 0), weather: null })).toBeNull()
   })
 })
