@@ -60,6 +60,26 @@ const router = createRouter({
       meta: { role: 'admin', title: 'Users' },
     },
     {
+      path: '/verify-email',
+      name: 'verify-email',
+      component: () => import('@/views/MailLinkView.vue'),
+      props: { action: 'verify' },
+      meta: { title: 'Confirm your address' },
+    },
+    {
+      path: '/unsubscribe',
+      name: 'unsubscribe',
+      component: () => import('@/views/MailLinkView.vue'),
+      props: { action: 'unsubscribe' },
+      meta: { title: 'Unsubscribe' },
+    },
+    {
+      path: '/admin/mail',
+      name: 'admin-mail',
+      component: () => import('@/views/AdminMailView.vue'),
+      meta: { role: 'admin', title: 'Mail' },
+    },
+    {
       path: '/:pathMatch(.*)*',
       name: 'not-found',
       component: () => import('@/views/NotFoundView.vue'),

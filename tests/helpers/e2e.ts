@@ -10,10 +10,12 @@ import { testApp } from './app'
 import { launchBrowser } from './browser'
 import { createTestDb } from './db'
 import { ingestDeps, startTestFeed } from './feed'
+import { startTestMail } from './mail'
 
 /**
  * The demo data with `days` of Quillmere readings and the weather from the fake feed, as npm start
- * loads them, with the conditions cache refreshed; the built client served as npm start serves it; and Chromium.
+ * loads them, with the conditions cache refreshed; the built client served as npm start serves it,
+ * sending mail to the local SMTP stand-in; and Chromium.
  */
 export async function startE2e(days: number) {
   const ctx = await createTestDb()
@@ -25,17 +27,24 @@ export async function startE2e(days: number) {
   // As the ingest jobs do after each run.
   await conditionsFor(ctx.db).refreshAll()
   await feed.close()
+  const mail = await startTestMail()
   // npm test runs vite build before the tests.
-  const server = testApp(ctx.db, { staticDir: clientDir }).listen(0, '127.0.0.1')
+  const server = testApp(ctx.db, {
+    staticDir: clientDir,
+    mail: mail.mail,
+    mailbox: mail.smtp,
+  }).listen(0, '127.0.0.1')
   await new Promise((resolve) => server.once('listening', resolve))
   const browser = await launchBrowser()
   return {
     db: ctx.db,
     base: `http://127.0.0.1:${(server.address() as AddressInfo).port}`,
     browser,
+    mail,
     close: async () => {
       await browser.close()
       server.close()
+      await mail.close()
       await ctx.drop()
     },
   }
