@@ -1,5 +1,6 @@
 /** `npm run bench -- NAME`: runs one benchmark; each prints a table and ends with one JSON line. */
 const benches: Record<string, () => Promise<unknown>> = {
+  brief: () => import('./brief'),
   dashboard: () => import('./dashboard'),
   exposure: () => import('./exposure'),
   ingest: () => import('./ingest'),

@@ -89,8 +89,9 @@ describe("the angler's day in Chromium", () => {
     // Metric units apply to the plan as well.
     await page.getByRole('link', { name: 'Settings' }).click()
     await expectAccessible(page, 'Settings')
-    await page.getByRole('radio', { name: 'metres' }).check({ force: true })
-    await page.getByRole('button', { name: 'Save' }).click()
+    const units = page.getByRole('region', { name: 'Units and home lake' })
+    await units.getByRole('radio', { name: 'metres' }).check({ force: true })
+    await units.getByRole('button', { name: 'Save' }).click()
     await page.getByText('Settings saved.').waitFor()
     await page.goto(`${base}/lakes/quillmere`)
     await page.locator('.banks-slot').scrollIntoViewIfNeeded()

@@ -78,9 +78,10 @@ describe('sign-in in Chromium', () => {
     await page.screenshot({ path: join(artifactsDir, 'lake-read-phone.png'), fullPage: true })
     // Switch to metric units and see the same lake in them.
     await page.getByRole('link', { name: 'Settings' }).click()
-    await page.getByRole('radio', { name: '°C' }).check({ force: true })
-    await page.getByRole('radio', { name: 'metres' }).check({ force: true })
-    await page.getByRole('button', { name: 'Save' }).click()
+    const units = page.getByRole('region', { name: 'Units and home lake' })
+    await units.getByRole('radio', { name: '°C' }).check({ force: true })
+    await units.getByRole('radio', { name: 'metres' }).check({ force: true })
+    await units.getByRole('button', { name: 'Save' }).click()
     await page.getByText('Settings saved.').waitFor()
     await page.goto(`${base}/lakes/quillmere`)
     await expect.poll(() => page.getByRole('region', { name: 'Water' }).innerText()).toMatch(/°C/)

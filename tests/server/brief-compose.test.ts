@@ -4,9 +4,9 @@ import { exposureTable } from '../../shared/conditions/exposure'
 import type { Bank } from '../../shared/conditions/ranking'
 import type { Polygon, Position } from '../../shared/geo/types'
 import type { BriefSettings } from '../../shared/schemas/brief'
-import type { LakeRead } from '../../shared/schemas/lake-read'
 import { composeBrief, type BriefLake } from '../../server/features/brief/compose'
 import { renderBrief } from '../../server/features/brief/render'
+import { sampleRead } from '../helpers/lake-read-fixture'
 import { box, densified } from '../shared/geo/fixtures'
 
 // Invented data: a 9 km × 5.5 km box lake in the demo's part of the world.
@@ -77,48 +77,16 @@ const banks = [
   ),
 ]
 
-const read: LakeRead = {
-  lake: {
-    id: '00000000-0000-4000-8000-000000000001',
-    slug: 'boxwater',
-    name: 'Boxwater Reservoir',
-    region: 'Invented County',
-    timeZone,
-    normalPoolM: 100,
-    areaKm2: 50,
-    center: [-88.05, 35.025],
-  },
-  asOf: '2026-04-10T10:00:00.000Z',
-  lastReadingAt: '2026-04-10T09:45:00.000Z',
-  waterTemp: { at: '2026-04-10T09:45:00.000Z', stale: false, valueC: 12.5, trendCPerDay: 0.5 },
-  clarity: {
-    at: '2026-04-10T09:45:00.000Z',
-    stale: false,
-    secchiM: 0.5,
-    source: 'turbidity',
-    class: 'stained',
-    tsi: 70,
-    trend: { slopePerDay: 0.05, label: 'clearing', daysToNextClass: 3 },
-  },
-  level: null,
-  windNow: null,
-  windNext12h: [],
-  airC: 18,
-  pressure: null,
-  sky: {
-    sunrise: null,
-    sunset: null,
-    civilDawn: null,
-    civilDusk: null,
-    moonrise: null,
-    moonset: null,
-    moonIllumination: 0.5,
-    moonPhase: 'first quarter',
-  },
-  phase: { phase: 'pre-spawn', reason: 'Water in the 50s °F and warming.' },
-  openWaterWaveM: 0.2,
-  cautions: [],
-}
+const read = sampleRead({
+  id: '00000000-0000-4000-8000-000000000001',
+  slug: 'boxwater',
+  name: 'Boxwater Reservoir',
+  region: 'Invented County',
+  timeZone,
+  normalPoolM: 100,
+  areaKm2: 50,
+  center: [-88.05, 35.025],
+})
 
 const US: BriefSettings['units'] = { temperature: 'F', length: 'ft', speed: 'mph', clock: '12h' }
 const lake = (over: Partial<BriefLake> = {}): BriefLake => ({

@@ -1,0 +1,42 @@
+import type { LakeRead } from '../../shared/schemas/lake-read'
+import type { LakeSummary } from '../../shared/schemas/lakes'
+
+/**
+ * An invented Lake read for tests and benchmarks that need one without a month of readings:
+ * stained water at 12.5 °C, warming and clearing, in the pre-spawn phase.
+ */
+export function sampleRead(lake: LakeSummary, at = '2026-04-10T09:45:00.000Z'): LakeRead {
+  return {
+    lake,
+    asOf: at,
+    lastReadingAt: at,
+    waterTemp: { at, stale: false, valueC: 12.5, trendCPerDay: 0.5 },
+    clarity: {
+      at,
+      stale: false,
+      secchiM: 0.5,
+      source: 'turbidity',
+      class: 'stained',
+      tsi: 70,
+      trend: { slopePerDay: 0.05, label: 'clearing', daysToNextClass: 3 },
+    },
+    level: null,
+    windNow: null,
+    windNext12h: [],
+    airC: 18,
+    pressure: null,
+    sky: {
+      sunrise: null,
+      sunset: null,
+      civilDawn: null,
+      civilDusk: null,
+      moonrise: null,
+      moonset: null,
+      moonIllumination: 0.5,
+      moonPhase: 'first quarter',
+    },
+    phase: { phase: 'pre-spawn', reason: 'Water in the 50s °F and warming.' },
+    openWaterWaveM: 0.2,
+    cautions: [],
+  }
+}
