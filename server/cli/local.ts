@@ -55,7 +55,7 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
     await runIngestReadings(ctx)
     await runIngestWeather(ctx)
     log.info('readings and weather are up to date')
-    await runSendBriefs(ctx)
+    log.info({ result: await runSendBriefs(ctx) }, 'morning briefs due now sent')
   })().catch((err: unknown) => log.error({ err }, 'first ingestion failed'))
   return {
     mail,
