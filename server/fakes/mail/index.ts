@@ -9,6 +9,8 @@ export interface MailControls {
   refuse: Map<string, 'temporary' | 'permanent'>
   /** The next this many messages are refused with 451 after their data arrives. */
   failNext: number
+  /** How long each message waits for its 250 reply: time for a test to kill the sender mid-send. */
+  stallMs: number
 }
 
 function smtpError(code: number, message: string) {
@@ -24,7 +26,9 @@ export async function startMailServer(opts: { port?: number; keep?: number } = {
   const keep = opts.keep ?? 500
   const caught: CaughtMail[] = []
   let nextId = 1
-  const controls: MailControls = { refuse: new Map(), failNext: 0 }
+  const controls: MailControls = { refuse: new Map(), failNext: 0, stallMs: 0 }
+  // Sessions whose client went away: a message not yet acknowledged with 250 is not delivered.
+  const closed = new Set<string>()
 
   const server = new SMTPServer({
     authOptional: true,
@@ -37,9 +41,14 @@ export async function startMailServer(opts: { port?: number; keep?: number } = {
       if (refusal === 'permanent') return callback(smtpError(550, 'No such mailbox'))
       callback()
     },
+    onClose(session) {
+      closed.add(session.id)
+    },
     onData(stream, session, callback) {
       simpleParser(stream)
-        .then((parsed) => {
+        .then(async (parsed) => {
+          if (controls.stallMs) await new Promise((r) => setTimeout(r, controls.stallMs))
+          if (closed.has(session.id)) return callback(smtpError(421, 'Client went away'))
           if (controls.failNext > 0) {
             controls.failNext--
             return callback(smtpError(451, 'Temporary local problem, try again later'))
