@@ -1,12 +1,11 @@
 import { join } from 'node:path'
 import { eq } from 'drizzle-orm'
 import { pino } from 'pino'
-import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { briefSettings, users } from '../../server/db/schema/index'
 import { runSendBriefs } from '../../jobs/send-briefs'
 import { TEST_SECRET } from '../helpers/app'
-import { seriousViolations } from '../helpers/axe'
+import { expectAccessible } from '../helpers/axe'
 import { artifactsDir } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
 import { signInAs } from '../helpers/signin'
@@ -26,11 +25,6 @@ function linkOnThisServer(text: string, prefix: string): string {
   expect(at, `a ${prefix} link`).toBeGreaterThanOrEqual(0)
   const url = new URL(text.slice(at).split(/\s/)[0]!)
   return `${base}${url.pathname}${url.search}`
-}
-
-async function expectAccessible(page: Page, name: string) {
-  await page.locator('.n-message').waitFor({ state: 'detached' })
-  expect(await seriousViolations(page), name).toEqual([])
 }
 
 describe('the morning brief in Chromium', () => {

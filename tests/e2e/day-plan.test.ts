@@ -1,7 +1,7 @@
 import { join } from 'node:path'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { seriousViolations } from '../helpers/axe'
+import { expectAccessible } from '../helpers/axe'
 import { artifactsDir } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
 import { signInAs } from '../helpers/signin'
@@ -25,12 +25,6 @@ async function tapShore(page: Page, share: number) {
     return { x: p.x * m.a + m.e + 3, y: p.y * m.d + m.f + 3 }
   })()`)
   await page.mouse.click(x, y)
-}
-
-async function expectAccessible(page: Page, name: string) {
-  // A toast mid-fade has no settled colours to judge.
-  await page.locator('.n-message').waitFor({ state: 'detached' })
-  expect(await seriousViolations(page), name).toEqual([])
 }
 
 describe("the angler's day in Chromium", () => {

@@ -1,4 +1,5 @@
 import AxeBuilder from '@axe-core/playwright'
+import { expect } from 'vitest'
 import type { Page } from 'playwright-core'
 
 /**
@@ -13,4 +14,11 @@ export async function seriousViolations(page: Page) {
   return violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
     .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join('; ')})`)
+}
+
+/** Fails the test with the findings when the page has serious or critical ones. */
+export async function expectAccessible(page: Page, name: string) {
+  // A toast mid-fade has no settled colours to judge.
+  await page.locator('.n-message').waitFor({ state: 'detached' })
+  expect(await seriousViolations(page), name).toEqual([])
 }
