@@ -74,6 +74,20 @@ export async function sendBriefs(deps: BriefDeps) {
       lakes.set(`${lake.id} ${lake.date}`, lake)
   }
 
+  /** Records a try that failed: another later when it may still succeed, else failed for good. */
+  async function fail(claim: Claim, err: unknown, retryable: boolean) {
+    const message = err instanceof Error ? err.message : String(err)
+    const retry = retryable && claim.attempts < policy.maxAttempts
+    const retryAt = retry ? new Date(now.getTime() + backoffMs(policy, claim.attempts - 1)) : null
+    await repo.markFailed(claim, message, clock(), retryAt)
+    if (retry) totals.retrying++
+    else totals.failed++
+    deps.log.warn(
+      { userId: claim.userId, localDate: claim.localDate, attempts: claim.attempts, retryAt },
+      `morning brief not delivered: ${message}`,
+    )
+  }
+
   async function deliver(claim: Claim, to: Recipient, banks: Map<string, Bank[]>) {
     const { origin } = deps.mail
     const token = await signLinkToken(deps.linkKey, {
@@ -81,20 +95,29 @@ export async function sendBriefs(deps: BriefDeps) {
       subject: to.userId,
       expiresAt: new Date(now.getTime() + UNSUBSCRIBE_DAYS * DAY_MS),
     })
-    const view = composeBrief({
-      date: claim.localDate,
-      units: to.units,
-      origin,
-      unsubscribeUrl: `${origin}/unsubscribe?token=${token}`,
-      lakes: to.lakeIds.map((lakeId) => ({
-        ...lakes.get(`${lakeId} ${claim.localDate}`)!,
-        banks: banks.get(`${to.userId} ${lakeId}`) ?? [],
-      })),
-    })
+    let rendered
     try {
-      const { messageId } = await deps.mail.mailer.send({
+      rendered = renderBrief(
+        composeBrief({
+          date: claim.localDate,
+          units: to.units,
+          origin,
+          unsubscribeUrl: `${origin}/unsubscribe?token=${token}`,
+          lakes: to.lakeIds.map((lakeId) => ({
+            ...lakes.get(`${lakeId} ${claim.localDate}`)!,
+            banks: banks.get(`${to.userId} ${lakeId}`) ?? [],
+          })),
+        }),
+      )
+    } catch (err) {
+      // Bad cached data will not mend itself by the next try; one subscriber never stops the rest.
+      return fail(claim, err, false)
+    }
+    let sent
+    try {
+      sent = await deps.mail.mailer.send({
         to: to.email,
-        ...renderBrief(view),
+        ...rendered,
         // The same id on every try, so a brief resent after a crash is recognisably one message.
         messageId: `<brief.${claim.localDate}.${to.userId}@chopline.invalid>`,
         headers: {
@@ -102,20 +125,12 @@ export async function sendBriefs(deps: BriefDeps) {
           'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click',
         },
       })
-      await repo.markSent(claim, messageId, clock())
-      totals.sent++
     } catch (err) {
-      const message = err instanceof Error ? err.message : String(err)
-      const retry = !isPermanentMailError(err) && claim.attempts < policy.maxAttempts
-      const retryAt = retry ? new Date(now.getTime() + backoffMs(policy, claim.attempts - 1)) : null
-      await repo.markFailed(claim, message, clock(), retryAt)
-      if (retry) totals.retrying++
-      else totals.failed++
-      deps.log.warn(
-        { userId: to.userId, localDate: claim.localDate, attempts: claim.attempts, retryAt },
-        `morning brief not delivered: ${message}`,
-      )
+      return fail(claim, err, !isPermanentMailError(err))
     }
+    // Outside the catch: a database error here must not count as a refused send and retry it.
+    await repo.markSent(claim, sent.messageId, clock())
+    totals.sent++
   }
 
   async function deliverBatch(claims: Claim[]) {
