@@ -10,7 +10,7 @@ import { signLinkToken, verifyLinkToken } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import type { BriefSendsRepo } from './brief-sends.repo'
 import type { BriefRepo } from './brief.repo'
-import { renderVerification } from './render'
+import { mailTemplate } from '../mail/render'
 
 /** The local SMTP stand-in's catch, which the development inbox lists. */
 export interface Mailbox {
@@ -19,6 +19,12 @@ export interface Mailbox {
 }
 
 const VERIFY_HOURS = 24
+const renderVerification = mailTemplate<{
+  subject: string
+  email: string
+  url: string
+  hours: number
+}>('verify')
 
 const badLink = (what: string) =>
   new HttpError(
@@ -71,6 +77,7 @@ export function briefService(deps: {
         await mail.mailer.send({
           to: email,
           ...renderVerification({
+            subject: 'Confirm your address for the Chopline morning brief',
             email,
             url: `${mail.origin}/verify-email?token=${token}`,
             hours: VERIFY_HOURS,

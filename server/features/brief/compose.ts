@@ -12,6 +12,7 @@ import { makeFormat, type Format } from '../../../shared/format'
 import type { BriefSettings } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { dateLabel } from '../../../shared/time'
+import { mailTemplate } from '../mail/render'
 
 /** A followed lake as the brief sees it: cached read and day, and this subscriber's banks there. */
 export interface BriefLake {
@@ -188,3 +189,6 @@ export function composeBrief(input: BriefInput): BriefView {
     unsubscribeUrl: input.unsubscribeUrl,
   }
 }
+
+/** The brief as an e-mail: HTML and plain text from the `brief` templates. */
+export const renderBrief = mailTemplate<BriefView>('brief')

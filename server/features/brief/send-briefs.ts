@@ -7,8 +7,7 @@ import { signLinkToken } from '../auth/auth.tokens'
 import { backoffMs } from '../ingest/feed-client'
 import { isPermanentMailError, type MailContext } from '../mail/mailer'
 import { briefSendsRepo, type CachedLake, type Claim, type Recipient } from './brief-sends.repo'
-import { composeBrief } from './compose'
-import { renderBrief } from './render'
+import { composeBrief, renderBrief } from './compose'
 
 export interface BriefPolicy {
   /** Tries per brief before it is recorded as failed. */
