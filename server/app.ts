@@ -22,6 +22,11 @@ import { briefService, type Mailbox } from './features/brief/brief.service'
 import { conditionsRoutes } from './features/conditions/conditions.routes'
 import { conditionsFor } from './features/conditions/conditions.service'
 import { healthRoutes } from './features/health/health.routes'
+import { clientsRepo } from './features/guides/clients.repo'
+import { clientsService } from './features/guides/clients.service'
+import { guidesRoutes } from './features/guides/guides.routes'
+import { tripsRepo } from './features/guides/trips.repo'
+import { tripsService } from './features/guides/trips.service'
 import type { MailContext } from './features/mail/mailer'
 import { lakeReadRepo } from './features/lakes/lake-read.repo'
 import { lakeReadService } from './features/lakes/lake-read.service'
@@ -135,6 +140,17 @@ export function createApp(deps: AppDeps): express.Express {
         linkKey,
       }),
       { limiter, mailbox: deps.mailbox },
+    ),
+  )
+  api.use(
+    guidesRoutes(
+      clientsService(clientsRepo(deps.db)),
+      tripsService({
+        repo: tripsRepo(deps.db),
+        clients: clientsRepo(deps.db),
+        mail: deps.mail,
+        linkKey,
+      }),
     ),
   )
   api.use(notFound)

@@ -144,3 +144,17 @@ export function cautions(conditions: CautionInput): Caution[] {
   found.sort((a, b) => RANK[a.level] - RANK[b.level])
   return [...found, AUTHORITY_CAUTION]
 }
+
+/**
+ * The cautions of several windows as one list for the day: each message once, most serious first,
+ * ending with the deferral to local authority.
+ */
+export function mergeCautions(lists: Caution[][]): Caution[] {
+  const byMessage = new Map<string, Caution>()
+  for (const list of lists)
+    for (const c of list) if (c.kind !== 'authority') byMessage.set(c.message, c)
+  return [
+    ...[...byMessage.values()].sort((a, b) => RANK[a.level] - RANK[b.level]),
+    AUTHORITY_CAUTION,
+  ]
+}

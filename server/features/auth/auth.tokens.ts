@@ -36,7 +36,7 @@ export async function verifySessionToken(
 }
 
 /** What a signed link may do; a token made for one purpose is refused for every other. */
-export type LinkPurpose = 'verify-email' | 'brief-unsubscribe'
+export type LinkPurpose = 'verify-email' | 'brief-unsubscribe' | 'trip-share'
 
 /**
  * A token for a link in an e-mail: signed with the app's key, bound to one purpose (the JWT
@@ -44,15 +44,21 @@ export type LinkPurpose = 'verify-email' | 'brief-unsubscribe'
  */
 export async function signLinkToken(
   key: Uint8Array,
-  link: { purpose: LinkPurpose; subject: string; claims?: Record<string, string>; expiresAt: Date },
+  link: {
+    purpose: LinkPurpose
+    subject: string
+    claims?: Record<string, string>
+    /** Absent when a database row says how long the link lasts (and can end it at once). */
+    expiresAt?: Date
+  },
 ): Promise<string> {
-  return new SignJWT(link.claims ?? {})
+  const jwt = new SignJWT(link.claims ?? {})
     .setProtectedHeader({ alg: 'HS256' })
     .setAudience(link.purpose)
     .setSubject(link.subject)
     .setIssuedAt()
-    .setExpirationTime(link.expiresAt)
-    .sign(key)
+  if (link.expiresAt) jwt.setExpirationTime(link.expiresAt)
+  return jwt.sign(key)
 }
 
 /** The subject and claims of a valid link token for `purpose`; null if forged, expired or another kind. */

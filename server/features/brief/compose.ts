@@ -2,7 +2,7 @@ import { lakeWideSuggestion, planForBanks, type LakeDay } from '../../../shared/
 import type { Bank } from '../../../shared/conditions/ranking'
 import {
   AUTHORITY_CAUTION,
-  type Caution,
+  mergeCautions,
   type CautionLevel,
 } from '../../../shared/conditions/safety'
 import { CLARITY_LABELS } from '../../../shared/conditions/clarity'
@@ -69,7 +69,6 @@ interface WindowSection {
 }
 
 const TOP_BANKS = 3
-const CAUTION_RANK: Record<CautionLevel, number> = { danger: 0, warning: 1, caution: 2, info: 3 }
 
 const words = (slug: string) => slug.replace(/-/g, ' ')
 const capitalised = (s: string) => s.charAt(0).toUpperCase() + s.slice(1)
@@ -116,9 +115,7 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
     }
   }
   const plan = planForBanks(lake.day, lake.banks)
-  const cautions = new Map<string, Caution>()
   const windows = plan.windows.map((w): WindowSection => {
-    for (const c of w.cautions) if (c.kind !== 'authority') cautions.set(c.message, c)
     const hours = `${f.time(w.start, lake.timeZone)} – ${f.time(w.end, lake.timeZone)}`
     if (!w.weather)
       return {
@@ -163,8 +160,9 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
     read,
     unavailable: null,
     windows: shown,
-    cautions: [...cautions.values()]
-      .sort((a, b) => CAUTION_RANK[a.level] - CAUTION_RANK[b.level])
+    // The deferral to local authority closes the whole brief, once.
+    cautions: mergeCautions(plan.windows.map((w) => w.cautions))
+      .filter((c) => c.kind !== 'authority')
       .map((c) => ({
         level: c.level,
         danger: c.level === 'danger' || c.level === 'warning',

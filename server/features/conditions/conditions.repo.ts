@@ -1,9 +1,9 @@
-import { and, asc, eq, gte, lt, sql } from 'drizzle-orm'
+import { and, asc, eq, gte, lt, notExists, sql } from 'drizzle-orm'
 import type { ForecastHour, LakeDay } from '../../../shared/conditions/day-plan'
 import type { Bank } from '../../../shared/conditions/ranking'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import type { Db } from '../../db/index'
-import { lakeDays, lakeReads, lakes, weatherHours } from '../../db/schema/index'
+import { lakeDays, lakeReads, lakes, trips, weatherHours } from '../../db/schema/index'
 
 /** The Day plan's one query: $1 slug, $2 date, $3 the angler. */
 const PLAN_VIEW = `
@@ -76,7 +76,10 @@ export function conditionsRepo(db: Db) {
         .onConflictDoUpdate({ target: lakeReads.lakeId, set: values })
     },
 
-    /** Replaces the lake's cached days from `today` on, and drops days before yesterday. */
+    /**
+     * Replaces the lake's cached days from `today` on, and drops days before yesterday, except a
+     * day a guide's trip is on: its plan stays as it last stood, for the trip's page.
+     */
     async saveDays(
       lakeId: string,
       today: string,
@@ -86,9 +89,18 @@ export function conditionsRepo(db: Db) {
     ) {
       await db.transaction(async (tx) => {
         await tx.delete(lakeDays).where(and(eq(lakeDays.lakeId, lakeId), gte(lakeDays.date, today)))
-        await tx
-          .delete(lakeDays)
-          .where(and(eq(lakeDays.lakeId, lakeId), lt(lakeDays.date, yesterday)))
+        await tx.delete(lakeDays).where(
+          and(
+            eq(lakeDays.lakeId, lakeId),
+            lt(lakeDays.date, yesterday),
+            notExists(
+              tx
+                .select({ id: trips.id })
+                .from(trips)
+                .where(and(eq(trips.lakeId, lakeId), eq(trips.date, lakeDays.date))),
+            ),
+          ),
+        )
         if (days.length)
           await tx.insert(lakeDays).values(days.map((d) => ({ ...d, lakeId, computedAt })))
       })
