@@ -159,8 +159,8 @@ describe('clients', () => {
     for (const [what, body, name, status] of cases) {
       const res = await guide
         .post('/api/guide/clients/import?commit=true')
-        // filepath: the form keeps the name as given instead of cutting it to its last part.
-        .attach('file', body, { filepath: name })
+        // form-data's filepath (untyped in superagent) keeps the name whole instead of its last part.
+        .attach('file', body, { filepath: name } as unknown as { filename: string })
       expect(res.status, what).toBe(status)
       expect(res.body.error.message, what).toBeTruthy()
     }
