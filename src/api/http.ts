@@ -45,8 +45,15 @@ async function send(path: string, opts: RequestOptions): Promise<Response> {
     res = await fetch(url, {
       method: opts.method ?? 'GET',
       credentials: 'same-origin',
-      headers: opts.body === undefined ? {} : { 'content-type': 'application/json' },
-      body: opts.body === undefined ? undefined : JSON.stringify(opts.body),
+      // A FormData body (a file upload) sets its own multipart content type.
+      headers:
+        opts.body === undefined || opts.body instanceof FormData
+          ? {}
+          : { 'content-type': 'application/json' },
+      body:
+        opts.body === undefined || opts.body instanceof FormData
+          ? opts.body
+          : JSON.stringify(opts.body),
     })
   } catch {
     throw new ApiError(

@@ -74,6 +74,30 @@ const router = createRouter({
       meta: { title: 'Unsubscribe' },
     },
     {
+      path: '/guide/clients',
+      name: 'guide-clients',
+      component: () => import('@/views/GuideClientsView.vue'),
+      meta: { role: 'guide', title: 'Clients' },
+    },
+    {
+      path: '/guide/trips',
+      name: 'guide-trips',
+      component: () => import('@/views/GuideTripsView.vue'),
+      meta: { role: 'guide', title: 'Trips' },
+    },
+    {
+      path: '/guide/trips/:id',
+      name: 'guide-trip',
+      component: () => import('@/views/GuideTripView.vue'),
+      meta: { role: 'guide', title: 'Trip' },
+    },
+    {
+      path: '/trip/:token',
+      name: 'shared-trip',
+      component: () => import('@/views/SharedTripView.vue'),
+      meta: { title: 'Your trip' },
+    },
+    {
       path: '/admin/mail',
       name: 'admin-mail',
       component: () => import('@/views/AdminMailView.vue'),

@@ -1,0 +1,52 @@
+import { z } from 'zod'
+import {
+  ClientImportReport,
+  ClientList,
+  ClientView,
+  SharedTrip,
+  ShareView,
+  TripList,
+  TripView,
+  type ClientInput,
+  type TripInput,
+} from '@shared/schemas/guides'
+import { apiCommand, apiRequest } from './http'
+
+const Shares = z.object({ items: z.array(ShareView) })
+
+export const clientsApi = {
+  list: () => apiRequest(ClientList, '/guide/clients'),
+  create: (body: ClientInput) => apiRequest(ClientView, '/guide/clients', { method: 'POST', body }),
+  update: (id: string, body: ClientInput) =>
+    apiRequest(ClientView, `/guide/clients/${id}`, { method: 'PUT', body }),
+  remove: (id: string) => apiCommand(`/guide/clients/${id}`, { method: 'DELETE' }),
+  /** A preview (nothing saved) unless `commit`. */
+  importCsv: (file: File, commit: boolean) => {
+    const body = new FormData()
+    body.append('file', file)
+    return apiRequest(ClientImportReport, '/guide/clients/import', {
+      method: 'POST',
+      body,
+      query: { commit: String(commit) },
+    })
+  },
+}
+
+export const tripsApi = {
+  list: () => apiRequest(TripList, '/guide/trips'),
+  get: (id: string) => apiRequest(TripView, `/guide/trips/${id}`),
+  create: (body: TripInput) => apiRequest(TripView, '/guide/trips', { method: 'POST', body }),
+  update: (id: string, body: TripInput) =>
+    apiRequest(TripView, `/guide/trips/${id}`, { method: 'PUT', body }),
+  remove: (id: string) => apiCommand(`/guide/trips/${id}`, { method: 'DELETE' }),
+  share: (id: string, expiresOn: string) =>
+    apiRequest(Shares, `/guide/trips/${id}/shares`, { method: 'POST', body: { expiresOn } }),
+  revoke: (id: string, shareId: string) =>
+    apiRequest(Shares, `/guide/trips/${id}/shares/${shareId}`, { method: 'DELETE' }),
+  send: (id: string, shareId: string, clientIds: string[]) =>
+    apiRequest(Shares, `/guide/trips/${id}/shares/${shareId}/send`, {
+      method: 'POST',
+      body: { clientIds },
+    }),
+  shared: (token: string) => apiRequest(SharedTrip, `/shared/trips/${encodeURIComponent(token)}`),
+}
