@@ -8,6 +8,8 @@ import { rateLimit } from 'express-rate-limit'
 import helmet from 'helmet'
 import { pinoHttp } from 'pino-http'
 import type { Db } from './db/index'
+import { auditRepo } from './features/audit/audit.repo'
+import { auditRoutes } from './features/audit/audit.routes'
 import { authRepo } from './features/auth/auth.repo'
 import { authRoutes, sessionMiddleware } from './features/auth/auth.routes'
 import { authService } from './features/auth/auth.service'
@@ -28,6 +30,9 @@ import { guidesRoutes } from './features/guides/guides.routes'
 import { tripsRepo } from './features/guides/trips.repo'
 import { tripsService } from './features/guides/trips.service'
 import type { MailContext } from './features/mail/mailer'
+import { quarantineRepo } from './features/quarantine/quarantine.repo'
+import { quarantineRoutes } from './features/quarantine/quarantine.routes'
+import { quarantineService } from './features/quarantine/quarantine.service'
 import { lakeReadRepo } from './features/lakes/lake-read.repo'
 import { lakeReadService } from './features/lakes/lake-read.service'
 import { lakesRepo } from './features/lakes/lakes.repo'
@@ -153,6 +158,8 @@ export function createApp(deps: AppDeps): express.Express {
       }),
     ),
   )
+  api.use(quarantineRoutes(quarantineService(quarantineRepo(deps.db))))
+  api.use(auditRoutes(auditRepo(deps.db)))
   api.use(notFound)
   app.use('/api', api)
 

@@ -21,6 +21,11 @@ export const PARAMETERS: Record<
   secchi: { code: 'secchi', name: 'Secchi depth', siUnit: 'm', cadenceMin: 1440 },
 }
 
+/** Our key (as stored in text columns) back to the parameter; undefined for anything else. */
+export function parameterForKey(key: string): Parameter | undefined {
+  return PARAMETER_KEYS.find((p) => p === key)
+}
+
 export function parameterForCode(code: string): Parameter | undefined {
   return PARAMETER_KEYS.find((p) => PARAMETERS[p].code === code)
 }

@@ -77,6 +77,10 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'DELETE /guide/trips/:id/shares/:shareId': guideOwns,
   'POST /guide/trips/:id/shares/:shareId/send': guideOwns,
   'GET /shared/trips/:token': anyone,
+  'GET /admin/audit': admins,
+  'GET /admin/quarantine': admins,
+  'POST /admin/quarantine/:id/release': admins,
+  'POST /admin/quarantine/:id/discard': admins,
 }
 
 type Layer = {
@@ -166,20 +170,20 @@ describe('the authorization matrix', () => {
               ? client
               : path.startsWith('/guide/trips')
                 ? trip
-                : path.startsWith('/admin/mailbox')
+                : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
                   ? '1'
                   : targetId,
         )
     /** Valid bodies where a route checks ownership after the body: otherwise validation answers first. */
-    const body = (method: string, path: string): object =>
-      ({
-        'PUT /lakes/:slug/banks/:id': bankBody,
-        'PUT /guide/clients/:id': clientBody,
-        'PUT /guide/trips/:id': tripBody,
-        'POST /guide/trips/:id/shares': { expiresOn: '2099-01-01' },
-        'POST /guide/trips/:id/shares/:shareId/send': { clientIds: [client] },
-        'PATCH /admin/users/:id': { role: 'angler' },
-      })[`${method} ${path}`] ?? {}
+    const bodies: Record<string, object> = {
+      'PUT /lakes/:slug/banks/:id': bankBody,
+      'PUT /guide/clients/:id': clientBody,
+      'PUT /guide/trips/:id': tripBody,
+      'POST /guide/trips/:id/shares': { expiresOn: '2099-01-01' },
+      'POST /guide/trips/:id/shares/:shareId/send': { clientIds: [client] },
+      'PATCH /admin/users/:id': { role: 'angler' },
+    }
+    const body = (method: string, path: string) => bodies[`${method} ${path}`] ?? {}
 
     // Deletions late, the most nested first, so each route still finds the rows it names; signing
     // out ends the sessions, so it goes last of all.

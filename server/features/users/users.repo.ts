@@ -1,8 +1,9 @@
 import { and, count, desc, eq, ilike, type SQL } from 'drizzle-orm'
-import type { Role } from '../../../shared/schemas/auth'
+import type { Role, User } from '../../../shared/schemas/auth'
 import type { UserListQuery } from '../../../shared/schemas/users'
 import type { Db } from '../../db/index'
 import { users } from '../../db/schema/index'
+import { audit } from '../audit/audit.repo'
 import { publicUserColumns } from '../auth/auth.repo'
 
 export function usersRepo(db: Db) {
@@ -24,14 +25,29 @@ export function usersRepo(db: Db) {
       ])
       return { rows, total: total?.n ?? 0 }
     },
-    async setRole(id: string, role: Role) {
-      const [row] = await db
-        .update(users)
-        .set({ role })
-        .where(eq(users.id, id))
-        .returning(publicUserColumns)
-      return row
-    },
+    /** Changes the role and writes the audit entry in one transaction. */
+    setRole: (actor: Pick<User, 'id' | 'email'>, id: string, role: Role) =>
+      db.transaction(async (tx) => {
+        const [before] = await tx
+          .select({ role: users.role })
+          .from(users)
+          .where(eq(users.id, id))
+          .for('update')
+        if (!before) return undefined
+        const [row] = await tx
+          .update(users)
+          .set({ role })
+          .where(eq(users.id, id))
+          .returning(publicUserColumns)
+        await audit(tx, actor, {
+          action: 'user.role',
+          targetType: 'user',
+          targetId: id,
+          before,
+          after: { role },
+        })
+        return row
+      }),
   }
 }
 export type UsersRepo = ReturnType<typeof usersRepo>

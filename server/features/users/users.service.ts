@@ -17,7 +17,7 @@ export function usersService(repo: UsersRepo, authRepo: AuthRepo) {
       if (actor.id === id && input.role !== 'admin') {
         throw new HttpError(409, 'own_admin_role', 'You cannot remove your own admin role.')
       }
-      const row = await repo.setRole(id, input.role)
+      const row = await repo.setRole(actor, id, input.role)
       if (!row) throw new HttpError(404, 'not_found', 'No such user.')
       if (actor.id !== id) await authRepo.revokeAllSessions(id)
       return toUser(row)

@@ -1,0 +1,137 @@
+import { and, eq, sql } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { toSi } from '../../shared/readings'
+import { AuditPage } from '../../shared/schemas/audit'
+import { QuarantinePage } from '../../shared/schemas/quarantine'
+import { datastreams, lakes, quarantine, readings, stations } from '../../server/db/schema/index'
+import { seedDemo } from '../../server/db/seed/index'
+import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { signedInAgent, testApp } from '../helpers/app'
+import { createTestDb } from '../helpers/db'
+import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
+
+let ctx: Awaited<ReturnType<typeof createTestDb>>
+let feed: TestFeed
+let station: typeof stations.$inferSelect
+let unit: string
+const at = new Date('2026-04-01T12:00:00Z')
+
+beforeAll(async () => {
+  ctx = await createTestDb()
+  await seedDemo(ctx.db)
+  feed = await startTestFeed('2026-04-10T12:00:00Z')
+  const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+  await backfillReadings(ingestDeps(ctx.db, feed), lake!.id, 1)
+  ;[station] = await ctx.db.select().from(stations).where(eq(stations.lakeId, lake!.id))
+  const [ds] = await ctx.db
+    .select()
+    .from(datastreams)
+    .where(and(eq(datastreams.stationId, station!.id), eq(datastreams.parameter, 'water_temp')))
+  unit = ds!.unit
+})
+afterAll(async () => {
+  await feed.close()
+  await ctx.drop()
+})
+
+/** A refused row as the ingest job writes one. */
+async function held(reason: string, raw: unknown, feedId: string) {
+  const [row] = await ctx.db
+    .insert(quarantine)
+    .values({
+      stationId: station.id,
+      parameter: 'water_temp',
+      feedId,
+      observedAt: at,
+      raw,
+      reason,
+      detail: `test ${reason}`,
+    })
+    .returning()
+  return row!.id
+}
+
+describe('quarantine review', () => {
+  it('lists held rows by station and reason, releases a reviewed value as a reading, and audits it', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'desk@admin.test', 'admin')
+    // 33 units: implausibly warm for the day it was read, but a real reading after review.
+    const warm = await held(
+      'rate_of_change',
+      { result: 33, phenomenonTime: at.toISOString() },
+      'q-warm',
+    )
+    const junk = await held('malformed', { result: 'n/a' }, 'q-junk')
+    const page = QuarantinePage.parse(
+      (
+        await admin
+          .get(`/api/admin/quarantine?stationId=${station.id}&reason=rate_of_change`)
+          .expect(200)
+      ).body,
+    )
+    expect(page.items.map((i) => [i.id, i.releasable])).toEqual([[warm, true]])
+    expect(page.reasons).toEqual(expect.arrayContaining(['malformed', 'rate_of_change']))
+    expect(page.items[0]!.station!.name).toBe(station.name)
+
+    await admin.post(`/api/admin/quarantine/${warm}/release`).expect(204)
+    const [stored] = await ctx.db
+      .select()
+      .from(readings)
+      .where(and(eq(readings.stationId, station.id), eq(readings.observedAt, at)))
+    // Stored in SI as the job stores readings (°F to °C: NIST SP 811).
+    expect(stored).toMatchObject({
+      value: toSi('water_temp', 33, unit),
+      originalValue: 33,
+      originalUnit: unit,
+    })
+    await admin.post(`/api/admin/quarantine/${warm}/release`).expect(404)
+
+    const refused = await admin.post(`/api/admin/quarantine/${junk}/release`).expect(409)
+    expect(refused.body.error.code).toBe('not_releasable')
+    await admin.post(`/api/admin/quarantine/${junk}/discard`).expect(204)
+    const discarded = QuarantinePage.parse(
+      (await admin.get('/api/admin/quarantine?status=discarded').expect(200)).body,
+    )
+    expect(discarded.items.map((i) => i.id)).toEqual([junk])
+
+    const log = AuditPage.parse((await admin.get('/api/admin/audit').expect(200)).body)
+    expect(log.items.slice(0, 2).map((e) => [e.action, e.targetId, e.actorEmail])).toEqual([
+      ['quarantine.discard', String(junk), 'desk@admin.test'],
+      ['quarantine.release', String(warm), 'desk@admin.test'],
+    ])
+    expect(log.items[1]!.before).toMatchObject({ status: 'held', reason: 'rate_of_change' })
+    expect(log.items[1]!.after).toMatchObject({ status: 'released' })
+  })
+})
+
+describe('the audit log', () => {
+  it('records role changes with before and after, and nobody can edit it, not even the database owner', async () => {
+    const app = testApp(ctx.db)
+    const admin = await signedInAgent(app, ctx.db, 'roles@admin.test', 'admin')
+    const target = await signedInAgent(app, ctx.db, 'promoted@guide.test')
+    const id = (await target.get('/api/me')).body.user.id as string
+    await admin.patch(`/api/admin/users/${id}`).send({ role: 'guide' }).expect(200)
+    const log = AuditPage.parse(
+      (await admin.get('/api/admin/audit?action=user.role').expect(200)).body,
+    )
+    expect(log.items[0]).toMatchObject({
+      actorEmail: 'roles@admin.test',
+      targetType: 'user',
+      targetId: id,
+      before: { role: 'angler' },
+      after: { role: 'guide' },
+    })
+    for (const change of [
+      sql`update audit_log set action = 'forged'`,
+      sql`delete from audit_log`,
+      sql`truncate audit_log`,
+    ])
+      await expect(ctx.db.execute(change)).rejects.toMatchObject({
+        cause: { message: expect.stringMatching(/append-only/) },
+      })
+    expect(
+      (await ctx.db.execute(sql`select count(*)::int as n from audit_log`)).rows[0],
+    ).toMatchObject({
+      n: log.total + 2,
+    })
+  })
+})
