@@ -22,7 +22,8 @@ beforeAll(async () => {
   feed = await startTestFeed('2026-04-10T12:00:00Z')
   const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
   await backfillReadings(ingestDeps(ctx.db, feed), lake!.id, 1)
-  ;[station] = await ctx.db.select().from(stations).where(eq(stations.lakeId, lake!.id))
+  const [first] = await ctx.db.select().from(stations).where(eq(stations.lakeId, lake!.id))
+  station = first!
   const [ds] = await ctx.db
     .select()
     .from(datastreams)
