@@ -98,6 +98,18 @@ const router = createRouter({
       meta: { title: 'Your trip' },
     },
     {
+      path: '/admin/quarantine',
+      name: 'admin-quarantine',
+      component: () => import('@/views/AdminQuarantineView.vue'),
+      meta: { role: 'admin', title: 'Quarantine' },
+    },
+    {
+      path: '/admin/audit',
+      name: 'admin-audit',
+      component: () => import('@/views/AdminAuditView.vue'),
+      meta: { role: 'admin', title: 'Audit log' },
+    },
+    {
       path: '/admin/mail',
       name: 'admin-mail',
       component: () => import('@/views/AdminMailView.vue'),

@@ -1,0 +1,56 @@
+import { join } from 'node:path'
+import { eq } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, it } from 'vitest'
+import { datastreams, quarantine } from '../../server/db/schema/index'
+import { expectAccessible } from '../helpers/axe'
+import { artifactsDir } from '../helpers/browser'
+import { startE2e, type E2e } from '../helpers/e2e'
+import { signInAs } from '../helpers/signin'
+
+let e2e: E2e
+let base: string
+
+beforeAll(async () => {
+  e2e = await startE2e(3)
+  base = e2e.base
+})
+afterAll(() => e2e?.close())
+
+describe('the gauge desk in Chromium', () => {
+  it('lets an admin release a quarantined reading and find the decision in the audit log', async () => {
+    // A station the demo history reached, so its water-temperature unit is known.
+    const [stream] = await e2e.db
+      .select()
+      .from(datastreams)
+      .where(eq(datastreams.parameter, 'water_temp'))
+    const observed = new Date(Date.now() - 86_400_000)
+    const [row] = await e2e.db
+      .insert(quarantine)
+      .values({
+        stationId: stream!.stationId,
+        parameter: 'water_temp',
+        feedId: 'e2e-1',
+        observedAt: observed,
+        raw: { result: 21.5, phenomenonTime: observed.toISOString() },
+        reason: 'rate_of_change',
+        detail: 'rose 6 °C in 15 minutes',
+      })
+      .returning()
+
+    const page = await e2e.browser.context.newPage()
+    await signInAs(page, base, 'admin@chopline.test')
+    await page.getByRole('link', { name: 'Quarantine' }).click()
+    await page.getByText('rose 6 °C in 15 minutes').waitFor()
+    await expectAccessible(page, 'Quarantine')
+    await page.getByRole('button', { name: `Release row ${row!.id}` }).click()
+    await page.getByText('Released: stored as a reading.').waitFor()
+    await page.getByText('Nothing here: no held rows match.').waitFor()
+
+    await page.getByRole('link', { name: 'Audit' }).click()
+    await page.getByRole('cell', { name: 'quarantine.release' }).waitFor()
+    await expectAccessible(page, 'Audit log')
+    await page.setViewportSize({ width: 1366, height: 900 })
+    await page.screenshot({ path: join(artifactsDir, 'admin-audit-desktop.png'), fullPage: true })
+    await page.close()
+  })
+})
