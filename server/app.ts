@@ -29,6 +29,9 @@ import { clientsService } from './features/guides/clients.service'
 import { guidesRoutes } from './features/guides/guides.routes'
 import { tripsRepo } from './features/guides/trips.repo'
 import { tripsService } from './features/guides/trips.service'
+import { lakesDeskRepo } from './features/desk/lakes-desk.repo'
+import { lakesDeskRoutes } from './features/desk/lakes-desk.routes'
+import { lakesDeskService } from './features/desk/lakes-desk.service'
 import type { MailContext } from './features/mail/mailer'
 import { quarantineRepo } from './features/quarantine/quarantine.repo'
 import { quarantineRoutes } from './features/quarantine/quarantine.routes'
@@ -159,6 +162,11 @@ export function createApp(deps: AppDeps): express.Express {
     ),
   )
   api.use(quarantineRoutes(quarantineService(quarantineRepo(deps.db))))
+  api.use(
+    lakesDeskRoutes(
+      lakesDeskService({ db: deps.db, repo: lakesDeskRepo(deps.db), log: deps.logger }),
+    ),
+  )
   api.use(auditRoutes(auditRepo(deps.db)))
   api.use(notFound)
   app.use('/api', api)

@@ -81,6 +81,11 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'GET /admin/quarantine': admins,
   'POST /admin/quarantine/:id/release': admins,
   'POST /admin/quarantine/:id/discard': admins,
+  'POST /admin/lakes/shoreline-preview': admins,
+  'POST /admin/lakes': admins,
+  'PUT /admin/lakes/:slug': admins,
+  'POST /admin/lakes/:slug/shoreline': admins,
+  'GET /admin/lakes/:slug/recompute': admins,
 }
 
 type Layer = {

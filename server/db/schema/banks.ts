@@ -8,6 +8,7 @@ import {
   pgEnum,
   pgTable,
   text,
+  timestamp,
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core'
@@ -40,6 +41,8 @@ export const banks = pgTable(
     slope: bankSlope(),
     notes: text().notNull().default(''),
     exposure: jsonb().$type<ExposureTable>().notNull(),
+    /** Set when a new shoreline left the bank's points off the shore: kept, but flagged to redraw. */
+    detachedAt: timestamp({ withTimezone: true }),
     ...timestamps,
   },
   // Also serves "an angler's banks on a lake" by its first two columns.

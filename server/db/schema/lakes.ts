@@ -1,5 +1,14 @@
 import type { MultiPolygon, Polygon } from '../../../shared/geo/types'
-import { doublePrecision, jsonb, pgTable, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import {
+  doublePrecision,
+  integer,
+  jsonb,
+  pgTable,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+} from 'drizzle-orm/pg-core'
 import { timestamps } from './columns'
 
 export const lakes = pgTable(
@@ -21,3 +30,19 @@ export const lakes = pgTable(
   },
   (t) => [uniqueIndex('lakes_slug_key').on(t.slug)],
 )
+
+/**
+ * Recomputing a lake's bank exposure tables after its shoreline is replaced: one row a lake,
+ * the latest run, so any instance can report its progress.
+ */
+export const lakeRecomputes = pgTable('lake_recomputes', {
+  lakeId: uuid()
+    .primaryKey()
+    .references(() => lakes.id, { onDelete: 'cascade' }),
+  total: integer().notNull(),
+  done: integer().notNull().default(0),
+  detached: integer().notNull().default(0),
+  startedAt: timestamp({ withTimezone: true }).notNull(),
+  finishedAt: timestamp({ withTimezone: true }),
+  error: text(),
+})

@@ -70,6 +70,11 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
   }
 
   return {
+    /** One lake's read and days recomputed, after its outline changes. */
+    async refresh(lakeId: string, now = new Date()) {
+      await refreshLake(await repo.lake(lakeId), now)
+    },
+
     /** After each ingest: every lake's read and days recomputed once, for all page views. */
     async refreshAll(now = new Date()) {
       const lakes = await repo.allLakes()

@@ -1,0 +1,203 @@
+import { exposureTable } from '../../../shared/conditions/exposure'
+import { DomainError } from '../../../shared/errors'
+import { shoreIndex } from '../../../shared/geo/fetch'
+import { lakeCenter } from '../../../shared/geo/polygon'
+import type { LakeGeometry } from '../../../shared/geo/types'
+import { assertPlausibleShoreline } from '../../../shared/geo/validate'
+import type { User } from '../../../shared/schemas/auth'
+import type {
+  LakeCreateInput,
+  LakeEditInput,
+  RecomputeStatus,
+  ShorelinePreview,
+} from '../../../shared/schemas/desk'
+import { LakeShoreline } from '../../../shared/schemas/lake-read'
+import { isoOrNull } from '../../../shared/time'
+import type { Db } from '../../db/index'
+import { HttpError } from '../../http/errors'
+import type { Logger } from '../../logger'
+import { audit } from '../audit/audit.repo'
+import { SNAP_M } from '../banks/banks.service'
+import { conditionsFor } from '../conditions/conditions.service'
+import type { LakesDeskRepo } from './lakes-desk.repo'
+
+type Actor = Pick<User, 'id' | 'email'>
+
+const badFile = (message: string) => new HttpError(400, 'bad_geojson', message, { file: message })
+
+/** The geometry of an uploaded GeoJSON file: a Polygon or MultiPolygon, bare or in one Feature. */
+function geometryOf(text: string): LakeGeometry {
+  let doc: unknown
+  try {
+    doc = JSON.parse(text)
+  } catch {
+    throw badFile('The file is not JSON.')
+  }
+  const d = doc as { type?: string; geometry?: unknown; features?: { geometry?: unknown }[] }
+  const geometry =
+    d?.type === 'Feature'
+      ? d.geometry
+      : d?.type === 'FeatureCollection'
+        ? d.features?.length === 1
+          ? d.features[0]!.geometry
+          : undefined
+        : doc
+  if (d?.type === 'FeatureCollection' && d.features?.length !== 1)
+    throw badFile('Upload one lake: a FeatureCollection with exactly one feature.')
+  const parsed = LakeShoreline.safeParse(geometry)
+  if (!parsed.success)
+    throw badFile('The file holds no Polygon or MultiPolygon with [longitude, latitude] positions.')
+  return parsed.data
+}
+
+/** The gauge desk's lakes: metadata, new outlines (checked, previewed, then saved), and the bank recompute. */
+export function lakesDeskService(deps: {
+  db: Db
+  repo: LakesDeskRepo
+  log: Logger
+  now?: () => Date
+}) {
+  const { repo } = deps
+  const now = () => deps.now?.() ?? new Date()
+
+  function checked(text: string): ShorelinePreview & { shoreline: LakeGeometry } {
+    const shoreline = geometryOf(text)
+    try {
+      return { shoreline, stats: assertPlausibleShoreline(shoreline) }
+    } catch (err) {
+      if (err instanceof DomainError) throw badFile(err.message)
+      throw err
+    }
+  }
+
+  async function lakeOf(slug: string) {
+    const lake = await repo.bySlug(slug)
+    if (!lake) throw new HttpError(404, 'not_found', 'No such lake.')
+    return lake
+  }
+
+  /**
+   * Every bank on the lake against the new outline: points snapped again, exposure tables
+   * recomputed; a bank whose points no longer touch the shore is kept and flagged. Progress is
+   * written as it goes; the conditions cache is refreshed at the end.
+   */
+  async function recompute(
+    lakeId: string,
+    shoreline: LakeGeometry,
+    banks: Awaited<ReturnType<LakesDeskRepo['banksOn']>>,
+  ) {
+    const index = shoreIndex(shoreline)
+    let detached = 0
+    try {
+      for (const [i, bank] of banks.entries()) {
+        const snapped = bank.points.map((p) => index.nearestShorePoint(p, SNAP_M)?.point)
+        const onShore = snapped.every(Boolean)
+        let exposure = null
+        if (onShore) {
+          try {
+            exposure = exposureTable(shoreline, snapped as [number, number][])
+          } catch (err) {
+            if (!(err instanceof DomainError)) throw err
+          }
+        }
+        if (!exposure) detached++
+        await repo.saveBank(
+          bank.id,
+          exposure ? (snapped as [number, number][]) : bank.points,
+          exposure,
+          exposure ? null : now(),
+        )
+        if ((i + 1) % 25 === 0 || i === banks.length - 1)
+          await repo.progress(lakeId, i + 1, detached)
+      }
+      await conditionsFor(deps.db).refresh(lakeId, now())
+      await repo.finishRecompute(lakeId, now(), null)
+    } catch (err) {
+      deps.log.error({ err, lakeId }, 'bank recompute failed')
+      await repo.finishRecompute(lakeId, now(), err instanceof Error ? err.message : String(err))
+    }
+  }
+
+  async function status(lakeId: string): Promise<RecomputeStatus | null> {
+    const row = await repo.recompute(lakeId)
+    return row
+      ? {
+          total: row.total,
+          done: row.done,
+          detached: row.detached,
+          startedAt: row.startedAt.toISOString(),
+          finishedAt: isoOrNull(row.finishedAt),
+          error: row.error,
+        }
+      : null
+  }
+
+  return {
+    /** Checks an uploaded outline and returns it to draw, saving nothing. */
+    preview: (text: string): ShorelinePreview => checked(text),
+
+    async create(actor: Actor, input: LakeCreateInput, text: string) {
+      const { shoreline, stats } = checked(text)
+      const lake = await repo.create({
+        ...input,
+        shoreline,
+        areaKm2: stats.areaKm2,
+        center: lakeCenter(shoreline),
+      })
+      if (!lake)
+        throw new HttpError(409, 'slug_taken', 'Another lake has that slug.', {
+          slug: 'Another lake has that slug.',
+        })
+      await audit(deps.db, actor, {
+        action: 'lake.create',
+        targetType: 'lake',
+        targetId: lake.slug,
+        before: null,
+        after: { ...input, ...stats },
+      })
+      return { slug: lake.slug }
+    },
+
+    async edit(actor: Actor, slug: string, input: LakeEditInput) {
+      const lake = await lakeOf(slug)
+      await deps.db.transaction(async (tx) => {
+        await repo.edit(lake.id, input, tx)
+        await audit(tx, actor, {
+          action: 'lake.edit',
+          targetType: 'lake',
+          targetId: slug,
+          before: {
+            name: lake.name,
+            region: lake.region,
+            timeZone: lake.timeZone,
+            normalPoolM: lake.normalPoolM,
+          },
+          after: input,
+        })
+      })
+      return { slug }
+    },
+
+    /** Replaces the outline, then recomputes the lake's banks in the background. */
+    async replaceShoreline(actor: Actor, slug: string, text: string): Promise<RecomputeStatus> {
+      const lake = await lakeOf(slug)
+      const { shoreline, stats } = checked(text)
+      await repo.replaceShoreline(lake.id, shoreline, stats.areaKm2, lakeCenter(shoreline))
+      await audit(deps.db, actor, {
+        action: 'lake.shoreline',
+        targetType: 'lake',
+        targetId: slug,
+        before: { areaKm2: lake.areaKm2 },
+        after: stats,
+      })
+      // The progress row exists before the answer goes out; the banks are done in the background.
+      const banks = await repo.banksOn(lake.id)
+      await repo.startRecompute(lake.id, banks.length, now())
+      void recompute(lake.id, shoreline, banks)
+      return (await status(lake.id))!
+    },
+
+    recomputeStatus: async (slug: string) => status((await lakeOf(slug)).id),
+  }
+}
+export type LakesDeskService = ReturnType<typeof lakesDeskService>

@@ -1,0 +1,195 @@
+import { eq } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Polygon, Position } from '../../shared/geo/types'
+import { RecomputeStatus, ShorelinePreview } from '../../shared/schemas/desk'
+import { AuditPage } from '../../shared/schemas/audit'
+import { banks, lakes } from '../../server/db/schema/index'
+import { seedDemo } from '../../server/db/seed/index'
+import { signedInAgent, testApp } from '../helpers/app'
+import { createTestDb } from '../helpers/db'
+
+let ctx: Awaited<ReturnType<typeof createTestDb>>
+let shoreline: Polygon
+
+beforeAll(async () => {
+  ctx = await createTestDb()
+  await seedDemo(ctx.db)
+  const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+  shoreline = lake!.shoreline as Polygon
+})
+afterAll(() => ctx.drop())
+
+const file = (doc: unknown) => Buffer.from(JSON.stringify(doc))
+const feature = (geometry: unknown) => ({ type: 'Feature', properties: {}, geometry })
+const shifted = (dLon: number): Polygon => ({
+  type: 'Polygon',
+  coordinates: shoreline.coordinates.map((ring) =>
+    ring.map(([lon, lat]) => [lon + dLon, lat] as Position),
+  ),
+})
+const lakeCount = async () => (await ctx.db.select().from(lakes)).length
+
+async function settled(admin: Awaited<ReturnType<typeof signedInAgent>>, slug: string) {
+  for (let i = 0; i < 100; i++) {
+    const status = RecomputeStatus.parse(
+      (await admin.get(`/api/admin/lakes/${slug}/recompute`).expect(200)).body,
+    )
+    if (status.finishedAt) return status
+    await new Promise((r) => setTimeout(r, 50))
+  }
+  throw new Error('the recompute did not finish')
+}
+
+describe('outline uploads', () => {
+  it('previews a good GeoJSON outline without saving it', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'outline@desk.test', 'admin')
+    const res = await admin
+      .post('/api/admin/lakes/shoreline-preview')
+      .attach('file', file(feature(shoreline)), 'quillmere.geojson')
+      .expect(200)
+    const preview = ShorelinePreview.parse(res.body)
+    expect(preview.stats.islands).toBeGreaterThanOrEqual(1)
+    expect(preview.shoreline.coordinates).toEqual(shoreline.coordinates)
+  })
+
+  it('refuses bad files with a clear 4xx and changes nothing', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'badfiles@desk.test', 'admin')
+    const before = await lakeCount()
+    const bowTie: Position[] = [
+      [-88.1, 35],
+      [-88.0, 35.05],
+      [-88.0, 35],
+      [-88.1, 35.05],
+      [-88.1, 35],
+    ]
+    const cases: [string, Buffer, string, number, RegExp][] = [
+      ['not JSON', Buffer.from('{"type": "Polygon", '), 'lake.geojson', 400, /not JSON/],
+      [
+        'a line',
+        file({
+          type: 'LineString',
+          coordinates: [
+            [0, 0],
+            [1, 1],
+          ],
+        }),
+        'lake.geojson',
+        400,
+        /no Polygon/,
+      ],
+      [
+        'two lakes',
+        file({ type: 'FeatureCollection', features: [feature(shoreline), feature(shoreline)] }),
+        'lake.geojson',
+        400,
+        /exactly one/,
+      ],
+      [
+        'self-intersecting',
+        file({ type: 'Polygon', coordinates: [bowTie] }),
+        'lake.geojson',
+        400,
+        /crosses or touches itself/,
+      ],
+      ['wrong type', file(feature(shoreline)), 'lake.kml', 415, /geojson/],
+      ['too large', Buffer.alloc(3 * 1024 * 1024, 32), 'lake.geojson', 413, /larger than/],
+      ['path traversal', file(feature(shoreline)), '../../lake.geojson', 400, /plain file name/],
+    ]
+    for (const [what, body, name, status, message] of cases) {
+      const res = await admin
+        .post('/api/admin/lakes/quillmere/shoreline')
+        // form-data's filepath (untyped in superagent) keeps the name whole instead of its last part.
+        .attach('file', body, { filepath: name } as unknown as { filename: string })
+      expect(res.status, what).toBe(status)
+      expect(res.body.error.message, what).toMatch(message)
+    }
+    expect(await lakeCount()).toBe(before)
+    const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    expect(lake!.shoreline).toEqual(shoreline)
+    await admin.get('/api/admin/lakes/quillmere/recompute').expect(404)
+  })
+})
+
+describe('lakes on the desk', () => {
+  it('replaces an outline, recomputes every bank on the lake as a job, and flags banks left off the shore', async () => {
+    const app = testApp(ctx.db)
+    const admin = await signedInAgent(app, ctx.db, 'replace@desk.test', 'admin')
+    const angler = await signedInAgent(app, ctx.db, 'banks@desk.test')
+    const shore = shoreline.coordinates[0]!
+    // A bank on Quillmere, whose outline is about to move.
+    const bank = (
+      await angler
+        .post('/api/lakes/quillmere/banks')
+        .send({ name: 'Point', points: [shore[10], shore[13]], cover: ['rock'] })
+        .expect(201)
+    ).body.id as string
+
+    // The same outline again: the bank stays on the shore and keeps a table.
+    await admin
+      .post('/api/admin/lakes/quillmere/shoreline')
+      .attach('file', file(feature(shoreline)), 'same.geojson')
+      .expect(202)
+    expect(await settled(admin, 'quillmere')).toMatchObject({
+      total: 1,
+      done: 1,
+      detached: 0,
+      error: null,
+    })
+
+    // Moved 2 km east: the bank's points are no longer on the shore.
+    const started = RecomputeStatus.parse(
+      (
+        await admin
+          .post('/api/admin/lakes/quillmere/shoreline')
+          .attach('file', file(shifted(0.022)), 'moved.geojson')
+          .expect(202)
+      ).body,
+    )
+    expect(started.total).toBe(1)
+    expect(await settled(admin, 'quillmere')).toMatchObject({ done: 1, detached: 1, error: null })
+    const [row] = await ctx.db.select().from(banks).where(eq(banks.id, bank))
+    expect(row!.detachedAt).not.toBeNull()
+    const log = AuditPage.parse(
+      (await admin.get('/api/admin/audit?action=lake.shoreline').expect(200)).body,
+    )
+    expect(log.items).toHaveLength(2)
+  })
+
+  it('creates and edits lakes, with a message per bad field, and audits both', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'lakes@desk.test', 'admin')
+    const fields = {
+      slug: 'marrowbend',
+      name: 'Marrowbend Lake',
+      region: 'Invented County',
+      timeZone: 'America/Chicago',
+      normalPoolM: '120',
+    }
+    const post = () => {
+      const req = admin.post('/api/admin/lakes')
+      for (const [k, v] of Object.entries(fields)) req.field(k, v)
+      return req.attach('file', file(feature(shifted(0.5))), 'marrowbend.geojson')
+    }
+    expect((await post().expect(201)).body).toEqual({ slug: 'marrowbend' })
+    expect((await post().expect(409)).body.error.fields.slug).toBeDefined()
+    const bad = await admin
+      .put('/api/admin/lakes/marrowbend')
+      .send({ name: '', region: 'X', timeZone: 'Nowhere/Town', normalPoolM: 20000 })
+      .expect(400)
+    expect(Object.keys(bad.body.error.fields).sort()).toEqual(['name', 'normalPoolM', 'timeZone'])
+    await admin
+      .put('/api/admin/lakes/marrowbend')
+      .send({
+        name: 'Marrowbend Reservoir',
+        region: 'Invented County',
+        timeZone: 'America/Chicago',
+        normalPoolM: 121,
+      })
+      .expect(200)
+    await admin
+      .put('/api/admin/lakes/atlantis')
+      .send({ name: 'A', region: 'B', timeZone: 'UTC', normalPoolM: 1 })
+      .expect(404)
+    const log = AuditPage.parse((await admin.get('/api/admin/audit').expect(200)).body)
+    expect(log.items.slice(0, 2).map((e) => e.action)).toEqual(['lake.edit', 'lake.create'])
+  })
+})
