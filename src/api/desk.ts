@@ -1,7 +1,14 @@
 import { AuditPage, type AuditQuery } from '@shared/schemas/audit'
+import {
+  RecomputeStatus,
+  ShorelinePreview,
+  type LakeCreateInput,
+  type LakeEditInput,
+} from '@shared/schemas/desk'
+import { z } from 'zod'
 import { QuarantinePage, type QuarantineQuery } from '@shared/schemas/quarantine'
 import { StationList } from '@shared/schemas/stations'
-import { apiCommand, apiRequest } from './http'
+import { apiCommand, apiRequest, upload } from './http'
 
 /** The gauge desk: stations, quarantine review and the audit log (admins). */
 export const deskApi = {
@@ -11,4 +18,25 @@ export const deskApi = {
   release: (id: number) => apiCommand(`/admin/quarantine/${id}/release`),
   discard: (id: number) => apiCommand(`/admin/quarantine/${id}/discard`),
   audit: (query: Partial<AuditQuery>) => apiRequest(AuditPage, '/admin/audit', { query }),
+  previewShoreline: (file: File) =>
+    apiRequest(ShorelinePreview, '/admin/lakes/shoreline-preview', {
+      method: 'POST',
+      body: upload(file),
+    }),
+  createLake: (lake: LakeCreateInput, file: File) =>
+    apiRequest(z.object({ slug: z.string() }), '/admin/lakes', {
+      method: 'POST',
+      body: upload(file, lake),
+    }),
+  editLake: (slug: string, lake: LakeEditInput) =>
+    apiRequest(z.object({ slug: z.string() }), `/admin/lakes/${slug}`, {
+      method: 'PUT',
+      body: lake,
+    }),
+  replaceShoreline: (slug: string, file: File) =>
+    apiRequest(RecomputeStatus, `/admin/lakes/${slug}/shoreline`, {
+      method: 'POST',
+      body: upload(file),
+    }),
+  recompute: (slug: string) => apiRequest(RecomputeStatus, `/admin/lakes/${slug}/recompute`),
 }

@@ -10,7 +10,7 @@ import {
   type ClientInput,
   type TripInput,
 } from '@shared/schemas/guides'
-import { apiCommand, apiRequest } from './http'
+import { apiCommand, apiRequest, upload } from './http'
 
 const Shares = z.object({ items: z.array(ShareView) })
 
@@ -21,15 +21,12 @@ export const clientsApi = {
     apiRequest(ClientView, `/guide/clients/${id}`, { method: 'PUT', body }),
   remove: (id: string) => apiCommand(`/guide/clients/${id}`, { method: 'DELETE' }),
   /** A preview (nothing saved) unless `commit`. */
-  importCsv: (file: File, commit: boolean) => {
-    const body = new FormData()
-    body.append('file', file)
-    return apiRequest(ClientImportReport, '/guide/clients/import', {
+  importCsv: (file: File, commit: boolean) =>
+    apiRequest(ClientImportReport, '/guide/clients/import', {
       method: 'POST',
-      body,
+      body: upload(file),
       query: { commit: String(commit) },
-    })
-  },
+    }),
 }
 
 export const tripsApi = {

@@ -72,3 +72,11 @@ async function send(path: string, opts: RequestOptions): Promise<Response> {
   }
   return res
 }
+
+/** A multipart body: a file in the field `file`, with text fields beside it. */
+export function upload(file: File, fields: Record<string, string | number> = {}): FormData {
+  const form = new FormData()
+  for (const [k, v] of Object.entries(fields)) form.append(k, String(v))
+  form.append('file', file)
+  return form
+}

@@ -98,6 +98,12 @@ const router = createRouter({
       meta: { title: 'Your trip' },
     },
     {
+      path: '/admin/lakes',
+      name: 'admin-lakes',
+      component: () => import('@/views/AdminLakesView.vue'),
+      meta: { role: 'admin', title: 'Lakes (desk)' },
+    },
+    {
       path: '/admin/quarantine',
       name: 'admin-quarantine',
       component: () => import('@/views/AdminQuarantineView.vue'),

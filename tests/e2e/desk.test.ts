@@ -1,7 +1,7 @@
 import { join } from 'node:path'
 import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, it } from 'vitest'
-import { datastreams, quarantine } from '../../server/db/schema/index'
+import { datastreams, lakes, quarantine } from '../../server/db/schema/index'
 import { expectAccessible } from '../helpers/axe'
 import { artifactsDir } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
@@ -51,6 +51,44 @@ describe('the gauge desk in Chromium', () => {
     await expectAccessible(page, 'Audit log')
     await page.setViewportSize({ width: 1366, height: 900 })
     await page.screenshot({ path: join(artifactsDir, 'admin-audit-desktop.png'), fullPage: true })
+    await page.close()
+  })
+
+  it('lets an admin upload a lake outline, see it drawn before it replaces the old one, and refuses a broken one', async () => {
+    const [lake] = await e2e.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    await e2e.browser.context.clearCookies()
+    const page = await e2e.browser.context.newPage()
+    await signInAs(page, base, 'admin@chopline.test')
+    await page.getByRole('link', { name: 'Desk lakes' }).click()
+    await page.locator('.n-base-selection', { hasText: 'Choose a lake to edit' }).click()
+    await page.locator('.n-base-select-option', { hasText: 'Quillmere Reservoir' }).click()
+    await page.getByRole('heading', { name: 'Edit Quillmere Reservoir' }).waitFor()
+
+    const input = page.locator('input[type=file]')
+    await input.setInputFiles({
+      name: 'broken.geojson',
+      mimeType: 'application/geo+json',
+      buffer: Buffer.from('{"type": "Polygon", "coordinates": [[[0, 0], [1, 1]'),
+    })
+    await page.getByText('This outline cannot be used').waitFor()
+    await page.getByText('The file is not JSON.').waitFor()
+
+    await input.setInputFiles({
+      name: 'quillmere.geojson',
+      mimeType: 'application/geo+json',
+      buffer: Buffer.from(
+        JSON.stringify({ type: 'Feature', properties: {}, geometry: lake!.shoreline }),
+      ),
+    })
+    await page.getByRole('img', { name: 'Preview of the uploaded outline' }).waitFor()
+    await page.getByText(/km² of water, \d+ vertices/).waitFor()
+    await expectAccessible(page, 'Desk lakes with a preview')
+    await page.screenshot({
+      path: join(artifactsDir, 'desk-outline-preview-phone.png'),
+      fullPage: true,
+    })
+    await page.getByRole('button', { name: 'Replace the outline' }).click()
+    await page.getByText('Outline replaced and banks recomputed.').waitFor()
     await page.close()
   })
 })
