@@ -65,6 +65,8 @@ export interface AppDeps {
   staticDir?: string
   /** Vite's dev middleware, for `npm run dev`. */
   devMiddleware?: RequestHandler
+  /** The gauge-and-weather feed, for an admin's "run now" on one station. */
+  feedUrl?: string
   /** Outgoing mail (verification links); the morning brief job has its own. */
   mail: MailContext
   /** The local SMTP stand-in's catch, listed for admins in development; absent in production. */
@@ -137,7 +139,15 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(lakesRoutes(lakesService(lakesRepo(deps.db)), lakeReadService(lakeReadRepo(deps.db))))
   api.use(conditionsRoutes(conditionsFor(deps.db)))
   api.use(banksRoutes(banksService(banksRepo(deps.db))))
-  api.use(stationsRoutes(stationsService(stationsRepo(deps.db))))
+  api.use(
+    stationsRoutes(
+      stationsService(stationsRepo(deps.db), {
+        db: deps.db,
+        log: deps.logger,
+        feedUrl: deps.feedUrl,
+      }),
+    ),
+  )
   api.use(settingsRoutes(settingsService(settingsRepo(deps.db))))
   api.use(
     briefRoutes(

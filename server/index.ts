@@ -78,6 +78,7 @@ async function main() {
     secureCookies: env.NODE_ENV === 'production',
     appOrigin: APP_ORIGIN,
     staticDir: clientDir,
+    feedUrl: FEED_URL,
     mail,
     onClose: async () => {
       await scheduler.stop()

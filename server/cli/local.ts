@@ -58,6 +58,7 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
     log.info({ result: await runSendBriefs(ctx) }, 'morning briefs due now sent')
   })().catch((err: unknown) => log.error({ err }, 'first ingestion failed'))
   return {
+    feedUrl,
     mail,
     mailbox: fakeSmtp,
     stop: async () => {
@@ -121,6 +122,7 @@ export async function serveLocal(
       sessionSecret: stack.sessionSecret,
       secureCookies: false,
       appOrigin: env.APP_ORIGIN,
+      feedUrl: services.feedUrl,
       mail: services.mail,
       mailbox: services.mailbox,
       onClose: async () => {

@@ -31,3 +31,32 @@ export type StationHealth = z.infer<typeof StationHealth>
 
 export const StationList = z.object({ items: z.array(StationHealth) })
 export type StationList = z.infer<typeof StationList>
+
+/** A station as an admin creates or edits it; setting `active` false deactivates it. */
+export const StationInput = z.object({
+  name: z
+    .string()
+    .trim()
+    .min(1, 'Give the station a name.')
+    .max(80, 'Keep the name under 80 characters.'),
+  lakeSlug: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Choose a lake.'),
+  feedThingId: z
+    .string()
+    .trim()
+    .regex(
+      /^[A-Za-z0-9._:-]{1,40}$/,
+      'The feed identifier is letters, digits and . _ : - (up to 40).',
+    ),
+  active: z.boolean().default(true),
+})
+export type StationInput = z.infer<typeof StationInput>
+export const StationParams = z.object({ id: z.uuid('Not a station.') })
+
+/** What one run of ingestion for a station did. */
+export const StationRunResult = z.object({
+  good: z.number().int(),
+  quarantined: z.number().int(),
+  failed: z.boolean(),
+  health: StationHealth.shape.health,
+})
+export type StationRunResult = z.infer<typeof StationRunResult>

@@ -136,3 +136,55 @@ describe('the audit log', () => {
     })
   })
 })
+
+describe('stations on the desk', () => {
+  it('creates, edits and deactivates stations with a message per bad field, and audits each', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'stations@admin.test', 'admin')
+    const station = {
+      name: 'South dam',
+      lakeSlug: 'quillmere',
+      feedThingId: 'new-901',
+      active: true,
+    }
+    const { id } = (await admin.post('/api/admin/stations').send(station).expect(201)).body
+    const again = await admin.post('/api/admin/stations').send(station).expect(409)
+    expect(again.body.error.fields.feedThingId).toBeDefined()
+    const bad = await admin
+      .post('/api/admin/stations')
+      .send({ name: '', lakeSlug: 'atlantis', feedThingId: 'has spaces' })
+      .expect(400)
+    expect(Object.keys(bad.body.error.fields).sort()).toEqual(['feedThingId', 'name'])
+    const unknownLake = await admin
+      .post('/api/admin/stations')
+      .send({ ...station, feedThingId: 'new-902', lakeSlug: 'atlantis' })
+      .expect(400)
+    expect(unknownLake.body.error.fields.lakeSlug).toBe('No such lake.')
+
+    await admin
+      .put(`/api/admin/stations/${id}`)
+      .send({ ...station, active: false })
+      .expect(200)
+    const listed = (await admin.get('/api/admin/stations').expect(200)).body.items
+    expect(listed.find((s: { id: string }) => s.id === id)).toMatchObject({ active: false })
+    const log = AuditPage.parse((await admin.get('/api/admin/audit').expect(200)).body)
+    expect(log.items.slice(0, 2).map((e) => e.action)).toEqual([
+      'station.deactivate',
+      'station.create',
+    ])
+    expect((await admin.post(`/api/admin/stations/${id}/run`).expect(409)).body.error.code).toBe(
+      'station_inactive',
+    )
+  })
+
+  it('runs ingestion for one station now and reports what it read', async () => {
+    const app = testApp(ctx.db, { feedUrl: feed.url })
+    const admin = await signedInAgent(app, ctx.db, 'runner@admin.test', 'admin')
+    const res = await admin.post(`/api/admin/stations/${station.id}/run`).expect(200)
+    expect(res.body).toMatchObject({ failed: false, health: { state: expect.any(String) } })
+    expect(res.body.good + res.body.quarantined).toBeGreaterThan(0)
+    const noFeed = await signedInAgent(testApp(ctx.db), ctx.db, 'nofeed@admin.test', 'admin')
+    expect(
+      (await noFeed.post(`/api/admin/stations/${station.id}/run`).expect(503)).body.error.code,
+    ).toBe('no_feed')
+  })
+})

@@ -53,16 +53,21 @@ const plainArray = (values: (number | string)[]) => `{${values.join(',')}}`
 
 export function ingestRepo(db: Db) {
   return {
-    /** Stations to read now: active, and not resting behind an open circuit breaker. */
-    dueStations: (now: Date, lakeId?: string) =>
+    /**
+     * Stations to read now: active, and not resting behind an open circuit breaker, unless one
+     * station is asked for by name (an admin's "run now" tries it even with the breaker open).
+     */
+    dueStations: (now: Date, scope: { lakeId?: string; stationId?: string } = {}) =>
       db
         .select()
         .from(stations)
         .where(
           and(
             eq(stations.active, true),
-            or(isNull(stations.circuitOpenUntil), lte(stations.circuitOpenUntil, now)),
-            lakeId ? eq(stations.lakeId, lakeId) : undefined,
+            scope.stationId
+              ? eq(stations.id, scope.stationId)
+              : or(isNull(stations.circuitOpenUntil), lte(stations.circuitOpenUntil, now)),
+            scope.lakeId ? eq(stations.lakeId, scope.lakeId) : undefined,
           ),
         ),
 

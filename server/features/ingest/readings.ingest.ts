@@ -296,7 +296,7 @@ async function listOrError(
 /** One pass of `ingest-readings` over every due station. */
 export async function ingestReadings(
   deps: IngestDeps,
-  scope: { lakeId?: string } = {},
+  scope: { lakeId?: string; stationId?: string } = {},
 ): Promise<IngestSummary> {
   const repo = ingestRepo(deps.db)
   const now = (deps.now ?? (() => new Date()))()
@@ -305,7 +305,7 @@ export async function ingestReadings(
     policy: deps.policy ?? DEFAULT_POLICY,
     pageSize: deps.pageSize ?? 500,
   }
-  const due = await repo.dueStations(now, scope.lakeId)
+  const due = await repo.dueStations(now, scope)
   const summary: IngestSummary = { stations: due.length, failed: 0, good: 0, quarantined: 0 }
   const listing = await listOrError(opts)
   const reads =
@@ -345,7 +345,7 @@ export async function backfillReadings(
     pageSize: deps.pageSize ?? 1000,
   }
   const start = new Date(now.getTime() - days * 86_400_000)
-  const stations = await repo.dueStations(now, lakeId)
+  const stations = await repo.dueStations(now, { lakeId })
   const listing = await discover(opts)
   const reads = await plan(repo, stations, listing, (ds) =>
     ds.backfillCursor && ds.backfillCursor > start ? ds.backfillCursor : start,

@@ -1,11 +1,29 @@
 import { Router } from 'express'
-import { requireRole } from '../../http/access'
+import { StationInput, StationParams } from '../../../shared/schemas/stations'
+import { currentUser, requireRole } from '../../http/access'
+import { input, validate } from '../../http/validate'
 import type { StationsService } from './stations.service'
 
+/** The gauge desk's stations (admins): health, create, edit or deactivate, run ingestion now. */
 export function stationsRoutes(stations: StationsService): Router {
   const router = Router()
-  router.get('/admin/stations', requireRole('admin'), async (_req, res) => {
+  router.use('/admin/stations', requireRole('admin'))
+  router.get('/admin/stations', async (_req, res) => {
     res.json(await stations.list())
+  })
+  router.post('/admin/stations', validate({ body: StationInput }), async (req, res) => {
+    res.status(201).json(await stations.create(currentUser(req), input(StationInput, req.body)))
+  })
+  router.put(
+    '/admin/stations/:id',
+    validate({ params: StationParams, body: StationInput }),
+    async (req, res) => {
+      const { id } = input(StationParams, req.params)
+      res.json(await stations.edit(currentUser(req), id, input(StationInput, req.body)))
+    },
+  )
+  router.post('/admin/stations/:id/run', validate({ params: StationParams }), async (req, res) => {
+    res.json(await stations.runNow(currentUser(req), input(StationParams, req.params).id))
   })
   return router
 }

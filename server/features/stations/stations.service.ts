@@ -1,8 +1,55 @@
 import { isoOrNull } from '../../../shared/time'
-import type { StationList } from '../../../shared/schemas/stations'
-import type { StationsRepo } from './stations.repo'
+import type { User } from '../../../shared/schemas/auth'
+import type { StationInput, StationList, StationRunResult } from '../../../shared/schemas/stations'
+import type { Db } from '../../db/index'
+import { HttpError } from '../../http/errors'
+import type { Logger } from '../../logger'
+import { audit } from '../audit/audit.repo'
+import { ingestReadings } from '../ingest/readings.ingest'
+import type { StationsRepo, StationValues } from './stations.repo'
 
-export function stationsService(repo: StationsRepo) {
+type Actor = Pick<User, 'id' | 'email'>
+type StationRow = NonNullable<Awaited<ReturnType<StationsRepo['byId']>>>
+
+const health = (s: StationRow) => ({
+  state: s.state,
+  lastGoodAt: isoOrNull(s.lastGoodAt),
+  lastRunAt: isoOrNull(s.lastRunAt),
+  lastError: s.lastError,
+  gapCount: s.gapCount,
+  rejected24h: s.rejected24h,
+  circuitOpenUntil: isoOrNull(s.circuitOpenUntil),
+})
+const fields = (s: StationValues) => ({
+  name: s.name,
+  lakeId: s.lakeId,
+  feedThingId: s.feedThingId,
+  active: s.active,
+})
+const taken = () =>
+  new HttpError(409, 'feed_id_taken', 'Another station has that feed identifier.', {
+    feedThingId: 'Another station has that feed identifier.',
+  })
+
+/** The gauge desk's stations: health, create, edit or deactivate, and a run of ingestion now. */
+export function stationsService(
+  repo: StationsRepo,
+  deps: { db: Db; log: Logger; feedUrl?: string },
+) {
+  async function values(input: StationInput): Promise<StationValues> {
+    const lakeId = await repo.lakeId(input.lakeSlug)
+    if (!lakeId)
+      throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
+        lakeSlug: 'No such lake.',
+      })
+    return { name: input.name, lakeId, feedThingId: input.feedThingId, active: input.active }
+  }
+  async function station(id: string) {
+    const row = await repo.byId(id)
+    if (!row) throw new HttpError(404, 'not_found', 'No such station.')
+    return row
+  }
+
   return {
     async list(): Promise<StationList> {
       const { rows, streams } = await repo.listWithLakes()
@@ -20,16 +67,72 @@ export function stationsService(repo: StationsRepo) {
               unit: d.unit,
               highWaterMark: isoOrNull(d.highWaterMark),
             })),
-          health: {
-            state: s.state,
-            lastGoodAt: isoOrNull(s.lastGoodAt),
-            lastRunAt: isoOrNull(s.lastRunAt),
-            lastError: s.lastError,
-            gapCount: s.gapCount,
-            rejected24h: s.rejected24h,
-            circuitOpenUntil: isoOrNull(s.circuitOpenUntil),
-          },
+          health: health(s),
         })),
+      }
+    },
+
+    async create(actor: Actor, input: StationInput) {
+      const v = await values(input)
+      return deps.db.transaction(async (tx) => {
+        const row = await repo.create(v, tx)
+        if (!row) throw taken()
+        await audit(tx, actor, {
+          action: 'station.create',
+          targetType: 'station',
+          targetId: row.id,
+          before: null,
+          after: fields(v),
+        })
+        return { id: row.id }
+      })
+    },
+
+    async edit(actor: Actor, id: string, input: StationInput) {
+      const before = await station(id)
+      const v = await values(input)
+      if (await repo.feedIdTaken(v.feedThingId, id)) throw taken()
+      await deps.db.transaction(async (tx) => {
+        await repo.update(id, v, tx)
+        await audit(tx, actor, {
+          action: before.active && !v.active ? 'station.deactivate' : 'station.edit',
+          targetType: 'station',
+          targetId: id,
+          before: fields(before),
+          after: fields(v),
+        })
+      })
+      return { id }
+    },
+
+    /** Reads the station's new observations now, as the job would, and reports what it did. */
+    async runNow(actor: Actor, id: string): Promise<StationRunResult> {
+      const row = await station(id)
+      if (!row.active)
+        throw new HttpError(
+          409,
+          'station_inactive',
+          'This station is deactivated; activate it first.',
+        )
+      if (!deps.feedUrl)
+        throw new HttpError(503, 'no_feed', 'This server has no feed to read from.')
+      const summary = await ingestReadings(
+        { db: deps.db, feedUrl: deps.feedUrl, log: deps.log },
+        { stationId: id },
+      )
+      const after = await station(id)
+      await audit(deps.db, actor, {
+        action: 'station.run',
+        targetType: 'station',
+        targetId: id,
+        before: null,
+        after: { good: summary.good, quarantined: summary.quarantined, failed: summary.failed },
+      })
+      return {
+        good: summary.good,
+        quarantined: summary.quarantined,
+        failed: summary.failed > 0,
+        health: health(after),
       }
     },
   }
