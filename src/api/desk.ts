@@ -7,12 +7,18 @@ import {
 } from '@shared/schemas/desk'
 import { z } from 'zod'
 import { QuarantinePage, type QuarantineQuery } from '@shared/schemas/quarantine'
-import { StationList } from '@shared/schemas/stations'
+import { StationList, StationRunResult, type StationInput } from '@shared/schemas/stations'
 import { apiCommand, apiRequest, upload } from './http'
 
 /** The gauge desk: stations, quarantine review and the audit log (admins). */
 export const deskApi = {
   stations: () => apiRequest(StationList, '/admin/stations'),
+  createStation: (body: StationInput) =>
+    apiRequest(z.object({ id: z.string() }), '/admin/stations', { method: 'POST', body }),
+  editStation: (id: string, body: StationInput) =>
+    apiRequest(z.object({ id: z.string() }), `/admin/stations/${id}`, { method: 'PUT', body }),
+  runStation: (id: string) =>
+    apiRequest(StationRunResult, `/admin/stations/${id}/run`, { method: 'POST' }),
   quarantine: (query: Partial<QuarantineQuery>) =>
     apiRequest(QuarantinePage, '/admin/quarantine', { query }),
   release: (id: number) => apiCommand(`/admin/quarantine/${id}/release`),

@@ -98,6 +98,12 @@ const router = createRouter({
       meta: { title: 'Your trip' },
     },
     {
+      path: '/admin/stations',
+      name: 'admin-stations',
+      component: () => import('@/views/AdminStationsView.vue'),
+      meta: { role: 'admin', title: 'Stations' },
+    },
+    {
       path: '/admin/lakes',
       name: 'admin-lakes',
       component: () => import('@/views/AdminLakesView.vue'),
