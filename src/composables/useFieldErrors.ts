@@ -25,5 +25,10 @@ export function useFieldErrors() {
     take,
     status: (field: string) => (fields[field] ? ('error' as const) : undefined),
     feedback: (field: string) => fields[field],
+    /** Both at once, for `v-bind` on an n-form-item. */
+    bind: (field: string) => ({
+      'validation-status': fields[field] ? ('error' as const) : undefined,
+      feedback: fields[field],
+    }),
   }
 }
