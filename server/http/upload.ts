@@ -1,6 +1,10 @@
 import multer from 'multer'
 import type { RequestHandler } from 'express'
+import { z } from 'zod'
 import { HttpError } from './errors'
+
+/** `?commit=true` saves an upload; without it the upload is only checked and reported. */
+export const ImportQuery = z.object({ commit: z.enum(['true', 'false']).default('false') })
 
 /**
  * One uploaded file in field `file`, held in memory (never written to disk, so its name is never

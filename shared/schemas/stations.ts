@@ -60,3 +60,27 @@ export const StationRunResult = z.object({
   health: StationHealth.shape.health,
 })
 export type StationRunResult = z.infer<typeof StationRunResult>
+
+/** The columns of a readings CSV, in its header row, in any order; unit may be left out. */
+export const READINGS_CSV_COLUMNS = ['parameter', 'observed_at', 'value', 'unit'] as const
+
+/** Each row of an imported readings CSV and what became of it. */
+export const ReadingsImportReport = z.object({
+  rows: z.array(
+    z.object({
+      line: z.number().int(),
+      parameter: z.string(),
+      observedAt: z.string(),
+      value: z.string(),
+      /** stored: good (or already there); quarantined: refused by the ingest rules; invalid: unusable. */
+      status: z.enum(['stored', 'quarantined', 'invalid']),
+      reason: z.string().nullable(),
+    }),
+  ),
+  stored: z.number().int(),
+  quarantined: z.number().int(),
+  invalid: z.number().int(),
+  /** False for a preview, which saves nothing. */
+  committed: z.boolean(),
+})
+export type ReadingsImportReport = z.infer<typeof ReadingsImportReport>

@@ -7,7 +7,12 @@ import {
 } from '@shared/schemas/desk'
 import { z } from 'zod'
 import { QuarantinePage, type QuarantineQuery } from '@shared/schemas/quarantine'
-import { StationList, StationRunResult, type StationInput } from '@shared/schemas/stations'
+import {
+  ReadingsImportReport,
+  StationList,
+  StationRunResult,
+  type StationInput,
+} from '@shared/schemas/stations'
 import { apiCommand, apiRequest, upload } from './http'
 
 /** The gauge desk: stations, quarantine review and the audit log (admins). */
@@ -17,6 +22,12 @@ export const deskApi = {
     apiRequest(z.object({ id: z.string() }), '/admin/stations', { method: 'POST', body }),
   editStation: (id: string, body: StationInput) =>
     apiRequest(z.object({ id: z.string() }), `/admin/stations/${id}`, { method: 'PUT', body }),
+  importReadings: (id: string, file: File, commit: boolean) =>
+    apiRequest(ReadingsImportReport, `/admin/stations/${id}/readings`, {
+      method: 'POST',
+      body: upload(file),
+      query: { commit: String(commit) },
+    }),
   runStation: (id: string) =>
     apiRequest(StationRunResult, `/admin/stations/${id}/run`, { method: 'POST' }),
   quarantine: (query: Partial<QuarantineQuery>) =>

@@ -1,7 +1,7 @@
 import { join } from 'node:path'
 import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, it } from 'vitest'
-import { datastreams, lakes, quarantine } from '../../server/db/schema/index'
+import { datastreams, lakes, quarantine, stations } from '../../server/db/schema/index'
 import { expectAccessible } from '../helpers/axe'
 import { artifactsDir } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
@@ -111,6 +111,27 @@ describe('the gauge desk in Chromium', () => {
     await form.getByRole('button', { name: 'Add station' }).click()
     await page.getByText('Added Spillway gauge.').waitFor()
     await page.getByRole('button', { name: 'Edit Spillway gauge' }).waitFor()
+
+    // History from a CSV for a station the demo reads: checked row by row, then imported.
+    const [stream] = await e2e.db
+      .select()
+      .from(datastreams)
+      .where(eq(datastreams.parameter, 'water_temp'))
+    const name = (
+      await e2e.db.select().from(stations).where(eq(stations.id, stream!.stationId))
+    )[0]!.name
+    await page.getByText(`Import readings for ${name} (CSV)`).click()
+    await page.getByLabel(`Readings file for ${name}`).setInputFiles({
+      name: 'history.csv',
+      mimeType: 'text/csv',
+      buffer: Buffer.from(
+        'parameter,observed_at,value,unit\nwater_temp,2026-01-05T12:00:00Z,6.5,°C\nwater_temp,2026-01-05T12:15:00Z,60,°C\n',
+      ),
+    })
+    await page.getByText('Ready: 1 to store, 1 for quarantine, 0 unusable.').waitFor()
+    await expectAccessible(page, 'Readings import preview')
+    await page.getByRole('button', { name: 'Import 2 rows' }).click()
+    await page.getByText('Imported: 1 to store, 1 for quarantine, 0 unusable.').waitFor()
     await page.close()
   })
 })

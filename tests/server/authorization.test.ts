@@ -55,6 +55,7 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'POST /admin/stations': admins,
   'PUT /admin/stations/:id': admins,
   'POST /admin/stations/:id/run': admins,
+  'POST /admin/stations/:id/readings': admins,
   'GET /me/settings': signedIn,
   'PUT /me/settings': signedIn,
   'GET /me/brief': signedIn,
@@ -119,100 +120,104 @@ beforeAll(async () => {
 afterAll(() => ctx.drop())
 
 describe('the authorization matrix', () => {
-  it('has a row for every API route, and every route answers each caller as its row says', async () => {
-    const app = testApp(ctx.db)
-    const routes = apiRoutes(app)
-    const missing = routes.map((r) => `${r.method} ${r.path}`).filter((key) => !MATRIX[key])
-    expect(missing, 'routes without a row in the matrix').toEqual([])
-    expect(routes.length).toBe(Object.keys(MATRIX).length)
+  it(
+    'has a row for every API route, and every route answers each caller as its row says',
+    { timeout: 60_000 },
+    async () => {
+      const app = testApp(ctx.db)
+      const routes = apiRoutes(app)
+      const missing = routes.map((r) => `${r.method} ${r.path}`).filter((key) => !MATRIX[key])
+      expect(missing, 'routes without a row in the matrix').toEqual([])
+      expect(routes.length).toBe(Object.keys(MATRIX).length)
 
-    const agents = {
-      anonymous: request.agent(app),
-      angler: await signedInAgent(app, ctx.db, 'm-angler@matrix.test'),
-      guide: await signedInAgent(app, ctx.db, 'm-guide@matrix.test', 'guide'),
-      otherGuide: await signedInAgent(app, ctx.db, 'm-other@matrix.test', 'guide'),
-      admin: await signedInAgent(app, ctx.db, 'm-admin@matrix.test', 'admin'),
-    }
-    const target = await signedInAgent(app, ctx.db, 'm-target@matrix.test')
-    const targetId = (await target.get('/api/me')).body.user.id as string
-
-    // The guide's own rows, for the routes that name one.
-    const [lake] = await ctx.db.select().from(lakes)
-    const shore = (lake!.shoreline as { coordinates: [number, number][][] }).coordinates[0]!
-    const bankBody = { name: 'Matrix point', points: [shore[5], shore[8]], cover: ['rock'] }
-    const bank = (
-      await agents.guide.post(`/api/lakes/${lake!.slug}/banks`).send(bankBody).expect(201)
-    ).body.id as string
-    const clientBody = { name: 'Matrix Client', email: 'client@matrix.test' }
-    const client = (await agents.guide.post('/api/guide/clients').send(clientBody).expect(201)).body
-      .id as string
-    const today = new Date().toISOString().slice(0, 10)
-    const tripBody = {
-      lakeSlug: lake!.slug,
-      date: today,
-      meetingPoint: 'Ramp',
-      meetingTime: '06:00',
-      bankIds: [bank],
-    }
-    const trip = (await agents.guide.post('/api/guide/trips').send(tripBody).expect(201)).body
-      .id as string
-    const share = (
-      await agents.guide
-        .post(`/api/guide/trips/${trip}/shares`)
-        .send({ expiresOn: '2099-01-01' })
-        .expect(201)
-    ).body.items[0]
-    const token = new URL(share.url).pathname.split('/').pop()!
-
-    const concrete = (path: string) =>
-      `/api${path}`
-        .replace(':slug', lake!.slug)
-        .replace(':date', today)
-        .replace(':token', token)
-        .replace(':shareId', share.id)
-        .replace(
-          ':id',
-          path.startsWith('/lakes/')
-            ? bank
-            : path.startsWith('/guide/clients')
-              ? client
-              : path.startsWith('/guide/trips')
-                ? trip
-                : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
-                  ? '1'
-                  : targetId,
-        )
-    /** Valid bodies where a route checks ownership after the body: otherwise validation answers first. */
-    const bodies: Record<string, object> = {
-      'PUT /lakes/:slug/banks/:id': bankBody,
-      'PUT /guide/clients/:id': clientBody,
-      'PUT /guide/trips/:id': tripBody,
-      'POST /guide/trips/:id/shares': { expiresOn: '2099-01-01' },
-      'POST /guide/trips/:id/shares/:shareId/send': { clientIds: [client] },
-      'PATCH /admin/users/:id': { role: 'angler' },
-    }
-    const body = (method: string, path: string) => bodies[`${method} ${path}`] ?? {}
-
-    // Deletions late, the most nested first, so each route still finds the rows it names; signing
-    // out ends the sessions, so it goes last of all.
-    const rank = (r: { method: string; path: string }) =>
-      r.path === '/auth/signout' ? 2 : r.method === 'DELETE' ? 1 : 0
-    const order = [...routes].sort(
-      (a, b) => rank(a) - rank(b) || (rank(a) === 1 ? b.path.length - a.path.length : 0),
-    )
-    const wrong: string[] = []
-    for (const { method, path } of order) {
-      const key = `${method} ${path}`
-      for (const who of WHO) {
-        const res = await agents[who][method.toLowerCase() as 'get'](concrete(path)).send(
-          body(method, path),
-        )
-        const expected = MATRIX[key]![who]
-        const fine =
-          expected === 'ok' ? res.status !== 401 && res.status !== 403 : res.status === expected
-        if (!fine) wrong.push(`${key} as ${who}: expected ${expected}, got ${res.status}`)
+      const agents = {
+        anonymous: request.agent(app),
+        angler: await signedInAgent(app, ctx.db, 'm-angler@matrix.test'),
+        guide: await signedInAgent(app, ctx.db, 'm-guide@matrix.test', 'guide'),
+        otherGuide: await signedInAgent(app, ctx.db, 'm-other@matrix.test', 'guide'),
+        admin: await signedInAgent(app, ctx.db, 'm-admin@matrix.test', 'admin'),
       }
-    }
-    expect(wrong).toEqual([])
-  })
+      const target = await signedInAgent(app, ctx.db, 'm-target@matrix.test')
+      const targetId = (await target.get('/api/me')).body.user.id as string
+
+      // The guide's own rows, for the routes that name one.
+      const [lake] = await ctx.db.select().from(lakes)
+      const shore = (lake!.shoreline as { coordinates: [number, number][][] }).coordinates[0]!
+      const bankBody = { name: 'Matrix point', points: [shore[5], shore[8]], cover: ['rock'] }
+      const bank = (
+        await agents.guide.post(`/api/lakes/${lake!.slug}/banks`).send(bankBody).expect(201)
+      ).body.id as string
+      const clientBody = { name: 'Matrix Client', email: 'client@matrix.test' }
+      const client = (await agents.guide.post('/api/guide/clients').send(clientBody).expect(201))
+        .body.id as string
+      const today = new Date().toISOString().slice(0, 10)
+      const tripBody = {
+        lakeSlug: lake!.slug,
+        date: today,
+        meetingPoint: 'Ramp',
+        meetingTime: '06:00',
+        bankIds: [bank],
+      }
+      const trip = (await agents.guide.post('/api/guide/trips').send(tripBody).expect(201)).body
+        .id as string
+      const share = (
+        await agents.guide
+          .post(`/api/guide/trips/${trip}/shares`)
+          .send({ expiresOn: '2099-01-01' })
+          .expect(201)
+      ).body.items[0]
+      const token = new URL(share.url).pathname.split('/').pop()!
+
+      const concrete = (path: string) =>
+        `/api${path}`
+          .replace(':slug', lake!.slug)
+          .replace(':date', today)
+          .replace(':token', token)
+          .replace(':shareId', share.id)
+          .replace(
+            ':id',
+            path.startsWith('/lakes/')
+              ? bank
+              : path.startsWith('/guide/clients')
+                ? client
+                : path.startsWith('/guide/trips')
+                  ? trip
+                  : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
+                    ? '1'
+                    : targetId,
+          )
+      /** Valid bodies where a route checks ownership after the body: otherwise validation answers first. */
+      const bodies: Record<string, object> = {
+        'PUT /lakes/:slug/banks/:id': bankBody,
+        'PUT /guide/clients/:id': clientBody,
+        'PUT /guide/trips/:id': tripBody,
+        'POST /guide/trips/:id/shares': { expiresOn: '2099-01-01' },
+        'POST /guide/trips/:id/shares/:shareId/send': { clientIds: [client] },
+        'PATCH /admin/users/:id': { role: 'angler' },
+      }
+      const body = (method: string, path: string) => bodies[`${method} ${path}`] ?? {}
+
+      // Deletions late, the most nested first, so each route still finds the rows it names; signing
+      // out ends the sessions, so it goes last of all.
+      const rank = (r: { method: string; path: string }) =>
+        r.path === '/auth/signout' ? 2 : r.method === 'DELETE' ? 1 : 0
+      const order = [...routes].sort(
+        (a, b) => rank(a) - rank(b) || (rank(a) === 1 ? b.path.length - a.path.length : 0),
+      )
+      const wrong: string[] = []
+      for (const { method, path } of order) {
+        const key = `${method} ${path}`
+        for (const who of WHO) {
+          const res = await agents[who][method.toLowerCase() as 'get'](concrete(path)).send(
+            body(method, path),
+          )
+          const expected = MATRIX[key]![who]
+          const fine =
+            expected === 'ok' ? res.status !== 401 && res.status !== 403 : res.status === expected
+          if (!fine) wrong.push(`${key} as ${who}: expected ${expected}, got ${res.status}`)
+        }
+      }
+      expect(wrong).toEqual([])
+    },
+  )
 })

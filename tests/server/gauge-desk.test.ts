@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { toSi } from '../../shared/readings'
 import { AuditPage } from '../../shared/schemas/audit'
 import { QuarantinePage } from '../../shared/schemas/quarantine'
+import { ReadingsImportReport } from '../../shared/schemas/stations'
 import { datastreams, lakes, quarantine, readings, stations } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
@@ -186,5 +187,63 @@ describe('stations on the desk', () => {
     expect(
       (await noFeed.post(`/api/admin/stations/${station.id}/run`).expect(503)).body.error.code,
     ).toBe('no_feed')
+  })
+})
+
+describe('readings import', () => {
+  it('checks a CSV by the ingest rules, previews it, stores and quarantines it, and a second import changes nothing', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'import@admin.test', 'admin')
+    const csv = Buffer.from(
+      [
+        'parameter,observed_at,value,unit',
+        'water_temp,2026-03-01T00:00:00Z,10,°C',
+        'water_temp,2026-03-01T00:15:00Z,10.2,°C',
+        // 60 °C: no lake is that warm (the range rule of ingestion).
+        'water_temp,2026-03-01T00:30:00Z,60,°C',
+        'water_temp,yesterday,10,°C',
+        'air_pressure,2026-03-01T00:00:00Z,1013,hPa',
+      ].join('\n'),
+    )
+    const send = (commit: boolean) =>
+      admin
+        .post(`/api/admin/stations/${station.id}/readings?commit=${commit}`)
+        .attach('file', csv, 'history.csv')
+        .expect(200)
+    const march = async () =>
+      (
+        await ctx.db.execute<{ n: number }>(
+          sql`select count(*)::int as n from readings where station_id = ${station.id} and observed_at < '2026-03-02'`,
+        )
+      ).rows[0]!.n
+    const held = async () =>
+      (
+        await ctx.db.execute<{ n: number }>(
+          sql`select count(*)::int as n from quarantine where feed_id like 'csv:%'`,
+        )
+      ).rows[0]!.n
+
+    const preview = ReadingsImportReport.parse((await send(false)).body)
+    expect(preview.rows.map((r) => [r.line, r.status])).toEqual([
+      [2, 'stored'],
+      [3, 'stored'],
+      [4, 'quarantined'],
+      [5, 'quarantined'],
+      [6, 'invalid'],
+    ])
+    expect(preview.rows[2]!.reason).toMatch(/out_of_range/)
+    expect(preview.rows[4]!.reason).toMatch(/Unknown parameter/)
+    expect([await march(), await held()]).toEqual([0, 0])
+
+    const done = ReadingsImportReport.parse((await send(true)).body)
+    expect(done).toMatchObject({ stored: 2, quarantined: 2, invalid: 1, committed: true })
+    expect([await march(), await held()]).toEqual([2, 2])
+    await send(true)
+    expect([await march(), await held()]).toEqual([2, 2])
+
+    const bad = await admin
+      .post(`/api/admin/stations/${station.id}/readings`)
+      .attach('file', Buffer.from('when,how much\n1,2'), 'history.csv')
+      .expect(400)
+    expect(bad.body.error.fields.file).toBeDefined()
   })
 })

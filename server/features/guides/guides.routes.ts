@@ -1,5 +1,4 @@
 import { Router } from 'express'
-import { z } from 'zod'
 import {
   ClientInput,
   IdParams,
@@ -11,11 +10,9 @@ import {
 } from '../../../shared/schemas/guides'
 import { currentUser, requireRole } from '../../http/access'
 import { input, validate } from '../../http/validate'
-import { singleUpload } from '../../http/upload'
+import { ImportQuery, singleUpload } from '../../http/upload'
 import type { ClientsService } from './clients.service'
 import type { TripsService } from './trips.service'
-
-const ImportQuery = z.object({ commit: z.enum(['true', 'false']).default('false') })
 
 /**
  * A guide's clients and trips under /guide (a trip, a client or a link of another guide is a 404),

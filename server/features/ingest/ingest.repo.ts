@@ -100,6 +100,9 @@ export function ingestRepo(db: Db) {
      * For each datastream, the last good reading at or before `from(ds)`: what a new reading's rate
      * of change is judged against. One query for the whole run.
      */
+    datastreamsOf: (stationId: string) =>
+      db.select().from(datastreams).where(eq(datastreams.stationId, stationId)),
+
     async lastGoodBefore(marks: { ds: DatastreamRow; from: Date }[]) {
       if (!marks.length) return new Map<string, { value: number; at: Date }>()
       const { rows } = await db.execute<{ id: string; value: number; at: string }>(sql`

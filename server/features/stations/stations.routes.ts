@@ -1,6 +1,8 @@
 import { Router } from 'express'
 import { StationInput, StationParams } from '../../../shared/schemas/stations'
+import { ImportQuery } from '../../http/upload'
 import { currentUser, requireRole } from '../../http/access'
+import { singleUpload } from '../../http/upload'
 import { input, validate } from '../../http/validate'
 import type { StationsService } from './stations.service'
 
@@ -20,6 +22,18 @@ export function stationsRoutes(stations: StationsService): Router {
     async (req, res) => {
       const { id } = input(StationParams, req.params)
       res.json(await stations.edit(currentUser(req), id, input(StationInput, req.body)))
+    },
+  )
+  router.post(
+    '/admin/stations/:id/readings',
+    validate({ params: StationParams }),
+    singleUpload({ maxBytes: 5 * 1024 * 1024, extensions: ['.csv'] }),
+    validate({ query: ImportQuery }),
+    async (req, res) => {
+      const { id } = input(StationParams, req.params)
+      const commit = input(ImportQuery, req.query).commit === 'true'
+      const csv = req.file!.buffer.toString('utf8')
+      res.json(await stations.importReadings(currentUser(req), id, csv, commit))
     },
   )
   router.post('/admin/stations/:id/run', validate({ params: StationParams }), async (req, res) => {

@@ -6,6 +6,7 @@ import { HttpError } from '../../http/errors'
 import type { Logger } from '../../logger'
 import { audit } from '../audit/audit.repo'
 import { ingestReadings } from '../ingest/readings.ingest'
+import { importReadingsCsv } from './readings-import'
 import type { StationsRepo, StationValues } from './stations.repo'
 
 type Actor = Pick<User, 'id' | 'email'>
@@ -103,6 +104,25 @@ export function stationsService(
         })
       })
       return { id }
+    },
+
+    /** Historical readings from a CSV: a preview, or stored and quarantined as ingestion would. */
+    async importReadings(actor: Actor, id: string, csv: string, commit: boolean) {
+      await station(id)
+      const report = await importReadingsCsv(deps.db, id, csv, commit)
+      if (commit)
+        await audit(deps.db, actor, {
+          action: 'station.import',
+          targetType: 'station',
+          targetId: id,
+          before: null,
+          after: {
+            stored: report.stored,
+            quarantined: report.quarantined,
+            invalid: report.invalid,
+          },
+        })
+      return report
     },
 
     /** Reads the station's new observations now, as the job would, and reports what it did. */
