@@ -1,16 +1,9 @@
 import type { AddressInfo } from 'node:net'
-import { eq } from 'drizzle-orm'
-import { lakes } from '../../server/db/schema/index'
-import { seedDemo } from '../../server/db/seed/index'
 import { clientDir } from '../../server/index'
-import { conditionsFor } from '../../server/features/conditions/conditions.service'
-import { backfillReadings } from '../../server/features/ingest/readings.ingest'
-import { ingestWeather } from '../../server/features/ingest/weather.ingest'
 import { testApp } from './app'
 import { launchBrowser } from './browser'
-import { createTestDb } from './db'
-import { ingestDeps, startTestFeed } from './feed'
 import { startTestMail } from './mail'
+import { startWorld } from './world'
 
 /**
  * The demo data with `days` of Quillmere readings and the weather from the fake feed, as npm start
@@ -18,15 +11,8 @@ import { startTestMail } from './mail'
  * sending mail to the local SMTP stand-in; and Chromium.
  */
 export async function startE2e(days: number) {
-  const ctx = await createTestDb()
-  await seedDemo(ctx.db)
-  const feed = await startTestFeed(new Date().toISOString())
-  const [quillmere] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
-  await backfillReadings(ingestDeps(ctx.db, feed), quillmere!.id, days)
-  await ingestWeather(ingestDeps(ctx.db, feed))
-  // As the ingest jobs do after each run.
-  await conditionsFor(ctx.db).refreshAll()
-  await feed.close()
+  const ctx = await startWorld(days)
+  await ctx.feed.close()
   const mail = await startTestMail()
   // npm test runs vite build before the tests.
   const server = testApp(ctx.db, {

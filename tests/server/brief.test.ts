@@ -19,19 +19,15 @@ import {
   subscriptions,
   users,
 } from '../../server/db/schema/index'
-import { seedDemo } from '../../server/db/seed/index'
 import { signLinkToken, tokenKey } from '../../server/features/auth/auth.tokens'
 import { sendBriefs, type BriefPolicy } from '../../server/features/brief/send-briefs'
-import { conditionsFor } from '../../server/features/conditions/conditions.service'
-import { backfillReadings } from '../../server/features/ingest/readings.ingest'
-import { ingestWeather } from '../../server/features/ingest/weather.ingest'
 import { runSendBriefs } from '../../jobs/send-briefs'
 import { signedInAgent, TEST_SECRET, testApp } from '../helpers/app'
-import { createTestDb } from '../helpers/db'
-import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
+import { startWorld, type World } from '../helpers/world'
+import type { TestFeed } from '../helpers/feed'
 import { linkToken, startTestMail, type TestMail } from '../helpers/mail'
 
-let ctx: Awaited<ReturnType<typeof createTestDb>>
+let ctx: World
 let feed: TestFeed
 let mail: TestMail
 const log = pino({ level: 'silent' })
@@ -95,14 +91,9 @@ function chicago(date: string, hhmm: string): Date {
 }
 
 beforeAll(async () => {
-  ctx = await createTestDb()
-  await seedDemo(ctx.db)
+  ctx = await startWorld(20)
+  feed = ctx.feed
   mail = await startTestMail()
-  feed = await startTestFeed(new Date().toISOString())
-  const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
-  await backfillReadings(ingestDeps(ctx.db, feed), lake!.id, 20)
-  await ingestWeather(ingestDeps(ctx.db, feed))
-  await conditionsFor(ctx.db).refreshAll(feed.now())
   // The demo angler's own brief would join every run below.
   await ctx.db.delete(briefSettings)
 })
@@ -115,9 +106,8 @@ afterEach(async () => {
   await ctx.db.delete(briefSettings)
 })
 afterAll(async () => {
-  await feed.close()
   await mail.close()
-  await ctx.drop()
+  await ctx.close()
 })
 
 describe('brief settings', () => {

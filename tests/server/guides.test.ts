@@ -10,18 +10,12 @@ import {
   TripView,
 } from '../../shared/schemas/guides'
 import { addDays, localDate } from '../../shared/time'
-import { lakes, tripShares } from '../../server/db/schema/index'
-import { seedDemo } from '../../server/db/seed/index'
-import { conditionsFor } from '../../server/features/conditions/conditions.service'
-import { backfillReadings } from '../../server/features/ingest/readings.ingest'
-import { ingestWeather } from '../../server/features/ingest/weather.ingest'
+import { tripShares } from '../../server/db/schema/index'
 import { signedInAgent, testApp } from '../helpers/app'
-import { createTestDb } from '../helpers/db'
-import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
+import { startWorld, type World } from '../helpers/world'
 import { linkToken, startTestMail, type TestMail } from '../helpers/mail'
 
-let ctx: Awaited<ReturnType<typeof createTestDb>>
-let feed: TestFeed
+let ctx: World
 let mail: TestMail
 let shore: [number, number][]
 let today: string
@@ -30,21 +24,15 @@ const app = () => testApp(ctx.db, { mail: mail.mail })
 type Agent = Awaited<ReturnType<typeof signedInAgent>>
 
 beforeAll(async () => {
-  ctx = await createTestDb()
-  await seedDemo(ctx.db)
+  ctx = await startWorld(20)
   mail = await startTestMail()
-  feed = await startTestFeed(new Date().toISOString())
-  const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
-  await backfillReadings(ingestDeps(ctx.db, feed), lake!.id, 20)
-  await ingestWeather(ingestDeps(ctx.db, feed))
-  await conditionsFor(ctx.db).refreshAll(feed.now())
-  shore = (lake!.shoreline as { coordinates: [number, number][][] }).coordinates[0]!
-  today = localDate(new Date(), lake!.timeZone)
+  const lake = ctx.quillmere
+  shore = (lake.shoreline as { coordinates: [number, number][][] }).coordinates[0]!
+  today = localDate(new Date(), lake.timeZone)
 })
 afterAll(async () => {
-  await feed.close()
   await mail.close()
-  await ctx.drop()
+  await ctx.close()
 })
 
 const client = (over: Record<string, string> = {}) => ({
