@@ -84,3 +84,19 @@ export const ReadingsImportReport = z.object({
   committed: z.boolean(),
 })
 export type ReadingsImportReport = z.infer<typeof ReadingsImportReport>
+
+/** A station's last days, for the desk's small chart: readings stored against those expected, and refusals. */
+export const StationHistory = z.object({
+  days: z.array(
+    z.object({
+      date: z.iso.date(),
+      stored: z.number().int(),
+      expected: z.number().int(),
+      rejected: z.number().int(),
+    }),
+  ),
+})
+export type StationHistory = z.infer<typeof StationHistory>
+export const StationHistoryQuery = z.object({
+  days: z.coerce.number().int().min(1).max(30).default(7),
+})

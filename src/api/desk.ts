@@ -9,6 +9,7 @@ import { z } from 'zod'
 import { QuarantinePage, type QuarantineQuery } from '@shared/schemas/quarantine'
 import {
   ReadingsImportReport,
+  StationHistory,
   StationList,
   StationRunResult,
   type StationInput,
@@ -28,6 +29,8 @@ export const deskApi = {
       body: upload(file),
       query: { commit: String(commit) },
     }),
+  stationHistory: (id: string, days = 7) =>
+    apiRequest(StationHistory, `/admin/stations/${id}/history`, { query: { days } }),
   runStation: (id: string) =>
     apiRequest(StationRunResult, `/admin/stations/${id}/run`, { method: 'POST' }),
   quarantine: (query: Partial<QuarantineQuery>) =>

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { toSi } from '../../shared/readings'
 import { AuditPage } from '../../shared/schemas/audit'
 import { QuarantinePage } from '../../shared/schemas/quarantine'
-import { ReadingsImportReport } from '../../shared/schemas/stations'
+import { ReadingsImportReport, StationHistory } from '../../shared/schemas/stations'
 import { datastreams, lakes, quarantine, readings, stations } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
@@ -245,5 +245,18 @@ describe('readings import', () => {
       .attach('file', Buffer.from('when,how much\n1,2'), 'history.csv')
       .expect(400)
     expect(bad.body.error.fields.file).toBeDefined()
+  })
+})
+
+describe('station history', () => {
+  it('counts each of the last days: readings stored against those expected, and refusals', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'history@admin.test', 'admin')
+    const res = await admin.get(`/api/admin/stations/${station.id}/history?days=3`).expect(200)
+    const { days } = StationHistory.parse(res.body)
+    expect(days).toHaveLength(3)
+    expect(days.at(-1)!.date).toBe(new Date().toISOString().slice(0, 10))
+    // A parameter read every 15 minutes is expected 96 times a day.
+    expect(days[0]!.expected).toBeGreaterThanOrEqual(96)
+    await admin.get(`/api/admin/stations/${station.id}/history?days=90`).expect(400)
   })
 })

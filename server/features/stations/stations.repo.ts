@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, ne } from 'drizzle-orm'
+import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm'
 import type { Db } from '../../db/index'
 import { datastreams, lakes, stations } from '../../db/schema/index'
 
@@ -46,6 +46,19 @@ export function stationsRepo(db: Db) {
         .from(stations)
         .where(and(eq(stations.feedThingId, feedThingId), ne(stations.id, exceptId)))
       return !!row
+    },
+    /** Per UTC day over the last `days`: readings stored (by observation time) and rows refused. */
+    async history(id: string, now: Date, days: number) {
+      const { rows } = await db.execute<{ date: string; stored: number; rejected: number }>(sql`
+        select d::date::text as date,
+          (select count(*)::int from readings r where r.station_id = ${id}
+             and r.observed_at >= d and r.observed_at < d + interval '1 day') as stored,
+          (select count(*)::int from quarantine q where q.station_id = ${id}
+             and q.received_at >= d and q.received_at < d + interval '1 day') as rejected
+        from generate_series(date_trunc('day', ${now.toISOString()}::timestamptz at time zone 'UTC') - ${days - 1} * interval '1 day',
+                             date_trunc('day', ${now.toISOString()}::timestamptz at time zone 'UTC'), interval '1 day') as d
+        order by d`)
+      return rows
     },
     update: (id: string, values: StationValues, tx: Pick<Db, 'update'> = db) =>
       tx.update(stations).set(values).where(eq(stations.id, id)),

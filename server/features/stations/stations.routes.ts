@@ -1,5 +1,5 @@
 import { Router } from 'express'
-import { StationInput, StationParams } from '../../../shared/schemas/stations'
+import { StationHistoryQuery, StationInput, StationParams } from '../../../shared/schemas/stations'
 import { ImportQuery } from '../../http/upload'
 import { currentUser, requireRole } from '../../http/access'
 import { singleUpload } from '../../http/upload'
@@ -34,6 +34,14 @@ export function stationsRoutes(stations: StationsService): Router {
       const commit = input(ImportQuery, req.query).commit === 'true'
       const csv = req.file!.buffer.toString('utf8')
       res.json(await stations.importReadings(currentUser(req), id, csv, commit))
+    },
+  )
+  router.get(
+    '/admin/stations/:id/history',
+    validate({ params: StationParams, query: StationHistoryQuery }),
+    async (req, res) => {
+      const { id } = input(StationParams, req.params)
+      res.json(await stations.history(id, input(StationHistoryQuery, req.query).days))
     },
   )
   router.post('/admin/stations/:id/run', validate({ params: StationParams }), async (req, res) => {

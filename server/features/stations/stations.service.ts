@@ -1,6 +1,12 @@
 import { isoOrNull } from '../../../shared/time'
 import type { User } from '../../../shared/schemas/auth'
-import type { StationInput, StationList, StationRunResult } from '../../../shared/schemas/stations'
+import type {
+  StationHistory,
+  StationInput,
+  StationList,
+  StationRunResult,
+} from '../../../shared/schemas/stations'
+import { PARAMETERS } from '../../../shared/readings'
 import type { Db } from '../../db/index'
 import { HttpError } from '../../http/errors'
 import type { Logger } from '../../logger'
@@ -104,6 +110,17 @@ export function stationsService(
         })
       })
       return { id }
+    },
+
+    /** The station's last days against its datastreams' cadence (the desk's small chart). */
+    async history(id: string, days: number): Promise<StationHistory> {
+      await station(id)
+      const { streams } = await repo.listWithLakes()
+      const perDay = streams
+        .filter((d) => d.stationId === id)
+        .reduce((n, d) => n + Math.round(1440 / PARAMETERS[d.parameter].cadenceMin), 0)
+      const rows = await repo.history(id, new Date(), days)
+      return { days: rows.map((r) => ({ ...r, expected: perDay })) }
     },
 
     /** Historical readings from a CSV: a preview, or stored and quarantined as ingestion would. */
