@@ -50,6 +50,8 @@ export const ExposureTableView = z.object({
 export const BankView = BankInput.extend({
   id: z.uuid(),
   exposure: ExposureTableView,
+  /** True when a new lake outline left the bank's points off the shore: redraw it. */
+  detached: z.boolean(),
   updatedAt: z.iso.datetime(),
 })
 export type BankView = z.infer<typeof BankView>

@@ -149,6 +149,15 @@ describe('lakes on the desk', () => {
     expect(await settled(admin, 'quillmere')).toMatchObject({ done: 1, detached: 1, error: null })
     const [row] = await ctx.db.select().from(banks).where(eq(banks.id, bank))
     expect(row!.detachedAt).not.toBeNull()
+    // Its angler sees it flagged; saving it again on the new shore clears the flag.
+    const listed = (await angler.get('/api/lakes/quillmere/banks').expect(200)).body.items
+    expect(listed).toMatchObject([{ id: bank, detached: true }])
+    const moved = shifted(0.022).coordinates[0]!
+    const redrawn = await angler
+      .put(`/api/lakes/quillmere/banks/${bank}`)
+      .send({ name: 'Point', points: [moved[10], moved[13]], cover: ['rock'] })
+      .expect(200)
+    expect(redrawn.body.detached).toBe(false)
     const log = AuditPage.parse(
       (await admin.get('/api/admin/audit?action=lake.shoreline').expect(200)).body,
     )

@@ -22,6 +22,7 @@ export function toBankView(row: BankRow): BankView {
     slope: row.slope,
     notes: row.notes,
     exposure: row.exposure,
+    detached: row.detachedAt !== null,
     updatedAt: row.updatedAt.toISOString(),
   }
 }
@@ -39,7 +40,8 @@ function withExposure(shoreline: LakeGeometry, input: BankInput): BankValues {
     return near.point
   })
   try {
-    return { ...input, points, exposure: exposureTable(shoreline, points) }
+    // Saved again on today's shore, a bank flagged by a new outline is whole again.
+    return { ...input, points, exposure: exposureTable(shoreline, points), detachedAt: null }
   } catch (err) {
     // Points that snap too close together make no bank to face the water from.
     if (err instanceof DomainError) throw invalid('points', err.message)
