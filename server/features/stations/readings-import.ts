@@ -56,6 +56,8 @@ export async function importReadingsCsv(
     atLine: Map<number, number>
   }
   const groups = new Map<string, Group>()
+  /** A repeated row's line, and the line of its first occurrence. */
+  const twins = new Map<number, number>()
   parsed.data.forEach((raw, i) => {
     const line = i + 2
     const row: Row = {
@@ -82,7 +84,9 @@ export async function importReadingsCsv(
     }
     const o = observation(row.parameter, row.observedAt, row.value)
     group.obs.push(o)
-    group.lines.set(o['@iot.id'], line)
+    // An exact repeat keeps the first line; the repeat is reported as that line was.
+    if (group.lines.has(o['@iot.id'])) twins.set(line, group.lines.get(o['@iot.id'])!)
+    else group.lines.set(o['@iot.id'], line)
     const t = Date.parse(row.observedAt)
     if (Number.isFinite(t) && !group.atLine.has(t)) group.atLine.set(t, line)
     groups.set(key, group)
@@ -90,11 +94,15 @@ export async function importReadingsCsv(
 
   const byLine = new Map(rows.map((r) => [r.line, r]))
   const pages: PageCommit[] = []
+  // The last stored reading before each group's earliest row, for all groups in one query.
+  const previous = await repo.lastGoodBefore(
+    [...groups.values()].map((g) => ({
+      ds: g.ds,
+      from: new Date(g.atLine.size ? Math.min(...g.atLine.keys()) : 0),
+    })),
+  )
   for (const g of groups.values()) {
-    const times = [...g.atLine.keys()]
-    const from = new Date(times.length ? Math.min(...times) : 0)
-    const previous = (await repo.lastGoodBefore([{ ds: g.ds, from }])).get(g.ds.id)
-    const verdict = validatePage(g.ds.parameter, g.unit, g.obs, previous)
+    const verdict = validatePage(g.ds.parameter, g.unit, g.obs, previous.get(g.ds.id))
     for (const good of verdict.good)
       byLine.get(g.atLine.get(good.observedAt.getTime())!)!.status = 'stored'
     for (const bad of verdict.bad) {
@@ -103,8 +111,10 @@ export async function importReadingsCsv(
     }
     pages.push({ ds: g.ds, good: verdict.good, bad: verdict.bad, mark: {} })
   }
-  // A repeated row the page dropped as an exact repeat is already stored by its twin.
-  for (const r of rows) if (r.status === 'invalid' && !r.reason) r.status = 'stored'
+  for (const [line, first] of twins) {
+    const { status, reason } = byLine.get(first)!
+    Object.assign(byLine.get(line)!, { status, reason })
+  }
   if (commit && pages.length) await repo.commitPages(pages)
   const count = (s: Row['status']) => rows.filter((r) => r.status === s).length
   return {

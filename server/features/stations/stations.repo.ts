@@ -25,6 +25,11 @@ export function stationsRepo(db: Db) {
       return { rows, streams }
     },
 
+    parametersOf: (stationId: string) =>
+      db
+        .select({ parameter: datastreams.parameter })
+        .from(datastreams)
+        .where(eq(datastreams.stationId, stationId)),
     lakeId: async (slug: string) =>
       (await db.select({ id: lakes.id }).from(lakes).where(eq(lakes.slug, slug)))[0]?.id,
     async byId(id: string) {

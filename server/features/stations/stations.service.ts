@@ -115,11 +115,14 @@ export function stationsService(
     /** The station's last days against its datastreams' cadence (the desk's small chart). */
     async history(id: string, days: number): Promise<StationHistory> {
       await station(id)
-      const { streams } = await repo.listWithLakes()
-      const perDay = streams
-        .filter((d) => d.stationId === id)
-        .reduce((n, d) => n + Math.round(1440 / PARAMETERS[d.parameter].cadenceMin), 0)
-      const rows = await repo.history(id, new Date(), days)
+      const [streams, rows] = await Promise.all([
+        repo.parametersOf(id),
+        repo.history(id, new Date(), days),
+      ])
+      const perDay = streams.reduce(
+        (n, d) => n + Math.round(1440 / PARAMETERS[d.parameter].cadenceMin),
+        0,
+      )
       return { days: rows.map((r) => ({ ...r, expected: perDay })) }
     },
 
