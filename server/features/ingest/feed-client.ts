@@ -1,3 +1,5 @@
+import { request, type Dispatcher } from 'undici'
+
 /** How the jobs talk to the feed: every call bounded in time and retried with backoff and jitter. */
 export interface FetchPolicy {
   timeoutMs: number
@@ -38,26 +40,30 @@ export function backoffMs(
   return ceiling / 2 + (Math.random() * ceiling) / 2
 }
 
+/**
+ * One GET through undici's request API: the feed is hit hundreds of times a run, and this costs
+ * about half the CPU of fetch() for the same bytes.
+ */
 async function once(url: string, timeoutMs: number): Promise<unknown> {
-  let res: Response
+  const signal = AbortSignal.timeout(timeoutMs)
+  let res: Dispatcher.ResponseData
   try {
-    res = await fetch(url, {
-      signal: AbortSignal.timeout(timeoutMs),
-      headers: { accept: 'application/json' },
-    })
-  } catch (err) {
-    const timedOut =
-      err instanceof DOMException && (err.name === 'TimeoutError' || err.name === 'AbortError')
+    res = await request(url, { signal, headers: { accept: 'application/json' } })
+  } catch {
     throw new FeedError(
-      timedOut ? 'timeout' : 'network',
-      `${timedOut ? 'Timed out' : 'Could not reach'} ${url}`,
+      signal.aborted ? 'timeout' : 'network',
+      `${signal.aborted ? 'Timed out' : 'Could not reach'} ${url}`,
     )
   }
-  if (res.status === 404) throw new FeedError('not_found', `${url} answered 404`, 404)
-  if (!res.ok) throw new FeedError('http', `${url} answered ${res.status}`, res.status)
+  const status = res.statusCode
+  if (status === 404 || status >= 300) {
+    await res.body.dump()
+    if (status === 404) throw new FeedError('not_found', `${url} answered 404`, 404)
+    throw new FeedError('http', `${url} answered ${status}`, status)
+  }
   let text: string
   try {
-    text = await res.text()
+    text = await res.body.text()
   } catch {
     throw new FeedError('timeout', `Timed out reading ${url}`)
   }

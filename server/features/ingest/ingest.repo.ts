@@ -51,6 +51,66 @@ const FORECAST_UPDATE = Object.fromEntries(
 /** A PostgreSQL array literal of values that never need quoting: finite numbers, ISO instants. */
 const plainArray = (values: (number | string)[]) => `{${values.join(',')}}`
 
+const isUniqueViolation = (err: unknown) =>
+  err instanceof Error && (err.cause as { code?: string } | undefined)?.code === '23505'
+
+/**
+ * Good rows as plain array literals (which page, when, value, original value): pg's per-element
+ * quoting of big arrays cost more than the insert itself.
+ */
+function goodRows(pages: PageCommit[], keep: (p: PageCommit, g: GoodRow) => boolean) {
+  const page: number[] = []
+  const at: string[] = []
+  const value: number[] = []
+  const original: number[] = []
+  pages.forEach((p, i) => {
+    for (const g of p.good) {
+      if (!keep(p, g)) continue
+      page.push(i + 1)
+      at.push(g.observedAt.toISOString())
+      value.push(g.value)
+      original.push(g.originalValue)
+    }
+  })
+  return sql`select p.station_id, p.parameter, r.observed_at, r.value, r.original_value, p.unit
+    from unnest(${plainArray(page)}::int[], ${plainArray(at)}::timestamptz[], ${plainArray(value)}::float8[],
+                ${plainArray(original)}::float8[]) as r(i, observed_at, value, original_value)
+    join page p using (i)`
+}
+
+function commitStatement(pages: PageCommit[], guardAll: boolean) {
+  const bad = pages.flatMap((p) => p.bad.map((b) => ({ ...b, ds: p.ds })))
+  const arr = <T>(rows: T[], f: (row: T) => unknown) => sql.param(rows.map(f))
+  const isNew = (p: PageCommit, g: GoodRow) =>
+    !guardAll && !!p.ds.highWaterMark && g.observedAt > p.ds.highWaterMark
+  return sql`
+    with page as (
+      select * from unnest(${arr(pages, (p) => p.ds.id)}::uuid[], ${arr(pages, (p) => p.ds.stationId)}::uuid[],
+                           ${arr(pages, (p) => p.ds.parameter)}::parameter[], ${arr(pages, (p) => p.ds.unit)}::text[],
+                           ${arr(pages, (p) => isoOrNull(p.mark.highWaterMark))}::timestamptz[],
+                           ${arr(pages, (p) => isoOrNull(p.mark.backfillCursor))}::timestamptz[])
+        with ordinality as p(id, station_id, parameter, unit, hwm, cursor, i)
+    ), fresh as (
+      insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
+      ${goodRows(pages, isNew)}
+    ), overlap as (
+      insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
+      ${goodRows(pages, (p, g) => !isNew(p, g))}
+      on conflict do nothing
+    ), bad as (
+      insert into quarantine (station_id, parameter, feed_id, observed_at, raw, reason, detail)
+      select * from unnest(${arr(bad, (b) => b.ds.stationId)}::uuid[], ${arr(bad, (b) => b.ds.parameter)}::text[],
+                           ${arr(bad, (b) => b.feedId)}::text[], ${arr(bad, (b) => isoOrNull(b.observedAt))}::timestamptz[],
+                           ${arr(bad, (b) => JSON.stringify(b.raw))}::jsonb[], ${arr(bad, (b) => b.reason)}::text[],
+                           ${arr(bad, (b) => b.detail)}::text[])
+      on conflict do nothing
+    )
+    update datastreams d
+    set high_water_mark = coalesce(p.hwm, d.high_water_mark), backfill_cursor = coalesce(p.cursor, d.backfill_cursor)
+    from page p
+    where d.id = p.id`
+}
+
 export function ingestRepo(db: Db) {
   return {
     /**
@@ -71,15 +131,29 @@ export function ingestRepo(db: Db) {
           ),
         ),
 
-    /** Records the datastreams the feed lists for each station (units can change) and returns them all. */
+    /**
+     * Records the datastreams the feed lists for each station and returns them all. Only new ones
+     * and ones whose unit or feed id changed are written: most runs write nothing.
+     */
     async syncDatastreams(
       found: { stationId: string; feedId: string; parameter: Parameter; unit: string }[],
     ) {
       if (!found.length) return []
-      await db
+      const stationIds = [...new Set(found.map((d) => d.stationId))]
+      const known = await db
+        .select()
+        .from(datastreams)
+        .where(inArray(datastreams.stationId, stationIds))
+      const byKey = new Map(known.map((d) => [`${d.stationId}/${d.parameter}`, d]))
+      const changed = found.filter((d) => {
+        const stored = byKey.get(`${d.stationId}/${d.parameter}`)
+        return !stored || stored.unit !== d.unit || stored.feedDatastreamId !== d.feedId
+      })
+      if (!changed.length) return known
+      const written = await db
         .insert(datastreams)
         .values(
-          found.map((d) => ({
+          changed.map((d) => ({
             stationId: d.stationId,
             parameter: d.parameter,
             feedDatastreamId: d.feedId,
@@ -90,19 +164,19 @@ export function ingestRepo(db: Db) {
           target: [datastreams.stationId, datastreams.parameter],
           set: { unit: sql`excluded.unit`, feedDatastreamId: sql`excluded.feed_datastream_id` },
         })
-      return db
-        .select()
-        .from(datastreams)
-        .where(inArray(datastreams.stationId, [...new Set(found.map((d) => d.stationId))]))
+        .returning()
+      for (const d of written) byKey.set(`${d.stationId}/${d.parameter}`, d)
+      return [...byKey.values()]
     },
+
+    /** One station's datastreams. */
+    datastreamsOf: (stationId: string) =>
+      db.select().from(datastreams).where(eq(datastreams.stationId, stationId)),
 
     /**
      * For each datastream, the last good reading at or before `from(ds)`: what a new reading's rate
      * of change is judged against. One query for the whole run.
      */
-    datastreamsOf: (stationId: string) =>
-      db.select().from(datastreams).where(eq(datastreams.stationId, stationId)),
-
     async lastGoodBefore(marks: { ds: DatastreamRow; from: Date }[]) {
       if (!marks.length) return new Map<string, { value: number; at: Date }>()
       const { rows } = await db.execute<{ id: string; value: number; at: string }>(sql`
@@ -120,50 +194,18 @@ export function ingestRepo(db: Db) {
     /**
      * Pages as one statement: good rows, quarantined rows and each datastream's progress mark
      * commit together, so a crash leaves all of them or none. Repeats change nothing.
+     *
+     * Rows after a datastream's high-water mark are new to us and go in as a plain insert; only the
+     * re-read overlap pays for ON CONFLICT. Should another writer have stored one of those rows
+     * (a readings import, a backfill), the statement fails whole and is run again fully guarded.
      */
     async commitPages(pages: PageCommit[]) {
-      const bad = pages.flatMap((p) => p.bad.map((b) => ({ ...b, ds: p.ds })))
-      const arr = <T>(rows: T[], f: (row: T) => unknown) => sql.param(rows.map(f))
-      // Good rows go as plain array literals (which page, when, value, original value): pg's
-      // per-element quoting of big arrays cost more than the insert itself.
-      const page: number[] = []
-      const at: string[] = []
-      const value: number[] = []
-      const original: number[] = []
-      pages.forEach((p, i) => {
-        for (const g of p.good) {
-          page.push(i + 1)
-          at.push(g.observedAt.toISOString())
-          value.push(g.value)
-          original.push(g.originalValue)
-        }
-      })
-      await db.execute(sql`
-        with page as (
-          select * from unnest(${arr(pages, (p) => p.ds.id)}::uuid[], ${arr(pages, (p) => p.ds.stationId)}::uuid[],
-                               ${arr(pages, (p) => p.ds.parameter)}::parameter[], ${arr(pages, (p) => p.ds.unit)}::text[],
-                               ${arr(pages, (p) => isoOrNull(p.mark.highWaterMark))}::timestamptz[],
-                               ${arr(pages, (p) => isoOrNull(p.mark.backfillCursor))}::timestamptz[])
-            with ordinality as p(id, station_id, parameter, unit, hwm, cursor, i)
-        ), good as (
-          insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
-          select p.station_id, p.parameter, r.observed_at, r.value, r.original_value, p.unit
-          from unnest(${plainArray(page)}::int[], ${plainArray(at)}::timestamptz[], ${plainArray(value)}::float8[],
-                      ${plainArray(original)}::float8[]) as r(i, observed_at, value, original_value)
-          join page p using (i)
-          on conflict do nothing
-        ), bad as (
-          insert into quarantine (station_id, parameter, feed_id, observed_at, raw, reason, detail)
-          select * from unnest(${arr(bad, (b) => b.ds.stationId)}::uuid[], ${arr(bad, (b) => b.ds.parameter)}::text[],
-                               ${arr(bad, (b) => b.feedId)}::text[], ${arr(bad, (b) => isoOrNull(b.observedAt))}::timestamptz[],
-                               ${arr(bad, (b) => JSON.stringify(b.raw))}::jsonb[], ${arr(bad, (b) => b.reason)}::text[],
-                               ${arr(bad, (b) => b.detail)}::text[])
-          on conflict do nothing
-        )
-        update datastreams d
-        set high_water_mark = coalesce(p.hwm, d.high_water_mark), backfill_cursor = coalesce(p.cursor, d.backfill_cursor)
-        from page p
-        where d.id = p.id`)
+      try {
+        await db.execute(commitStatement(pages, false))
+      } catch (err) {
+        if (!isUniqueViolation(err)) throw err
+        await db.execute(commitStatement(pages, true))
+      }
     },
 
     /**

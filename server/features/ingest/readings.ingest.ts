@@ -11,6 +11,7 @@ import {
   type StationHealthUpdate,
   type StationRow,
 } from './ingest.repo'
+import { groupCommit } from './group-commit'
 import { validatePage } from './validate-page'
 
 export interface IngestDeps {
@@ -47,6 +48,8 @@ const BREAKER_THRESHOLD = 3
 
 const iso = (d: Date) => d.toISOString().replace('.000Z', 'Z')
 
+/** Where read pages are committed: the repository itself, or a group commit in front of it. */
+type Committer = Pick<IngestRepo, 'commitPages'>
 type Feed = Required<Pick<IngestDeps, 'feedUrl' | 'policy' | 'pageSize'>>
 type Previous = { value: number; at: Date } | undefined
 type Totals = { good: number; quarantined: number; latest?: Date }
@@ -65,7 +68,7 @@ const counts = (v: { good: unknown[]; bad: unknown[]; latest?: Date }): Totals =
 
 /** Pages of one datastream from `url` on through every nextLink, each committed as it arrives. */
 async function followPages(
-  repo: IngestRepo,
+  repo: Committer,
   deps: Feed,
   ds: DatastreamRow,
   url: string | undefined,
@@ -105,7 +108,7 @@ function observationsFilter(from: Date, until?: Date): string {
 
 /** One datastream's observations after `from` (and at or before `until`), oldest first. */
 function readDatastream(
-  repo: IngestRepo,
+  repo: Committer,
   deps: Feed,
   ds: DatastreamRow,
   window: { from: Date; until?: Date; backfill?: boolean },
@@ -126,7 +129,7 @@ function readDatastream(
  * ($expand=Observations), committed together, then each datastream's further pages on their own.
  */
 async function readStation(
-  repo: IngestRepo,
+  repo: Committer,
   deps: Feed,
   station: StationRow,
   windows: { ds: DatastreamRow; from: Date; previous: Previous }[],
@@ -261,7 +264,7 @@ async function perStation(
   read: (station: StationRow) => Promise<void>,
 ): Promise<Map<string, string>> {
   const errors = new Map<string, string>()
-  const limit = pLimit(deps.concurrency ?? 4)
+  const limit = pLimit(deps.concurrency ?? 16)
   await Promise.all(
     stations.map((station) =>
       limit(async () => {
@@ -316,8 +319,9 @@ export async function ingestReadings(
             ? new Date(ds.highWaterMark.getTime() - OVERLAP_MS)
             : new Date(now.getTime() - FIRST_READ_MS),
         )
+  const committer = { commitPages: groupCommit(repo.commitPages) }
   const errors = await perStation(due, deps, listing, async (station) => {
-    const got = await readStation(repo, opts, station, reads(station))
+    const got = await readStation(committer, opts, station, reads(station))
     summary.good += got.good
     summary.quarantined += got.quarantined
   })

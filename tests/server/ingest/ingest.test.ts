@@ -1,3 +1,4 @@
+import { eq, gt } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { runIngestReadings } from '../../../jobs/ingest-readings'
@@ -70,6 +71,31 @@ describe('ingest-readings', () => {
     expect(feed.controls.faults.total - before).toBeGreaterThan(50)
     expect(await readingRows(ctx.db)).toEqual(clean)
     expect(await ctx.db.$count(quarantine)).toBe(0)
+  })
+
+  it('keeps one copy of a new reading that another writer stored first', async () => {
+    await ingestReadings(ingestDeps(ctx.db, feed))
+    feed.advance(2)
+    await ingestReadings(ingestDeps(ctx.db, feed))
+    const clean = await readingRows(ctx.db)
+    const [late] = await ctx.db
+      .select({ reading: readings, thing: stations.feedThingId })
+      .from(readings)
+      .innerJoin(stations, eq(stations.id, readings.stationId))
+      .where(gt(readings.observedAt, new Date(START)))
+      .limit(1)
+    await ctx.drop()
+    ctx = await createTestDb()
+    await seedDemo(ctx.db)
+    feed.setNow(START)
+    await ingestReadings(ingestDeps(ctx.db, feed))
+    // As a readings import would: a row past the job's high-water mark, stored before the job reads it.
+    const station = await stationByThing(ctx.db, Number(late!.thing))
+    await ctx.db.insert(readings).values({ ...late!.reading, stationId: station.id })
+    feed.advance(2)
+    const run = await ingestReadings(ingestDeps(ctx.db, feed))
+    expect(run.failed).toBe(0)
+    expect(await readingRows(ctx.db)).toEqual(clean)
   })
 
   it('quarantines implausible values with the raw value and the reason', async () => {
