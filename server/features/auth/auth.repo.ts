@@ -1,4 +1,4 @@
-import { and, eq, gt, isNull } from 'drizzle-orm'
+import { and, eq, gt, isNull, sql } from 'drizzle-orm'
 import type { Db } from '../../db/index'
 import { sessions, users } from '../../db/schema/index'
 
@@ -10,6 +10,21 @@ export const publicUserColumns = {
 }
 
 export function authRepo(db: Db) {
+  // Asked on every signed-in request: built once, and planned once per pool connection.
+  const liveSession = db
+    .select(publicUserColumns)
+    .from(sessions)
+    .innerJoin(users, eq(users.id, sessions.userId))
+    .where(
+      and(
+        eq(sessions.id, sql.placeholder('sessionId')),
+        eq(sessions.userId, sql.placeholder('userId')),
+        isNull(sessions.revokedAt),
+        gt(sessions.expiresAt, sql`now()`),
+      ),
+    )
+    .prepare('auth_live_session_user')
+
   return {
     async findByEmail(email: string) {
       const [row] = await db.select().from(users).where(eq(users.email, email))
@@ -40,18 +55,7 @@ export function authRepo(db: Db) {
     },
     /** The user behind a live (unrevoked, unexpired) session. */
     async liveSessionUser(sessionId: string, userId: string) {
-      const [row] = await db
-        .select(publicUserColumns)
-        .from(sessions)
-        .innerJoin(users, eq(users.id, sessions.userId))
-        .where(
-          and(
-            eq(sessions.id, sessionId),
-            eq(sessions.userId, userId),
-            isNull(sessions.revokedAt),
-            gt(sessions.expiresAt, new Date()),
-          ),
-        )
+      const [row] = await liveSession.execute({ sessionId, userId })
       return row
     },
     async revokeSession(sessionId: string) {

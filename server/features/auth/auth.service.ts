@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache'
 import type {
   PasswordChangeInput,
   SignInInput,
@@ -12,6 +13,7 @@ import {
   SESSION_DAYS,
   signSessionToken,
   type SessionClaims,
+  type TokenKey,
   verifySessionToken,
 } from './auth.tokens'
 
@@ -33,7 +35,11 @@ const INVALID_CREDENTIALS = new HttpError(
   'E-mail or password is incorrect.',
 )
 
-export function authService(repo: AuthRepo, key: Uint8Array) {
+export function authService(repo: AuthRepo, key: TokenKey) {
+  // A token's signature is checked once per process and remembered until the token expires; the
+  // session row is still read on every request, so signing out or a revocation ends it at once.
+  const verified = new LRUCache<string, SessionClaims & { expiresAt: number }>({ max: 10_000 })
+
   async function issue(user: User): Promise<IssuedSession> {
     const expiresAt = new Date(Date.now() + SESSION_DAYS * 86_400_000)
     const sessionId = await repo.createSession(user.id, expiresAt)
@@ -63,8 +69,12 @@ export function authService(repo: AuthRepo, key: Uint8Array) {
     },
 
     async authenticate(token: string): Promise<{ user: User; sessionId: string } | null> {
-      const claims: SessionClaims | null = await verifySessionToken(key, token)
-      if (!claims) return null
+      let claims = verified.get(token)
+      if (!claims || claims.expiresAt <= Date.now()) {
+        claims = (await verifySessionToken(key, token)) ?? undefined
+        if (!claims) return null
+        verified.set(token, claims)
+      }
       const row = await repo.liveSessionUser(claims.sessionId, claims.userId)
       return row ? { user: toUser(row), sessionId: claims.sessionId } : null
     },

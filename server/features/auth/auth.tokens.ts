@@ -1,3 +1,4 @@
+import { createSecretKey, type KeyObject } from 'node:crypto'
 import { jwtVerify, SignJWT } from 'jose'
 
 export const SESSION_COOKIE = 'chopline_session'
@@ -8,11 +9,14 @@ export interface SessionClaims {
   sessionId: string
 }
 
-export function tokenKey(secret: string): Uint8Array {
-  return new TextEncoder().encode(secret)
+/** The app's signing key. A KeyObject, not raw bytes: jose imports it once and reuses it. */
+export type TokenKey = KeyObject
+
+export function tokenKey(secret: string): TokenKey {
+  return createSecretKey(Buffer.from(secret, 'utf8'))
 }
 
-export async function signSessionToken(key: Uint8Array, claims: SessionClaims, expiresAt: Date) {
+export async function signSessionToken(key: TokenKey, claims: SessionClaims, expiresAt: Date) {
   return new SignJWT({ sid: claims.sessionId })
     .setProtectedHeader({ alg: 'HS256' })
     .setSubject(claims.userId)
@@ -21,15 +25,16 @@ export async function signSessionToken(key: Uint8Array, claims: SessionClaims, e
     .sign(key)
 }
 
-/** The claims of a valid token, or null for anything forged, expired or malformed. */
+/** The claims of a valid token, with its expiry, or null for anything forged, expired or malformed. */
 export async function verifySessionToken(
-  key: Uint8Array,
+  key: TokenKey,
   token: string,
-): Promise<SessionClaims | null> {
+): Promise<(SessionClaims & { expiresAt: number }) | null> {
   try {
     const { payload } = await jwtVerify(token, key, { algorithms: ['HS256'] })
-    if (typeof payload.sub !== 'string' || typeof payload.sid !== 'string') return null
-    return { userId: payload.sub, sessionId: payload.sid }
+    if (typeof payload.sub !== 'string' || typeof payload.sid !== 'string' || !payload.exp)
+      return null
+    return { userId: payload.sub, sessionId: payload.sid, expiresAt: payload.exp * 1000 }
   } catch {
     return null
   }
@@ -43,7 +48,7 @@ export type LinkPurpose = 'verify-email' | 'brief-unsubscribe' | 'trip-share'
  * audience) and one subject, with claims the link needs and an expiry.
  */
 export async function signLinkToken(
-  key: Uint8Array,
+  key: TokenKey,
   link: {
     purpose: LinkPurpose
     subject: string
@@ -63,7 +68,7 @@ export async function signLinkToken(
 
 /** The subject and claims of a valid link token for `purpose`; null if forged, expired or another kind. */
 export async function verifyLinkToken(
-  key: Uint8Array,
+  key: TokenKey,
   purpose: LinkPurpose,
   token: string,
 ): Promise<{ subject: string; claims: Record<string, unknown> } | null> {

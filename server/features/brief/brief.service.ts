@@ -6,7 +6,7 @@ import type {
 } from '../../../shared/schemas/brief'
 import { HOUR_MS } from '../../../shared/time'
 import { HttpError } from '../../http/errors'
-import { signLinkToken, verifyLinkToken } from '../auth/auth.tokens'
+import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import type { BriefSendsRepo } from './brief-sends.repo'
 import type { BriefRepo } from './brief.repo'
@@ -37,7 +37,7 @@ export function briefService(deps: {
   repo: BriefRepo
   sends: BriefSendsRepo
   mail: MailContext
-  linkKey: Uint8Array
+  linkKey: TokenKey
   now?: () => Date
 }) {
   const { repo, mail, linkKey } = deps

@@ -3,7 +3,7 @@ import type { Bank } from '../../../shared/conditions/ranking'
 import { DAY_MS } from '../../../shared/time'
 import type { Db } from '../../db/index'
 import type { Logger } from '../../logger'
-import { signLinkToken } from '../auth/auth.tokens'
+import { signLinkToken, type TokenKey } from '../auth/auth.tokens'
 import { backoffMs } from '../ingest/feed-client'
 import { isPermanentMailError, type MailContext } from '../mail/mailer'
 import { briefSendsRepo, type CachedLake, type Claim, type Recipient } from './brief-sends.repo'
@@ -36,7 +36,7 @@ export interface BriefDeps {
   log: Logger
   mail: MailContext
   /** The key that signs unsubscribe links. */
-  linkKey: Uint8Array
+  linkKey: TokenKey
   now?: () => Date
   policy?: Partial<BriefPolicy>
 }

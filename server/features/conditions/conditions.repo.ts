@@ -31,6 +31,18 @@ interface PlanViewRow {
 }
 
 export function conditionsRepo(db: Db) {
+  // The Lake read's one query, built once and planned once per pool connection.
+  const readText = db
+    .select({
+      id: lakes.id,
+      text: sql<string | null>`${lakeReads.read}::text`,
+      holdUntil: lakeReads.flagsHoldUntil,
+    })
+    .from(lakes)
+    .leftJoin(lakeReads, eq(lakeReads.lakeId, lakes.id))
+    .where(eq(lakes.slug, sql.placeholder('slug')))
+    .prepare('conditions_read_text')
+
   return {
     allLakes: () => db.select().from(lakes),
 
@@ -56,15 +68,7 @@ export function conditionsRepo(db: Db) {
 
     /** The lake's cached read as stored JSON text, nothing parsed; text is null before the first read. */
     async readBySlug(slug: string) {
-      const [row] = await db
-        .select({
-          id: lakes.id,
-          text: sql<string | null>`${lakeReads.read}::text`,
-          holdUntil: lakeReads.flagsHoldUntil,
-        })
-        .from(lakes)
-        .leftJoin(lakeReads, eq(lakeReads.lakeId, lakes.id))
-        .where(eq(lakes.slug, slug))
+      const [row] = await readText.execute({ slug })
       return row
     },
 

@@ -9,7 +9,7 @@ import type {
 } from '../../../shared/schemas/guides'
 import { addDays, dateLabel, isoOrNull, localDate, localDayBounds } from '../../../shared/time'
 import { HttpError } from '../../http/errors'
-import { signLinkToken, verifyLinkToken } from '../auth/auth.tokens'
+import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import { mailTemplate } from '../mail/render'
 import type { ClientsRepo } from './clients.repo'
@@ -33,7 +33,7 @@ export function tripsService(deps: {
   repo: TripsRepo
   clients: ClientsRepo
   mail: MailContext
-  linkKey: Uint8Array
+  linkKey: TokenKey
   now?: () => Date
 }) {
   const { repo, mail, linkKey } = deps
