@@ -17,3 +17,14 @@ export const lakesApi = {
   plan: (slug: string, date: string) =>
     apiRequest(DayPlanResponse, `/lakes/${encodeURIComponent(slug)}/plan/${date}`),
 }
+
+/**
+ * The Lake read's query, shared by the page and the router, which starts it while the sign-in
+ * check and the page's code are still loading. Gauges report every 15 minutes.
+ */
+export const lakeReadQuery = (slug: string) => ({
+  queryKey: ['lake-read', slug],
+  queryFn: () => lakesApi.read(slug),
+  staleTime: 60_000,
+  refetchInterval: 5 * 60_000,
+})

@@ -1,4 +1,5 @@
-import { createRouter, createWebHistory } from 'vue-router'
+import { createRouter, createWebHistory, type RouteLocationNormalized } from 'vue-router'
+import { queryClient } from '@/queryClient'
 import type { Role } from '@shared/schemas/auth'
 import { useAuthStore } from '@/stores/auth'
 import HomeView from '@/views/HomeView.vue'
@@ -10,6 +11,8 @@ declare module 'vue-router' {
     /** Pages for signed-out visitors only (sign in, sign up). */
     guestOnly?: boolean
     title?: string
+    /** Starts the page's data as navigation begins, alongside its code, not after it mounts. */
+    prefetch?: (to: RouteLocationNormalized) => void
   }
 }
 
@@ -39,7 +42,14 @@ const router = createRouter({
       path: '/lakes/:slug',
       name: 'lake-read',
       component: () => import('@/views/LakeReadView.vue'),
-      meta: { role: 'angler', title: 'Lake read' },
+      meta: {
+        role: 'angler',
+        title: 'Lake read',
+        prefetch: (to) =>
+          void import('@/api/lakes').then(({ lakeReadQuery }) =>
+            queryClient.prefetchQuery(lakeReadQuery(String(to.params.slug))),
+          ),
+      },
     },
     {
       path: '/lakes/:slug/plan/:date',
@@ -137,6 +147,7 @@ const router = createRouter({
 })
 
 router.beforeEach(async (to) => {
+  to.meta.prefetch?.(to)
   const auth = useAuthStore()
   if (!auth.checked) await auth.load().catch(() => undefined)
   if (to.meta.guestOnly && auth.signedIn) return { name: 'lakes' }
