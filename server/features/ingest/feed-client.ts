@@ -56,7 +56,8 @@ async function once(url: string, timeoutMs: number): Promise<unknown> {
     )
   }
   const status = res.statusCode
-  if (status === 404 || status >= 300) {
+  if (status >= 300) {
+    // Redirects are not followed: a feed that moves is a configuration change, not a hop.
     await res.body.dump()
     if (status === 404) throw new FeedError('not_found', `${url} answered 404`, 404)
     throw new FeedError('http', `${url} answered ${status}`, status)
