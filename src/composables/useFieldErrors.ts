@@ -2,8 +2,8 @@ import { reactive } from 'vue'
 import { ApiError } from '@/api/http'
 
 /**
- * Server-side field messages for a naive-ui form: bind `status(field)` to `validation-status`
- * and `feedback(field)` to `feedback`. Returns the message for errors that name no field.
+ * Server-side field messages for a naive-ui form: `v-bind="errors.bind(field)"` on an n-form-item
+ * sets its validation status and feedback. `take` returns the message for errors that name no field.
  */
 export function useFieldErrors() {
   const fields = reactive<Record<string, string>>({})
@@ -23,9 +23,6 @@ export function useFieldErrors() {
     fields,
     clear,
     take,
-    status: (field: string) => (fields[field] ? ('error' as const) : undefined),
-    feedback: (field: string) => fields[field],
-    /** Both at once, for `v-bind` on an n-form-item. */
     bind: (field: string) => ({
       'validation-status': fields[field] ? ('error' as const) : undefined,
       feedback: fields[field],

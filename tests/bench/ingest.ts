@@ -15,6 +15,7 @@ import { datastreams, lakes, stations } from '../../server/db/schema/index'
 import { DEMO_LAKES, demoShoreline } from '../../server/db/seed/demo-lakes'
 import { BENCH_NOW, BENCH_PARAMS, BENCH_UNITS, benchStations } from './bench-stations'
 import { ingestReadings } from '../../server/features/ingest/readings.ingest'
+import { median } from '../../shared/conditions/trend'
 
 /**
  * One day of 15-minute readings for 500 stations x 4 parameters (192,000 rows) through the real
@@ -26,7 +27,6 @@ const PARAMS = BENCH_PARAMS
 const UNITS = BENCH_UNITS
 const NOW = BENCH_NOW
 const RUNS = 3
-const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!
 const dataDir = fileURLToPath(new URL('../../.tmp/pg-bench', import.meta.url))
 
 const cluster = await startCluster({

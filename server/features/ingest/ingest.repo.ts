@@ -54,35 +54,44 @@ const plainArray = (values: (number | string)[]) => `{${values.join(',')}}`
 const isUniqueViolation = (err: unknown) =>
   err instanceof Error && (err.cause as { code?: string } | undefined)?.code === '23505'
 
-/**
- * Good rows as plain array literals (which page, when, value, original value): pg's per-element
- * quoting of big arrays cost more than the insert itself.
- */
-function goodRows(pages: PageCommit[], keep: (p: PageCommit, g: GoodRow) => boolean) {
-  const page: number[] = []
-  const at: string[] = []
-  const value: number[] = []
-  const original: number[] = []
-  pages.forEach((p, i) => {
-    for (const g of p.good) {
-      if (!keep(p, g)) continue
-      page.push(i + 1)
-      at.push(g.observedAt.toISOString())
-      value.push(g.value)
-      original.push(g.originalValue)
-    }
-  })
-  return sql`select p.station_id, p.parameter, r.observed_at, r.value, r.original_value, p.unit
-    from unnest(${plainArray(page)}::int[], ${plainArray(at)}::timestamptz[], ${plainArray(value)}::float8[],
-                ${plainArray(original)}::float8[]) as r(i, observed_at, value, original_value)
-    join page p using (i)`
+/** Good rows as plain array literals: pg's per-element quoting of big arrays cost more than the insert. */
+class GoodArrays {
+  page: number[] = []
+  at: string[] = []
+  value: number[] = []
+  original: number[] = []
+
+  push(page: number, g: GoodRow) {
+    this.page.push(page)
+    this.at.push(g.observedAt.toISOString())
+    this.value.push(g.value)
+    this.original.push(g.originalValue)
+  }
+
+  /** The rows with their page's station, parameter and unit (joined from the `page` CTE). */
+  select() {
+    return sql`select p.station_id, p.parameter, r.observed_at, r.value, r.original_value, p.unit
+      from unnest(${plainArray(this.page)}::int[], ${plainArray(this.at)}::timestamptz[],
+                  ${plainArray(this.value)}::float8[], ${plainArray(this.original)}::float8[])
+           as r(i, observed_at, value, original_value)
+      join page p using (i)`
+  }
 }
 
+/**
+ * Good rows go in two sets, in one pass: rows after the page's datastream mark (new to us, a
+ * plain insert) and the rest (the re-read overlap, ON CONFLICT); with `guardAll`, every row is in
+ * the second set.
+ */
 function commitStatement(pages: PageCommit[], guardAll: boolean) {
   const bad = pages.flatMap((p) => p.bad.map((b) => ({ ...b, ds: p.ds })))
   const arr = <T>(rows: T[], f: (row: T) => unknown) => sql.param(rows.map(f))
-  const isNew = (p: PageCommit, g: GoodRow) =>
-    !guardAll && !!p.ds.highWaterMark && g.observedAt > p.ds.highWaterMark
+  const fresh = new GoodArrays()
+  const overlap = new GoodArrays()
+  pages.forEach((p, i) => {
+    const mark = guardAll ? undefined : p.ds.highWaterMark
+    for (const g of p.good) (mark && g.observedAt > mark ? fresh : overlap).push(i + 1, g)
+  })
   return sql`
     with page as (
       select * from unnest(${arr(pages, (p) => p.ds.id)}::uuid[], ${arr(pages, (p) => p.ds.stationId)}::uuid[],
@@ -92,10 +101,10 @@ function commitStatement(pages: PageCommit[], guardAll: boolean) {
         with ordinality as p(id, station_id, parameter, unit, hwm, cursor, i)
     ), fresh as (
       insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
-      ${goodRows(pages, isNew)}
+      ${fresh.select()}
     ), overlap as (
       insert into readings (station_id, parameter, observed_at, value, original_value, original_unit)
-      ${goodRows(pages, (p, g) => !isNew(p, g))}
+      ${overlap.select()}
       on conflict do nothing
     ), bad as (
       insert into quarantine (station_id, parameter, feed_id, observed_at, raw, reason, detail)
