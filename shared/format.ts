@@ -1,5 +1,5 @@
 import { compassName } from './conditions/exposure'
-import { DEFAULT_SETTINGS, type Settings } from './schemas/settings'
+import type { Settings } from './schemas/settings'
 import { dateTimeFormat } from './time'
 import { cToF, ftToM, mToFt, msToKmh, msToKnots, msToMph } from './units'
 
@@ -8,6 +8,15 @@ export function age(iso: string, now = Date.now()): string {
   const min = Math.max(0, Math.round((now - Date.parse(iso)) / 60_000))
   if (min < 90) return `${min} min ago`
   return min < 2880 ? `${Math.round(min / 60)} h ago` : `${Math.round(min / 1440)} days ago`
+}
+
+/** What a user sees before choosing (and while signed out). */
+export const DEFAULT_SETTINGS: Settings = {
+  temperature: 'F',
+  length: 'ft',
+  speed: 'mph',
+  clock: '12h',
+  homeLakeSlug: null,
 }
 
 /** Display formats in the user's units: SI comes in, the angler's units go out. */

@@ -1,5 +1,6 @@
 import type { Request, RequestHandler } from 'express'
-import { roleAllows, type Role, type User } from '../../shared/schemas/auth'
+import { roleAllows } from '../../shared/roles'
+import type { Role, User } from '../../shared/schemas/auth'
 import { HttpError } from './errors'
 
 /** 401 without a session, 403 when the role is not enough. */

@@ -1,6 +1,6 @@
 import { z } from 'zod'
+import { ROLES } from '../roles'
 
-export const ROLES = ['angler', 'guide', 'admin'] as const
 export const Role = z.enum(ROLES)
 export type Role = z.infer<typeof Role>
 
@@ -45,10 +45,3 @@ export type User = z.infer<typeof User>
 
 export const Me = z.object({ user: User })
 export type Me = z.infer<typeof Me>
-
-const ROLE_RANK: Record<Role, number> = { angler: 0, guide: 1, admin: 2 }
-
-/** Roles are nested: a guide can do all an angler can, an admin all a guide can. */
-export function roleAllows(role: Role, needed: Role): boolean {
-  return ROLE_RANK[role] >= ROLE_RANK[needed]
-}

@@ -12,11 +12,3 @@ export const Settings = z.object({
     .nullable(),
 })
 export type Settings = z.infer<typeof Settings>
-
-export const DEFAULT_SETTINGS: Settings = {
-  temperature: 'F',
-  length: 'ft',
-  speed: 'mph',
-  clock: '12h',
-  homeLakeSlug: null,
-}

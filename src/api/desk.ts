@@ -1,62 +1,61 @@
-import { AuditPage, type AuditQuery } from '@shared/schemas/audit'
-import {
+import type { AuditPage, AuditQuery } from '@shared/schemas/audit'
+import type {
   RecomputeStatus,
   ShorelinePreview,
-  type LakeCreateInput,
-  type LakeEditInput,
+  LakeCreateInput,
+  LakeEditInput,
 } from '@shared/schemas/desk'
-import { z } from 'zod'
-import { QuarantinePage, type QuarantineQuery } from '@shared/schemas/quarantine'
-import {
+import type { QuarantinePage, QuarantineQuery } from '@shared/schemas/quarantine'
+import type {
   ReadingsImportReport,
   StationHistory,
   StationList,
   StationRunResult,
-  type StationInput,
+  StationInput,
 } from '@shared/schemas/stations'
 import { apiCommand, apiRequest, upload } from './http'
 
 /** The gauge desk: stations, quarantine review and the audit log (admins). */
 export const deskApi = {
-  stations: () => apiRequest(StationList, '/admin/stations'),
+  stations: () => apiRequest<StationList>('/admin/stations'),
   createStation: (body: StationInput) =>
-    apiRequest(z.object({ id: z.string() }), '/admin/stations', { method: 'POST', body }),
+    apiRequest<{ id: string }>('/admin/stations', { method: 'POST', body }),
   editStation: (id: string, body: StationInput) =>
-    apiRequest(z.object({ id: z.string() }), `/admin/stations/${id}`, { method: 'PUT', body }),
+    apiRequest<{ id: string }>(`/admin/stations/${id}`, { method: 'PUT', body }),
   importReadings: (id: string, file: File, commit: boolean) =>
-    apiRequest(ReadingsImportReport, `/admin/stations/${id}/readings`, {
+    apiRequest<ReadingsImportReport>(`/admin/stations/${id}/readings`, {
       method: 'POST',
       body: upload(file),
       query: { commit: String(commit) },
     }),
   stationHistory: (id: string, days = 7) =>
-    apiRequest(StationHistory, `/admin/stations/${id}/history`, { query: { days } }),
+    apiRequest<StationHistory>(`/admin/stations/${id}/history`, { query: { days } }),
   runStation: (id: string) =>
-    apiRequest(StationRunResult, `/admin/stations/${id}/run`, { method: 'POST' }),
+    apiRequest<StationRunResult>(`/admin/stations/${id}/run`, { method: 'POST' }),
   quarantine: (query: Partial<QuarantineQuery>) =>
-    apiRequest(QuarantinePage, '/admin/quarantine', { query }),
+    apiRequest<QuarantinePage>('/admin/quarantine', { query }),
   release: (id: number) => apiCommand(`/admin/quarantine/${id}/release`),
   discard: (id: number) => apiCommand(`/admin/quarantine/${id}/discard`),
-  audit: (query: Partial<AuditQuery>) => apiRequest(AuditPage, '/admin/audit', { query }),
+  audit: (query: Partial<AuditQuery>) => apiRequest<AuditPage>('/admin/audit', { query }),
   previewShoreline: (file: File) =>
-    apiRequest(ShorelinePreview, '/admin/lakes/shoreline-preview', {
+    apiRequest<ShorelinePreview>('/admin/lakes/shoreline-preview', {
       method: 'POST',
       body: upload(file),
     }),
   createLake: (lake: LakeCreateInput, file: File) =>
-    apiRequest(z.object({ slug: z.string() }), '/admin/lakes', {
+    apiRequest<{ slug: string }>('/admin/lakes', {
       method: 'POST',
       body: upload(file, lake),
     }),
   editLake: (slug: string, lake: LakeEditInput) =>
-    apiRequest(z.object({ slug: z.string() }), `/admin/lakes/${slug}`, {
+    apiRequest<{ slug: string }>(`/admin/lakes/${slug}`, {
       method: 'PUT',
       body: lake,
     }),
   replaceShoreline: (slug: string, file: File) =>
-    apiRequest(RecomputeStatus, `/admin/lakes/${slug}/shoreline`, {
+    apiRequest<RecomputeStatus>(`/admin/lakes/${slug}/shoreline`, {
       method: 'POST',
       body: upload(file),
     }),
-  recompute: (slug: string) => apiRequest(RecomputeStatus, `/admin/lakes/${slug}/recompute`),
+  recompute: (slug: string) => apiRequest<RecomputeStatus>(`/admin/lakes/${slug}/recompute`),
 }

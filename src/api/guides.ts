@@ -1,5 +1,4 @@
-import { z } from 'zod'
-import {
+import type {
   ClientImportReport,
   ClientList,
   ClientView,
@@ -7,22 +6,22 @@ import {
   ShareView,
   TripList,
   TripView,
-  type ClientInput,
-  type TripInput,
+  ClientInput,
+  TripInput,
 } from '@shared/schemas/guides'
 import { apiCommand, apiRequest, upload } from './http'
 
-const Shares = z.object({ items: z.array(ShareView) })
+type Shares = { items: ShareView[] }
 
 export const clientsApi = {
-  list: () => apiRequest(ClientList, '/guide/clients'),
-  create: (body: ClientInput) => apiRequest(ClientView, '/guide/clients', { method: 'POST', body }),
+  list: () => apiRequest<ClientList>('/guide/clients'),
+  create: (body: ClientInput) => apiRequest<ClientView>('/guide/clients', { method: 'POST', body }),
   update: (id: string, body: ClientInput) =>
-    apiRequest(ClientView, `/guide/clients/${id}`, { method: 'PUT', body }),
+    apiRequest<ClientView>(`/guide/clients/${id}`, { method: 'PUT', body }),
   remove: (id: string) => apiCommand(`/guide/clients/${id}`, { method: 'DELETE' }),
   /** A preview (nothing saved) unless `commit`. */
   importCsv: (file: File, commit: boolean) =>
-    apiRequest(ClientImportReport, '/guide/clients/import', {
+    apiRequest<ClientImportReport>('/guide/clients/import', {
       method: 'POST',
       body: upload(file),
       query: { commit: String(commit) },
@@ -30,20 +29,20 @@ export const clientsApi = {
 }
 
 export const tripsApi = {
-  list: () => apiRequest(TripList, '/guide/trips'),
-  get: (id: string) => apiRequest(TripView, `/guide/trips/${id}`),
-  create: (body: TripInput) => apiRequest(TripView, '/guide/trips', { method: 'POST', body }),
+  list: () => apiRequest<TripList>('/guide/trips'),
+  get: (id: string) => apiRequest<TripView>(`/guide/trips/${id}`),
+  create: (body: TripInput) => apiRequest<TripView>('/guide/trips', { method: 'POST', body }),
   update: (id: string, body: TripInput) =>
-    apiRequest(TripView, `/guide/trips/${id}`, { method: 'PUT', body }),
+    apiRequest<TripView>(`/guide/trips/${id}`, { method: 'PUT', body }),
   remove: (id: string) => apiCommand(`/guide/trips/${id}`, { method: 'DELETE' }),
   share: (id: string, expiresOn: string) =>
-    apiRequest(Shares, `/guide/trips/${id}/shares`, { method: 'POST', body: { expiresOn } }),
+    apiRequest<Shares>(`/guide/trips/${id}/shares`, { method: 'POST', body: { expiresOn } }),
   revoke: (id: string, shareId: string) =>
-    apiRequest(Shares, `/guide/trips/${id}/shares/${shareId}`, { method: 'DELETE' }),
+    apiRequest<Shares>(`/guide/trips/${id}/shares/${shareId}`, { method: 'DELETE' }),
   send: (id: string, shareId: string, clientIds: string[]) =>
-    apiRequest(Shares, `/guide/trips/${id}/shares/${shareId}/send`, {
+    apiRequest<Shares>(`/guide/trips/${id}/shares/${shareId}/send`, {
       method: 'POST',
       body: { clientIds },
     }),
-  shared: (token: string) => apiRequest(SharedTrip, `/shared/trips/${encodeURIComponent(token)}`),
+  shared: (token: string) => apiRequest<SharedTrip>(`/shared/trips/${encodeURIComponent(token)}`),
 }

@@ -1,21 +1,21 @@
-import { DayPlanResponse } from '@shared/schemas/day-plan'
-import { LakeRead, LakeShape } from '@shared/schemas/lake-read'
-import { LakeSeries } from '@shared/schemas/lake-series'
-import { LakePage, type LakeListQuery } from '@shared/schemas/lakes'
+import type { DayPlanResponse } from '@shared/schemas/day-plan'
+import type { LakeRead, LakeShape } from '@shared/schemas/lake-read'
+import type { LakeSeries } from '@shared/schemas/lake-series'
+import type { LakePage, LakeListQuery } from '@shared/schemas/lakes'
 import { apiCommand, apiRequest } from './http'
 
 export const lakesApi = {
-  list: (query: Partial<LakeListQuery>) => apiRequest(LakePage, '/lakes', { query }),
+  list: (query: Partial<LakeListQuery>) => apiRequest<LakePage>('/lakes', { query }),
   subscribe: (slug: string) =>
     apiCommand(`/lakes/${encodeURIComponent(slug)}/subscription`, { method: 'PUT' }),
   unsubscribe: (slug: string) =>
     apiCommand(`/lakes/${encodeURIComponent(slug)}/subscription`, { method: 'DELETE' }),
   series: (slug: string, days: 7 | 30) =>
-    apiRequest(LakeSeries, `/lakes/${encodeURIComponent(slug)}/series`, { query: { days } }),
-  read: (slug: string) => apiRequest(LakeRead, `/lakes/${encodeURIComponent(slug)}/read`),
-  shape: (slug: string) => apiRequest(LakeShape, `/lakes/${encodeURIComponent(slug)}/shoreline`),
+    apiRequest<LakeSeries>(`/lakes/${encodeURIComponent(slug)}/series`, { query: { days } }),
+  read: (slug: string) => apiRequest<LakeRead>(`/lakes/${encodeURIComponent(slug)}/read`),
+  shape: (slug: string) => apiRequest<LakeShape>(`/lakes/${encodeURIComponent(slug)}/shoreline`),
   plan: (slug: string, date: string) =>
-    apiRequest(DayPlanResponse, `/lakes/${encodeURIComponent(slug)}/plan/${date}`),
+    apiRequest<DayPlanResponse>(`/lakes/${encodeURIComponent(slug)}/plan/${date}`),
 }
 
 /**

@@ -1,15 +1,14 @@
 import { useQuery } from '@tanstack/vue-query'
 import { storeToRefs } from 'pinia'
 import { computed } from 'vue'
-import { DEFAULT_SETTINGS } from '@shared/schemas/settings'
-import { settingsApi } from '@/api/settings'
-import { makeFormat } from '@shared/format'
+import { settingsQuery } from '@/api/settings'
+import { DEFAULT_SETTINGS, makeFormat } from '@shared/format'
 import { useAuthStore } from '@/stores/auth'
 
 /** The signed-in user's settings from the server (defaults until they arrive or when signed out). */
 export function useSettings() {
   const { signedIn } = storeToRefs(useAuthStore())
-  const query = useQuery({ queryKey: ['settings'], queryFn: settingsApi.get, enabled: signedIn })
+  const query = useQuery({ ...settingsQuery, enabled: signedIn })
   return computed(() => query.data.value ?? DEFAULT_SETTINGS)
 }
 

@@ -1,4 +1,5 @@
 import { createRouter, createWebHistory, type RouteLocationNormalized } from 'vue-router'
+import { settingsQuery } from '@/api/settings'
 import { queryClient } from '@/queryClient'
 import type { Role } from '@shared/schemas/auth'
 import { useAuthStore } from '@/stores/auth'
@@ -149,6 +150,9 @@ const router = createRouter({
 router.beforeEach(async (to) => {
   to.meta.prefetch?.(to)
   const auth = useAuthStore()
+  // Signed-in pages show numbers in the user's units: ask for them beside the sign-in check.
+  if (to.meta.role && (auth.signedIn || !auth.checked))
+    void queryClient.prefetchQuery(settingsQuery)
   if (!auth.checked) await auth.load().catch(() => undefined)
   if (to.meta.guestOnly && auth.signedIn) return { name: 'lakes' }
   if (!to.meta.role) return true

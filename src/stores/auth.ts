@@ -1,12 +1,7 @@
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { computed, ref } from 'vue'
-import {
-  roleAllows,
-  type Role,
-  type SignInInput,
-  type SignUpInput,
-  type User,
-} from '@shared/schemas/auth'
+import { roleAllows } from '@shared/roles'
+import type { Role, SignInInput, SignUpInput, User } from '@shared/schemas/auth'
 import { authApi } from '@/api/auth'
 import { ApiError } from '@/api/http'
 

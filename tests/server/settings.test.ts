@@ -1,6 +1,6 @@
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { DEFAULT_SETTINGS } from '../../shared/schemas/settings'
+import { DEFAULT_SETTINGS } from '../../shared/format'
 import { seedDemo } from '../../server/db/seed/index'
 import { signedInAgent, testApp } from '../helpers/app'
 import { createTestDb } from '../helpers/db'

@@ -1,5 +1,5 @@
 import { index, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import { ROLES } from '../../../shared/schemas/auth'
+import { ROLES } from '../../../shared/roles'
 import { timestamps } from './columns'
 
 export const role = pgEnum('role', ROLES)

@@ -1,4 +1,5 @@
-import { DEFAULT_SETTINGS, type Settings } from '../../../shared/schemas/settings'
+import { DEFAULT_SETTINGS } from '../../../shared/format'
+import type { Settings } from '../../../shared/schemas/settings'
 import { HttpError } from '../../http/errors'
 import type { SettingsRepo } from './settings.repo'
 
