@@ -1,4 +1,3 @@
-import { randomUUID } from 'node:crypto'
 import { existsSync } from 'node:fs'
 import { join } from 'node:path'
 import compression from 'compression'
@@ -6,7 +5,6 @@ import cookieParser from 'cookie-parser'
 import express, { type RequestHandler } from 'express'
 import { rateLimit } from 'express-rate-limit'
 import helmet from 'helmet'
-import { pinoHttp } from 'pino-http'
 import type { Db } from './db/index'
 import { auditRepo } from './features/audit/audit.repo'
 import { auditRoutes } from './features/audit/audit.routes'
@@ -52,6 +50,7 @@ import { usersRoutes } from './features/users/users.routes'
 import { usersService } from './features/users/users.service'
 import { errorHandler, HttpError, notFound } from './http/errors'
 import { sameOrigin } from './http/origin'
+import { requestLog } from './http/request-log'
 import type { Logger } from './logger'
 
 export interface AppDeps {
@@ -95,25 +94,7 @@ export function createApp(deps: AppDeps): express.Express {
     },
   })
 
-  app.use(
-    pinoHttp({
-      logger: deps.logger,
-      genReqId: (req, res) => {
-        const id = randomUUID()
-        res.setHeader('x-request-id', id)
-        return id
-      },
-      // Log the route, not the query string, which may carry tokens later (unsubscribe links).
-      serializers: {
-        req: (req: { id: unknown; method: string; url: string }) => ({
-          id: req.id,
-          method: req.method,
-          path: req.url.split('?')[0],
-        }),
-        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-      },
-    }),
-  )
+  app.use(requestLog(deps.logger))
   app.use(
     helmet({
       // Vite's dev client injects inline scripts; the built app does not need them.
@@ -190,6 +171,6 @@ export function createApp(deps: AppDeps): express.Express {
   }
 
   app.use(notFound)
-  app.use(errorHandler)
+  app.use(errorHandler(deps.logger))
   return app
 }

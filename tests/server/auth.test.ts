@@ -189,4 +189,16 @@ describe('defences', () => {
     expect(log).not.toContain(token)
     expect(log).not.toContain(row!.passwordHash)
   })
+
+  it('logs each request once by its id, path and status, never its query string', async () => {
+    const res = await request(app).get('/api/nowhere?token=secret-in-a-link').expect(404)
+    const id = res.headers['x-request-id']
+    const line = logLines.map((l) => JSON.parse(l)).find((l) => l.req?.id === id)
+    expect(line).toMatchObject({
+      msg: 'request completed',
+      req: { method: 'GET', path: '/api/nowhere' },
+      res: { statusCode: 404 },
+    })
+    expect(logLines.join('')).not.toContain('secret-in-a-link')
+  })
 })

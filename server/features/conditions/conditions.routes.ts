@@ -22,7 +22,7 @@ export function conditionsRoutes(conditions: ConditionsService): Router {
     validate({ params: DayPlanParams }),
     async (req, res) => {
       const { slug, date } = input(DayPlanParams, req.params)
-      res.json(await conditions.plan(currentUser(req).id, slug, date))
+      res.type('json').send(await conditions.planJson(currentUser(req).id, slug, date))
     },
   )
   return router

@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache'
 import { lakeDay, planForBanks } from '../../../shared/conditions/day-plan'
 import type { DayPlanResponse } from '../../../shared/schemas/day-plan'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
@@ -69,6 +70,39 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
     return (read && missingForPlan(read)) ?? 'The forecast does not reach this date yet.'
   }
 
+  /** The Day plan for an angler, lake and date, built from the cache the ingest jobs refresh. */
+  async function plan(
+    userId: string,
+    slug: string,
+    date: string,
+    now: Date,
+  ): Promise<DayPlanResponse> {
+    let view = await repo.planView(slug, date, userId)
+    if (!view) throw new HttpError(404, 'not_found', 'No such lake.')
+    if (!view.has_read) {
+      // A lake no ingest has reached yet is read now, and cached like any other.
+      await refreshLake(await repo.lake(view.id), now)
+      view = (await repo.planView(slug, date, userId))!
+    }
+    const banks = view.banks.map((b) => ({ ...b, depthM: b.depthM ?? undefined }))
+    const ranked = view.day ? planForBanks(view.day, banks) : null
+    return {
+      lake: { slug: view.slug, name: view.name, timeZone: view.time_zone },
+      date,
+      dates: view.dates,
+      computedAt: view.computed_at?.toISOString() ?? null,
+      banksSaved: banks.length,
+      unavailable: ranked ? null : await whyNoPlan(slug),
+      plan: ranked,
+    }
+  }
+
+  /** Day plan answers as sent, per angler, lake and date, each with the stamp it was made from. */
+  const plans = new LRUCache<string, { stamp: string; json: string }>({
+    maxSize: 32 * 2 ** 20,
+    sizeCalculation: (kept) => kept.json.length + kept.stamp.length,
+  })
+
   return {
     /** One lake's read and days recomputed, after its outline changes. */
     async refresh(lakeId: string, now = new Date()) {
@@ -94,21 +128,15 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
       return JSON.stringify(withStaleFlags(JSON.parse(row.text) as LakeRead, now))
     },
 
-    /** The Day plan: the lake's cached day with this angler's banks ranked in it. */
-    async plan(
-      userId: string,
-      slug: string,
-      date: string,
-      now = new Date(),
-    ): Promise<DayPlanResponse> {
-      let view = await repo.planView(slug, date, userId)
-      if (!view) throw new HttpError(404, 'not_found', 'No such lake.')
-      if (!view.has_read) {
-        // A lake no ingest has reached yet is read now, and cached like any other.
-        await refreshLake(await repo.lake(view.id), now)
-        view = (await repo.planView(slug, date, userId))!
-      }
-      const today = localDate(now, view.time_zone)
+    /**
+     * The Day plan as JSON text: the lake's cached day with this angler's banks ranked in it. A
+     * page view asks PostgreSQL only for the plan's stamp; the full query and the ranking run
+     * again only when the stamp has moved since this angler last asked (an ingest, an edited bank).
+     */
+    async planJson(userId: string, slug: string, date: string, now = new Date()): Promise<string> {
+      const head = await repo.planStamp(slug, date, userId)
+      if (!head) throw new HttpError(404, 'not_found', 'No such lake.')
+      const today = localDate(now, head.time_zone)
       if (date < addDays(today, -1) || date >= addDays(today, PLAN_DAYS)) {
         throw new HttpError(
           404,
@@ -116,17 +144,14 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
           `Plans cover yesterday, today and the next ${PLAN_DAYS - 1} days.`,
         )
       }
-      const banks = view.banks.map((b) => ({ ...b, depthM: b.depthM ?? undefined }))
-      const plan = view.day ? planForBanks(view.day, banks) : null
-      return {
-        lake: { slug: view.slug, name: view.name, timeZone: view.time_zone },
-        date,
-        dates: view.dates,
-        computedAt: view.computed_at?.toISOString() ?? null,
-        banksSaved: banks.length,
-        unavailable: plan ? null : await whyNoPlan(slug),
-        plan,
-      }
+      const key = `${userId} ${slug} ${date}`
+      const kept = plans.get(key)
+      if (kept?.stamp === head.stamp) return kept.json
+      // Made from data at least as new as the stamp: a stamp that moved meanwhile only costs a
+      // second computation on the next view.
+      const json = JSON.stringify(await plan(userId, slug, date, now))
+      plans.set(key, { stamp: head.stamp, json })
+      return json
     },
   }
 }
