@@ -5,6 +5,7 @@ import cookieParser from 'cookie-parser'
 import express, { type RequestHandler } from 'express'
 import { rateLimit } from 'express-rate-limit'
 import helmet from 'helmet'
+import type { Changes } from './db/changes'
 import type { Db } from './db/index'
 import { auditRepo } from './features/audit/audit.repo'
 import { auditRoutes } from './features/audit/audit.routes'
@@ -70,6 +71,11 @@ export interface AppDeps {
   mail: MailContext
   /** The local SMTP stand-in's catch, listed for admins in development; absent in production. */
   mailbox?: Mailbox
+  /**
+   * The database's change notices: with them, sessions, Lake reads and Day plans are answered from
+   * memory until something they were made from changes. Without them, from the database each time.
+   */
+  changes?: Changes
   /** Sign-in, sign-up and verification-mail attempts per window per client address. */
   authRateLimit?: { windowMs: number; limit: number }
 }
@@ -79,7 +85,7 @@ export function createApp(deps: AppDeps): express.Express {
   app.disable('x-powered-by')
 
   const linkKey = tokenKey(deps.sessionSecret)
-  const auth = authService(authRepo(deps.db), linkKey)
+  const auth = authService(authRepo(deps.db), linkKey, deps.changes)
   const limits = deps.authRateLimit ?? { windowMs: 15 * 60_000, limit: 20 }
   const limiter = rateLimit({
     ...limits,
@@ -95,21 +101,28 @@ export function createApp(deps: AppDeps): express.Express {
   })
 
   app.use(requestLog(deps.logger))
-  app.use(
-    helmet({
-      // Vite's dev client injects inline scripts; the built app does not need them.
-      contentSecurityPolicy: deps.devMiddleware
-        ? false
-        : { directives: { upgradeInsecureRequests: deps.secureCookies ? [] : null } },
-      // HSTS only where the app is served over HTTPS.
-      strictTransportSecurity: deps.secureCookies,
-    }),
-  )
-
   // Anglers read this on a phone at the ramp: gzip the bundle and the JSON (clients that ask for it).
   app.use(compression())
 
   const api = express.Router()
+  // An API answer is data, never a page: the headers that guard data (no sniffing, no framing,
+  // no cross-origin reads), not the dozen a page needs, on every one of thousands of answers.
+  api.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: { defaultSrc: ["'none'"], frameAncestors: ["'none'"] },
+      },
+      crossOriginOpenerPolicy: false,
+      originAgentCluster: false,
+      xDnsPrefetchControl: false,
+      xDownloadOptions: false,
+      xFrameOptions: { action: 'deny' },
+      xPermittedCrossDomainPolicies: false,
+      xXssProtection: false,
+      strictTransportSecurity: deps.secureCookies,
+    }),
+  )
   api.use(express.json({ limit: '100kb' }))
   api.use(cookieParser())
   api.use(sameOrigin(deps.appOrigin))
@@ -118,7 +131,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limiter }))
   api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
   api.use(lakesRoutes(lakesService(lakesRepo(deps.db)), lakeReadService(lakeReadRepo(deps.db))))
-  api.use(conditionsRoutes(conditionsFor(deps.db)))
+  api.use(conditionsRoutes(conditionsFor(deps.db, deps.changes)))
   api.use(banksRoutes(banksService(banksRepo(deps.db))))
   api.use(
     stationsRoutes(
@@ -161,6 +174,17 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(auditRoutes(auditRepo(deps.db)))
   api.use(notFound)
   app.use('/api', api)
+
+  app.use(
+    helmet({
+      // Vite's dev client injects inline scripts; the built app does not need them.
+      contentSecurityPolicy: deps.devMiddleware
+        ? false
+        : { directives: { upgradeInsecureRequests: deps.secureCookies ? [] : null } },
+      // HSTS only where the app is served over HTTPS.
+      strictTransportSecurity: deps.secureCookies,
+    }),
+  )
 
   if (deps.devMiddleware) {
     app.use(deps.devMiddleware)

@@ -1,6 +1,7 @@
 import type { Server } from 'node:http'
 import { fileURLToPath, pathToFileURL } from 'node:url'
 import { createApp, type AppDeps } from './app'
+import { watchChanges } from './db/changes'
 import { createDb } from './db/index'
 import { migrateDb } from './db/migrate'
 import { loadEnv } from './env'
@@ -23,7 +24,8 @@ export interface ServeOptions extends AppDeps {
 
 /** Listens, and on SIGINT/SIGTERM stops taking requests, lets open ones finish, then runs onClose. */
 export function serve(opts: ServeOptions): Promise<Server> {
-  const app = createApp(opts)
+  const changes = opts.changes ?? watchChanges(opts.db.$client.options, opts.logger)
+  const app = createApp({ ...opts, changes })
   return new Promise((resolve, reject) => {
     const server = app.listen(opts.port, opts.host, (err?: Error) => {
       if (err) return reject(err)
@@ -36,6 +38,7 @@ export function serve(opts: ServeOptions): Promise<Server> {
       opts.logger.info({ signal }, 'shutting down')
       server.close(async () => {
         await opts.onClose?.()
+        await changes.close()
         await opts.db.$client.end()
         await opts.afterDbClose?.()
         process.exit(0)

@@ -177,44 +177,6 @@ describe('GET /api/lakes/:slug/plan/:date', () => {
     for (const w of theirs.plan!.windows) expect(w.banks).toEqual([])
   })
 
-  it("answers again from the angler's last plan only while its banks and the lake's day are unchanged", async () => {
-    const app = testApp(ctx.db)
-    const angler = await signedInAgent(app, ctx.db, 'replanner@example.test')
-    const today = localDate(feed.now(), 'America/Chicago')
-    const plan = async () =>
-      DayPlanResponse.parse(
-        (await angler.get(`/api/lakes/quillmere/plan/${today}`).expect(200)).body,
-      )
-    const names = (p: DayPlanResponse) => p.plan!.windows[0]!.banks.map((b) => b.name).sort()
-    const first = BankView.parse(
-      (await angler.post('/api/lakes/quillmere/banks').send(bank()).expect(201)).body,
-    )
-    expect(names(await plan())).toEqual(['Rock point'])
-    expect(await plan()).toEqual(await plan())
-
-    // An edit, an added bank and a deletion each show on the next view.
-    await angler
-      .put(`/api/lakes/quillmere/banks/${first.id}`)
-      .send(bank({ name: 'Rock point north' }))
-      .expect(200)
-    expect(names(await plan())).toEqual(['Rock point north'])
-    await angler
-      .post('/api/lakes/quillmere/banks')
-      .send(bank({ name: 'Dock row', points: [nearShore(150), nearShore(153)], cover: ['docks'] }))
-      .expect(201)
-    expect(names(await plan())).toEqual(['Dock row', 'Rock point north'])
-    await angler.delete(`/api/lakes/quillmere/banks/${first.id}`).expect(204)
-    expect(names(await plan())).toEqual(['Dock row'])
-
-    // So does the lake's day recomputed after an ingest.
-    const before = await plan()
-    await conditionsFor(ctx.db).refresh(
-      (await lakeRow('quillmere')).id,
-      new Date(feed.now().getTime() + 60_000),
-    )
-    expect((await plan()).computedAt).not.toBe(before.computedAt)
-  })
-
   it('reads the cache: with readings and weather gone, plan and read are unchanged until the next refresh', async () => {
     const app = testApp(ctx.db)
     const angler = await signedInAgent(app, ctx.db, 'cached@example.test')
@@ -257,6 +219,11 @@ describe('GET /api/lakes/:slug/plan/:date', () => {
     expect(res.plan).toBeNull()
     expect(res.unavailable).toMatch(/two weeks of water temperatures/)
     await angler.get(`/api/lakes/quillmere/plan/${addDays(today, 9)}`).expect(404)
+    // The window's edges, in the lake's time zone: yesterday and six days ahead are in it.
+    await angler.get(`/api/lakes/quillmere/plan/${addDays(today, -1)}`).expect(200)
+    await angler.get(`/api/lakes/quillmere/plan/${addDays(today, 6)}`).expect(200)
+    await angler.get(`/api/lakes/quillmere/plan/${addDays(today, -2)}`).expect(404)
+    await angler.get(`/api/lakes/quillmere/plan/${addDays(today, 7)}`).expect(404)
     const bad = await angler.get('/api/lakes/quillmere/plan/2026-13-40').expect(400)
     expect(bad.body.error.fields.date).toBeTruthy()
     await request(app).get(`/api/lakes/quillmere/plan/${today}`).expect(401)

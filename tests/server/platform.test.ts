@@ -1,3 +1,6 @@
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import { sql } from 'drizzle-orm'
 import pg from 'pg'
 import request from 'supertest'
@@ -50,5 +53,27 @@ describe('database platform', () => {
     const bad = await request(testApp(down)).get('/api/health').expect(503)
     expect(bad.body.database).toBe('down')
     await down.$client.end()
+  })
+
+  it('sends API answers the headers that guard data, and pages the full set', async () => {
+    const staticDir = mkdtempSync(join(tmpdir(), 'chopline-page-'))
+    writeFileSync(join(staticDir, 'index.html'), '<!doctype html><title>Chopline</title>')
+    try {
+      const app = testApp(db, { staticDir })
+      // OWASP REST Security Cheat Sheet, "Security headers": nosniff, frame-ancestors 'none'.
+      const api = await request(app).get('/api/health').expect(200)
+      expect(api.headers).toMatchObject({
+        'content-security-policy': "default-src 'none';frame-ancestors 'none'",
+        'x-content-type-options': 'nosniff',
+        'x-frame-options': 'DENY',
+        'cross-origin-resource-policy': 'same-origin',
+      })
+      const page = await request(app).get('/lakes/quillmere').expect(200)
+      expect(page.headers['content-type']).toMatch(/text\/html/)
+      expect(page.headers['content-security-policy']).toContain("script-src 'self'")
+      expect(page.headers['x-content-type-options']).toBe('nosniff')
+    } finally {
+      rmSync(staticDir, { recursive: true, force: true })
+    }
   })
 })

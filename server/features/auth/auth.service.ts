@@ -5,6 +5,7 @@ import type {
   SignUpInput,
   User,
 } from '../../../shared/schemas/auth'
+import { NoticedCache, type Changes } from '../../db/changes'
 import { HttpError } from '../../http/errors'
 import type { users } from '../../db/schema/index'
 import type { AuthRepo } from './auth.repo'
@@ -35,10 +36,15 @@ const INVALID_CREDENTIALS = new HttpError(
   'E-mail or password is incorrect.',
 )
 
-export function authService(repo: AuthRepo, key: TokenKey) {
-  // A token's signature is checked once per process and remembered until the token expires; the
-  // session row is still read on every request, so signing out or a revocation ends it at once.
+export function authService(repo: AuthRepo, key: TokenKey, changes?: Changes) {
+  // A token's signature is checked once per process and remembered until the token expires.
   const verified = new LRUCache<string, SessionClaims & { expiresAt: number }>({ max: 10_000 })
+  // So is the session's user, until a change notice about the session or any user: signing out
+  // or a revocation, anywhere, ends the session at once. (The token expires with the session.)
+  const live = new NoticedCache<{ user: User | null }>(changes, { max: 10_000 }, (change, kept) => {
+    if (change.table === 'sessions') kept.delete(change.key)
+    else if (change.table === 'users') kept.clear()
+  })
 
   async function issue(user: User): Promise<IssuedSession> {
     const expiresAt = new Date(Date.now() + SESSION_DAYS * 86_400_000)
@@ -75,8 +81,12 @@ export function authService(repo: AuthRepo, key: TokenKey) {
         if (!claims) return null
         verified.set(token, claims)
       }
-      const row = await repo.liveSessionUser(claims.sessionId, claims.userId)
-      return row ? { user: toUser(row), sessionId: claims.sessionId } : null
+      const { sessionId, userId } = claims
+      const { user } = await live.get(sessionId, async () => {
+        const row = await repo.liveSessionUser(sessionId, userId)
+        return { user: row ? toUser(row) : null }
+      })
+      return user && { user, sessionId }
     },
 
     signOut: (sessionId: string) => repo.revokeSession(sessionId),

@@ -17,20 +17,6 @@ const PLAN_VIEW = `
   left join lake_days d on d.lake_id = l.id and d.date = $2
   where l.slug = $1`
 
-/**
- * What a Day plan answer is made from, in one line of text ($1 slug, $2 date, $3 the angler): the
- * lake's row, its read and its day as last computed, and the angler's banks on it (how many, and
- * the newest edit, so a delete shows too). Any change to these changes the text.
- */
-const PLAN_STAMP = `
-  select l.time_zone, concat_ws('|', l.updated_at, r.computed_at, d.computed_at,
-    (select count(*) || '/' || coalesce(max(b.updated_at)::text, '')
-       from banks b where b.user_id = $3 and b.lake_id = l.id)) as stamp
-  from lakes l
-  left join lake_reads r on r.lake_id = l.id
-  left join lake_days d on d.lake_id = l.id and d.date = $2
-  where l.slug = $1`
-
 interface PlanViewRow {
   id: string
   slug: string
@@ -75,16 +61,6 @@ export function conditionsRepo(db: Db) {
       const { rows } = await db.$client.query<PlanViewRow>({
         name: 'conditions_plan_view',
         text: PLAN_VIEW,
-        values: [slug, date, userId],
-      })
-      return rows[0]
-    },
-
-    /** The plan's stamp (see PLAN_STAMP); undefined when there is no such lake. */
-    async planStamp(slug: string, date: string, userId: string) {
-      const { rows } = await db.$client.query<{ time_zone: string; stamp: string }>({
-        name: 'conditions_plan_stamp',
-        text: PLAN_STAMP,
         values: [slug, date, userId],
       })
       return rows[0]

@@ -1,8 +1,8 @@
-import { LRUCache } from 'lru-cache'
 import { lakeDay, planForBanks } from '../../../shared/conditions/day-plan'
 import type { DayPlanResponse } from '../../../shared/schemas/day-plan'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
-import { addDays, localDate, localDayBounds } from '../../../shared/time'
+import { addDays, localDate, localDayBounds, zonedMidnight } from '../../../shared/time'
+import { NoticedCache, type Changes } from '../../db/changes'
 import type { Db } from '../../db/index'
 import { HttpError } from '../../http/errors'
 import { lakeReadRepo, type LakeRow } from '../lakes/lake-read.repo'
@@ -17,6 +17,28 @@ import { conditionsRepo, type ConditionsRepo } from './conditions.repo'
 /** Plans cover today and the days the 7-day forecast reaches. */
 export const PLAN_DAYS = 7
 
+/**
+ * The instants between which a date has a plan: from when it is the last day the forecast reaches
+ * until the day after it ends, in the lake's time zone (plans cover yesterday, today and the next
+ * days). Kept with a plan, so a repeat view checks two numbers, not the calendar.
+ */
+function plannableFrom(date: string, timeZone: string): [number, number] {
+  return [
+    zonedMidnight(addDays(date, 1 - PLAN_DAYS), timeZone).getTime(),
+    zonedMidnight(addDays(date, 2), timeZone).getTime(),
+  ]
+}
+
+function assertPlannable([from, until]: [number, number], now: Date) {
+  if (now.getTime() < from || now.getTime() >= until) {
+    throw new HttpError(
+      404,
+      'no_plan_for_date',
+      `Plans cover yesterday, today and the next ${PLAN_DAYS - 1} days.`,
+    )
+  }
+}
+
 /** What a lake's read lacks for a day plan, in words; null when nothing is missing. */
 function missingForPlan(read: LakeRead): string | null {
   const missing = [
@@ -27,8 +49,12 @@ function missingForPlan(read: LakeRead): string | null {
   return missing.length ? `This lake needs ${missing.join(', ')} before it can be planned.` : null
 }
 
-export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadService }) {
-  const { repo, reads } = deps
+export function conditionsService(deps: {
+  repo: ConditionsRepo
+  reads: LakeReadService
+  changes?: Changes
+}) {
+  const { repo, reads, changes } = deps
 
   /** Computes a lake's read and its days from what is stored, and caches both. */
   async function refreshLake(lake: LakeRow, now: Date) {
@@ -79,6 +105,7 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
   ): Promise<DayPlanResponse> {
     let view = await repo.planView(slug, date, userId)
     if (!view) throw new HttpError(404, 'not_found', 'No such lake.')
+    assertPlannable(plannableFrom(date, view.time_zone), now)
     if (!view.has_read) {
       // A lake no ingest has reached yet is read now, and cached like any other.
       await refreshLake(await repo.lake(view.id), now)
@@ -97,11 +124,23 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
     }
   }
 
-  /** Day plan answers as sent, per angler, lake and date, each with the stamp it was made from. */
-  const plans = new LRUCache<string, { stamp: string; json: string }>({
-    maxSize: 32 * 2 ** 20,
-    sizeCalculation: (kept) => kept.json.length + kept.stamp.length,
-  })
+  // Answers as sent, dropped on a change notice about what they were made from.
+  const refreshed = new Set(['lakes', 'lake_reads', 'lake_days'])
+  const readRows = new NoticedCache<{ row: Awaited<ReturnType<ConditionsRepo['readBySlug']>> }>(
+    changes,
+    { max: 1_000 },
+    (change, kept) => refreshed.has(change.table) && kept.clear(),
+  )
+  const plans = new NoticedCache<{ window: [number, number]; json: string }>(
+    changes,
+    { maxSize: 32 * 2 ** 20, sizeCalculation: (kept) => kept.json.length },
+    (change, kept) => {
+      if (refreshed.has(change.table)) kept.clear()
+      // Keys start with the angler's id: a bank notice names its angler.
+      else if (change.table === 'banks')
+        for (const key of kept.keys()) if (key.startsWith(`${change.key} `)) kept.delete(key)
+    },
+  )
 
   return {
     /** One lake's read and days recomputed, after its outline changes. */
@@ -121,7 +160,7 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
      * after that it is re-judged against the clock.
      */
     async readJson(slug: string, now = new Date()): Promise<string> {
-      const row = await repo.readBySlug(slug)
+      const { row } = await readRows.get(slug, async () => ({ row: await repo.readBySlug(slug) }))
       if (!row) throw new HttpError(404, 'not_found', 'No such lake.')
       if (row.text === null) return JSON.stringify(await refreshLake(await repo.lake(row.id), now))
       if (!row.holdUntil || now < row.holdUntil) return row.text
@@ -129,38 +168,28 @@ export function conditionsService(deps: { repo: ConditionsRepo; reads: LakeReadS
     },
 
     /**
-     * The Day plan as JSON text: the lake's cached day with this angler's banks ranked in it. A
-     * page view asks PostgreSQL only for the plan's stamp; the full query and the ranking run
-     * again only when the stamp has moved since this angler last asked (an ingest, an edited bank).
+     * The Day plan as JSON text: the lake's cached day with this angler's banks ranked in it. With
+     * change notices live it is made once per angler, lake and date, and again after an ingest
+     * refreshes the lake or the angler edits a bank.
      */
     async planJson(userId: string, slug: string, date: string, now = new Date()): Promise<string> {
-      const head = await repo.planStamp(slug, date, userId)
-      if (!head) throw new HttpError(404, 'not_found', 'No such lake.')
-      const today = localDate(now, head.time_zone)
-      if (date < addDays(today, -1) || date >= addDays(today, PLAN_DAYS)) {
-        throw new HttpError(
-          404,
-          'no_plan_for_date',
-          `Plans cover yesterday, today and the next ${PLAN_DAYS - 1} days.`,
-        )
-      }
-      const key = `${userId} ${slug} ${date}`
-      const kept = plans.get(key)
-      if (kept?.stamp === head.stamp) return kept.json
-      // Made from data at least as new as the stamp: a stamp that moved meanwhile only costs a
-      // second computation on the next view.
-      const json = JSON.stringify(await plan(userId, slug, date, now))
-      plans.set(key, { stamp: head.stamp, json })
-      return json
+      const kept = await plans.get(`${userId} ${slug} ${date}`, async () => {
+        const made = await plan(userId, slug, date, now)
+        return { window: plannableFrom(date, made.lake.timeZone), json: JSON.stringify(made) }
+      })
+      // A kept plan's date may have left the window since (midnight passed).
+      assertPlannable(kept.window, now)
+      return kept.json
     },
   }
 }
 export type ConditionsService = ReturnType<typeof conditionsService>
 
 /** The service wired to its repositories: for the app and for the jobs. */
-export function conditionsFor(db: Db): ConditionsService {
+export function conditionsFor(db: Db, changes?: Changes): ConditionsService {
   return conditionsService({
     repo: conditionsRepo(db),
     reads: lakeReadService(lakeReadRepo(db)),
+    changes,
   })
 }

@@ -1,0 +1,118 @@
+import { LRUCache } from 'lru-cache'
+import pg from 'pg'
+import type { Logger } from '../logger'
+
+/** The channel drizzle/0010_change_notices.sql notifies on: "table:key" per changed row. */
+const CHANNEL = 'chopline_changes'
+
+export interface Change {
+  table: string
+  key: string
+}
+
+/**
+ * The database's change notices, for answers kept in memory. While the listening connection is
+ * down nothing may be answered from memory (`live` is false), and every reconnect counts as a
+ * change to everything, since notices may have been missed meanwhile.
+ */
+export interface Changes {
+  readonly live: boolean
+  /** Moves on every notice and every reconnect; an answer is kept only if it did not move while
+   *  the answer was read. */
+  readonly version: number
+  /** Called with each notice, and with null when everything must go (a reconnect). */
+  subscribe(listener: (change: Change | null) => void): void
+  close(): Promise<void>
+}
+
+export function watchChanges(config: pg.ClientConfig, log: Logger, retryMs = 1_000): Changes {
+  const listeners: ((change: Change | null) => void)[] = []
+  let live = false
+  let version = 0
+  let closed = false
+  let client: pg.Client | null = null
+
+  const emit = (change: Change | null) => {
+    version++
+    for (const listener of listeners) listener(change)
+  }
+
+  async function connect() {
+    const c = new pg.Client(config)
+    client = c
+    c.on('notification', ({ payload = '' }) => {
+      const at = payload.indexOf(':')
+      emit({ table: payload.slice(0, at), key: payload.slice(at + 1) })
+    })
+    c.on('error', (err) => lost(c, err))
+    c.on('end', () => lost(c))
+    try {
+      await c.connect()
+      await c.query(`LISTEN ${CHANNEL}`)
+    } catch (err) {
+      return lost(c, err)
+    }
+    if (client !== c) return
+    emit(null)
+    live = true
+  }
+
+  function lost(c: pg.Client, err?: unknown) {
+    if (client !== c) return
+    client = null
+    live = false
+    emit(null)
+    c.end().catch(() => undefined)
+    if (closed) return
+    log.warn({ err }, 'change notices lost: answering from the database until they are back')
+    setTimeout(() => void connect(), retryMs).unref()
+  }
+
+  void connect()
+  return {
+    get live() {
+      return live
+    },
+    get version() {
+      return version
+    },
+    subscribe: (listener) => void listeners.push(listener),
+    async close() {
+      closed = true
+      live = false
+      const c = client
+      client = null
+      await c?.end()
+    },
+  }
+}
+
+/**
+ * Answers made from the database, kept in memory while change notices are live and dropped by
+ * `forget` when a notice says what they were made from has changed. Without notices (`changes`
+ * absent or down) every call reads the database.
+ */
+export class NoticedCache<V extends object> {
+  private readonly kept: LRUCache<string, V>
+
+  constructor(
+    private readonly changes: Changes | undefined,
+    options: LRUCache.Options<string, V, unknown>,
+    forget: (change: Change, kept: LRUCache<string, V>) => void,
+  ) {
+    this.kept = new LRUCache(options)
+    changes?.subscribe((change) => (change ? forget(change, this.kept) : this.kept.clear()))
+  }
+
+  async get(key: string, load: () => Promise<V>): Promise<V> {
+    const changes = this.changes
+    if (!changes?.live) return load()
+    const kept = this.kept.get(key)
+    if (kept) return kept
+    const version = changes.version
+    const value = await load()
+    // A notice that came while loading may be about what was just read: keep nothing then.
+    if (changes.live && changes.version === version) this.kept.set(key, value)
+    return value
+  }
+}

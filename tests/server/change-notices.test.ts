@@ -1,0 +1,143 @@
+import { eq } from 'drizzle-orm'
+import { pino } from 'pino'
+import request from 'supertest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
+import type { Position } from '../../shared/geo/types'
+import { DayPlanResponse } from '../../shared/schemas/day-plan'
+import { LakeRead } from '../../shared/schemas/lake-read'
+import { localDate } from '../../shared/time'
+import { watchChanges, type Changes } from '../../server/db/changes'
+import { lakes, users } from '../../server/db/schema/index'
+import { seedDemo } from '../../server/db/seed/index'
+import { conditionsFor } from '../../server/features/conditions/conditions.service'
+import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { ingestWeather } from '../../server/features/ingest/weather.ingest'
+import { PASSWORD, testApp } from '../helpers/app'
+import { createTestDb } from '../helpers/db'
+import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
+
+/**
+ * Two app instances on one database, as behind a load balancer, each keeping sessions, Lake reads
+ * and Day plans in memory: a change made through one, or straight in the database, shows on the
+ * other as soon as its notice arrives.
+ */
+let ctx: Awaited<ReturnType<typeof createTestDb>>
+let feed: TestFeed
+let one: Changes
+let two: Changes
+let appOne: ReturnType<typeof testApp>
+let appTwo: ReturnType<typeof testApp>
+let lakeId: string
+let ring: Position[]
+
+const watch = () => watchChanges(ctx.db.$client.options, pino({ level: 'silent' }), 50)
+
+beforeAll(async () => {
+  ctx = await createTestDb()
+  await seedDemo(ctx.db)
+  feed = await startTestFeed(new Date().toISOString())
+  const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+  lakeId = lake!.id
+  ring = lake!.shoreline.type === 'Polygon' ? lake!.shoreline.coordinates[0]! : []
+  await backfillReadings(ingestDeps(ctx.db, feed), lakeId, 20)
+  await ingestWeather(ingestDeps(ctx.db, feed))
+  await conditionsFor(ctx.db).refreshAll(feed.now())
+  one = watch()
+  two = watch()
+  appOne = testApp(ctx.db, { changes: one })
+  appTwo = testApp(ctx.db, { changes: two })
+  await vi.waitFor(() => expect(one.live && two.live).toBe(true))
+})
+afterAll(async () => {
+  await one.close()
+  await two.close()
+  await feed.close()
+  await ctx.drop()
+})
+
+async function signIn(email: string) {
+  await request(appOne).post('/api/auth/signup').send({ email, password: PASSWORD }).expect(201)
+  const res = await request(appOne).post('/api/auth/signin').send({ email, password: PASSWORD })
+  return res.headers['set-cookie']![0]!.split(';')[0]!
+}
+
+describe('answers kept in memory, dropped by change notices', () => {
+  it('ends a session on every instance when it signs out on one, and follows a role change', async () => {
+    const cookie = await signIn('notices@example.test')
+    expect(
+      (await request(appTwo).get('/api/me').set('Cookie', cookie).expect(200)).body.user.role,
+    ).toBe('angler')
+    await ctx.db.update(users).set({ role: 'guide' }).where(eq(users.email, 'notices@example.test'))
+    await expect
+      .poll(
+        async () => (await request(appTwo).get('/api/me').set('Cookie', cookie)).body.user?.role,
+      )
+      .toBe('guide')
+    await request(appOne).post('/api/auth/signout').set('Cookie', cookie).expect(204)
+    await expect
+      .poll(async () => (await request(appTwo).get('/api/me').set('Cookie', cookie)).status)
+      .toBe(401)
+  })
+
+  it("serves a lake's read and an angler's plan from memory until a refresh or a bank edit", async () => {
+    const cookie = await signIn('planner@example.test')
+    const today = localDate(feed.now(), 'America/Chicago')
+    const read = async () =>
+      LakeRead.parse(
+        (await request(appTwo).get('/api/lakes/quillmere/read').set('Cookie', cookie).expect(200))
+          .body,
+      )
+    const plan = async () =>
+      DayPlanResponse.parse(
+        (
+          await request(appTwo)
+            .get(`/api/lakes/quillmere/plan/${today}`)
+            .set('Cookie', cookie)
+            .expect(200)
+        ).body,
+      )
+    const before = await read()
+    expect((await plan()).banksSaved).toBe(0)
+
+    // A bank saved, renamed and deleted through the other instance.
+    const names = async () => (await plan()).plan!.windows[0]!.banks.map((b) => b.name)
+    const bank = { name: 'North point', points: [ring[40], ring[43]], cover: ['rock'], depthM: 3 }
+    const saved = await request(appOne)
+      .post('/api/lakes/quillmere/banks')
+      .set('Cookie', cookie)
+      .send(bank)
+      .expect(201)
+    await expect.poll(names).toEqual(['North point'])
+    await request(appOne)
+      .put(`/api/lakes/quillmere/banks/${saved.body.id}`)
+      .set('Cookie', cookie)
+      .send({ ...bank, name: 'North point bar' })
+      .expect(200)
+    await expect.poll(names).toEqual(['North point bar'])
+    await request(appOne)
+      .delete(`/api/lakes/quillmere/banks/${saved.body.id}`)
+      .set('Cookie', cookie)
+      .expect(204)
+    await expect.poll(async () => (await plan()).banksSaved).toBe(0)
+
+    // The next ingest's refresh, run by a job with no cache of its own.
+    const later = new Date(feed.now().getTime() + 60_000)
+    await conditionsFor(ctx.db).refresh(lakeId, later)
+    await expect.poll(async () => (await plan()).computedAt).toBe(later.toISOString())
+    expect((await read()).asOf).toBe(later.toISOString())
+    expect(before.asOf).not.toBe(later.toISOString())
+  })
+
+  it('answers from the database while notices are down', async () => {
+    const cookie = await signIn('offline@example.test')
+    const down = watch()
+    const app = testApp(ctx.db, { changes: down })
+    await vi.waitFor(() => expect(down.live).toBe(true))
+    await request(app).get('/api/me').set('Cookie', cookie).expect(200)
+    await down.close()
+    expect(down.live).toBe(false)
+    await request(appOne).post('/api/auth/signout').set('Cookie', cookie).expect(204)
+    // No notice can reach it now, and none is needed: the session row is read again.
+    await request(app).get('/api/me').set('Cookie', cookie).expect(401)
+  })
+})
