@@ -1,13 +1,15 @@
-import { VueQueryPlugin } from '@tanstack/vue-query'
-import { mount as baseMount } from '@vue/test-utils'
+import { QueryClient, VueQueryPlugin } from '@tanstack/vue-query'
+import { flushPromises, mount as baseMount } from '@vue/test-utils'
 import { createPinia } from 'pinia'
-import { describe, expect, it } from 'vitest'
+import { afterEach, describe, expect, it, vi } from 'vitest'
+import { createMemoryHistory, createRouter } from 'vue-router'
 import type { Polygon } from '@shared/geo/types'
 import type { LakeRead } from '@shared/schemas/lake-read'
 import CautionBand from '@/components/lake/CautionBand.vue'
 import LakeOutline from '@/components/lake/LakeOutline.vue'
 import WaterStrip from '@/components/lake/WaterStrip.vue'
 import WindArrow from '@/components/lake/WindArrow.vue'
+import LakeReadView from '@/views/LakeReadView.vue'
 
 /** Signed out, settings stay at their defaults (°F, ft, mph). */
 const mount: typeof baseMount = (component, options) =>
@@ -214,5 +216,46 @@ describe('LakeOutline', () => {
     const wrapper = mount(LakeOutline, { props: { read: read(), shoreline } })
     expect(wrapper.get('svg').attributes('tabindex')).toBeUndefined()
     expect(wrapper.find('circle').exists()).toBe(false)
+  })
+})
+
+describe('LakeReadView', () => {
+  afterEach(() => vi.unstubAllGlobals())
+
+  it('shows loading bars, then a failure with a retry, then the lake', async () => {
+    const answers = [
+      Response.json({ error: { code: 'internal', message: 'Try later.' } }, { status: 500 }),
+      Response.json(read({ lake: { ...read().lake, name: 'Quiet Pond' } })),
+    ]
+    const fetch = vi.fn(async () => answers.shift()!)
+    vi.stubGlobal('fetch', fetch)
+    const router = createRouter({
+      history: createMemoryHistory(),
+      routes: [
+        { path: '/lakes/:slug', component: LakeReadView },
+        { path: '/lakes/:slug/plan/:date', name: 'day-plan', component: { render: () => null } },
+      ],
+    })
+    await router.push('/lakes/x')
+    const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } })
+    const wrapper = baseMount(LakeReadView, {
+      global: {
+        plugins: [createPinia(), router, [VueQueryPlugin, { queryClient }]],
+        // The map and the charts load when scrolled to; they have tests of their own.
+        stubs: { WhenVisible: true },
+      },
+    })
+    expect(wrapper.find('[role="status"]').attributes('aria-label')).toBe('Loading the lake')
+
+    await flushPromises()
+    const failure = wrapper.find('[role="alert"]')
+    expect(failure.text()).toContain('This lake could not be loaded')
+    expect(failure.text()).toContain('Try later.')
+
+    await failure.find('button').trigger('click')
+    await flushPromises()
+    expect(wrapper.find('h1').text()).toBe('Quiet Pond')
+    expect(wrapper.find('[role="alert"]').exists()).toBe(false)
+    expect(fetch).toHaveBeenCalledTimes(2)
   })
 })
