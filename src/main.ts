@@ -1,7 +1,6 @@
 import { VueQueryPlugin } from '@tanstack/vue-query'
 import { createPinia } from 'pinia'
 import { createApp } from 'vue'
-import { dateTimeFormat } from '@shared/time'
 import App from './App.vue'
 import { queryClient } from './queryClient'
 import router from './router'
@@ -12,6 +11,3 @@ app.use(createPinia())
 app.use(router)
 app.use(VueQueryPlugin, { queryClient })
 app.mount('#app')
-// The first Intl.DateTimeFormat loads the runtime's locale data, tens of milliseconds on a phone.
-// Pay that now, while the first requests are in flight, not when a page's data arrives to render.
-dateTimeFormat({ hour: 'numeric' })

@@ -25,10 +25,12 @@ import { CHROMIUM_ARGS } from '../helpers/browser'
 
 /**
  * The dashboard served from the cache: autocannon (50 connections, 10 s) against the Lake read and
- * the Day plan and, in the same run, against /api/me (session check plus a tiny JSON body) as the
+ * the Day plan and, in the same run, against /api/me (the session check and a tiny JSON body) as the
  * baseline; the JavaScript the Lake read loads before it is usable; Lighthouse on that page.
  */
 const SLUG = 'quillmere'
+/** Mobile Lighthouse runs; the median one is reported. */
+const LIGHTHOUSE_RUNS = 3
 /** Lighthouse's own desktop preset: no CPU slowdown, a fast link. */
 const DESKTOP = {
   extends: 'lighthouse:default',
@@ -160,13 +162,19 @@ try {
     )
     return result!.lhr
   }
-  const mobile = await audit('mobile')
+  type Lhr = Awaited<ReturnType<typeof audit>>
+  // Lighthouse's own advice for a noisy machine: several runs, and the run with the median score.
+  const mobileRuns = []
+  for (let i = 0; i < LIGHTHOUSE_RUNS; i++) mobileRuns.push(await audit('mobile'))
+  const byScore = (a: Lhr, b: Lhr) =>
+    (a.categories.performance?.score ?? 0) - (b.categories.performance?.score ?? 0)
+  const mobile = mobileRuns.sort(byScore)[Math.floor(LIGHTHOUSE_RUNS / 2)]!
   const desktopLhr = await audit('desktop')
   writeFileSync(
     fileURLToPath(new URL('../../.tmp/lighthouse-lake-read.json', import.meta.url)),
     JSON.stringify(mobile),
   )
-  const score = (lhr: typeof mobile, c: string) => Math.round((lhr.categories[c]?.score ?? 0) * 100)
+  const score = (lhr: Lhr, c: string) => Math.round((lhr.categories[c]?.score ?? 0) * 100)
   const metric = (id: string) => mobile.audits[id]?.displayValue ?? '—'
   const lighthouseMetrics = Object.fromEntries(
     [
@@ -202,7 +210,8 @@ try {
     'server RSS before (MB)': Math.round(rssBefore),
     'server RSS after (MB)': Math.round(rssAfter),
     'Lake read JS before usable (kB gzip)': Number(jsGzipKb.toFixed(1)),
-    'Lighthouse performance (mobile)': performanceScore,
+    [`Lighthouse performance (mobile, median of ${LIGHTHOUSE_RUNS})`]: performanceScore,
+    'Lighthouse mobile runs': mobileRuns.map((l) => score(l, 'performance')).join(', '),
     'Lighthouse performance (desktop)': desktopPerformance,
     'Lighthouse accessibility': accessibilityScore,
     targets: 'ratios >= 0.5, p99 <= 50 ms, 0 errors, JS <= 200 kB, perf >= 90, a11y >= 95',
