@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 import { LRUCache } from 'lru-cache'
 import pg from 'pg'
 import type { Logger } from '../logger'
@@ -40,7 +41,15 @@ export function watchChanges(config: pg.ClientConfig, log: Logger, retryMs = 1_0
   async function connect() {
     const c = new pg.Client(config)
     client = c
+    // Live only once a notice of our own comes back: a connection that cannot receive them (a
+    // transaction-pooling proxy accepts LISTEN and then delivers nothing) never turns caching on.
+    const ping = `ping:${randomUUID()}`
     c.on('notification', ({ payload = '' }) => {
+      if (payload === ping) {
+        emit(null)
+        live = true
+        return
+      }
       const at = payload.indexOf(':')
       emit({ table: payload.slice(0, at), key: payload.slice(at + 1) })
     })
@@ -49,12 +58,10 @@ export function watchChanges(config: pg.ClientConfig, log: Logger, retryMs = 1_0
     try {
       await c.connect()
       await c.query(`LISTEN ${CHANNEL}`)
+      await c.query('select pg_notify($1, $2)', [CHANNEL, ping])
     } catch (err) {
-      return lost(c, err)
+      lost(c, err)
     }
-    if (client !== c) return
-    emit(null)
-    live = true
   }
 
   function lost(c: pg.Client, err?: unknown) {
