@@ -53,7 +53,11 @@ export const trips = pgTable(
     notes: text().notNull().default(''),
     ...timestamps,
   },
-  (t) => [index('trips_guide_date_idx').on(t.guideId, t.date)],
+  (t) => [
+    index('trips_guide_date_idx').on(t.guideId, t.date),
+    // A lake's refresh keeps the past days that have a trip on them: looked up by lake and date.
+    index('trips_lake_date_idx').on(t.lakeId, t.date),
+  ],
 )
 
 /** The guide's banks a trip will fish, in order; deleting a bank takes it off its trips. */

@@ -1,0 +1,1 @@
+CREATE INDEX "trips_lake_date_idx" ON "trips" USING btree ("lake_id","date");
