@@ -86,17 +86,24 @@ export const ReadingsImportReport = z.object({
 export type ReadingsImportReport = z.infer<typeof ReadingsImportReport>
 
 /** A station's last days, for the desk's small chart: readings stored against those expected, and refusals. */
-export const StationHistory = z.object({
-  days: z.array(
+/** Every station's last days, for the desk's small charts: one answer for the whole list. */
+export const StationHistories = z.object({
+  items: z.array(
     z.object({
-      date: z.iso.date(),
-      stored: z.number().int(),
-      expected: z.number().int(),
-      rejected: z.number().int(),
+      stationId: z.uuid(),
+      days: z.array(
+        z.object({
+          date: z.iso.date(),
+          stored: z.number().int(),
+          expected: z.number().int(),
+          rejected: z.number().int(),
+        }),
+      ),
     }),
   ),
 })
-export type StationHistory = z.infer<typeof StationHistory>
+export type StationHistories = z.infer<typeof StationHistories>
+export type StationDay = StationHistories['items'][number]['days'][number]
 export const StationHistoryQuery = z.object({
   days: z.coerce.number().int().min(1).max(30).default(7),
 })

@@ -8,7 +8,7 @@ import type {
 import type { QuarantinePage, QuarantineQuery } from '@shared/schemas/quarantine'
 import type {
   ReadingsImportReport,
-  StationHistory,
+  StationHistories,
   StationList,
   StationRunResult,
   StationInput,
@@ -28,8 +28,8 @@ export const deskApi = {
       body: upload(file),
       query: { commit: String(commit) },
     }),
-  stationHistory: (id: string, days = 7) =>
-    apiRequest<StationHistory>(`/admin/stations/${id}/history`, { query: { days } }),
+  stationHistories: (days = 7) =>
+    apiRequest<StationHistories>('/admin/stations/history', { query: { days } }),
   runStation: (id: string) =>
     apiRequest<StationRunResult>(`/admin/stations/${id}/run`, { method: 'POST' }),
   quarantine: (query: Partial<QuarantineQuery>) =>

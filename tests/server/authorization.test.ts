@@ -56,7 +56,7 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'PUT /admin/stations/:id': admins,
   'POST /admin/stations/:id/run': admins,
   'POST /admin/stations/:id/readings': admins,
-  'GET /admin/stations/:id/history': admins,
+  'GET /admin/stations/history': admins,
   'GET /me/settings': signedIn,
   'PUT /me/settings': signedIn,
   'GET /me/brief': signedIn,

@@ -3,8 +3,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { toSi } from '../../shared/readings'
 import { AuditPage } from '../../shared/schemas/audit'
 import { QuarantinePage } from '../../shared/schemas/quarantine'
-import { ReadingsImportReport, StationHistory } from '../../shared/schemas/stations'
+import { ReadingsImportReport, StationHistories } from '../../shared/schemas/stations'
 import { datastreams, lakes, quarantine, readings, stations } from '../../server/db/schema/index'
+import { stationsRepo } from '../../server/features/stations/stations.repo'
 import { seedDemo } from '../../server/db/seed/index'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
 import { signedInAgent, testApp } from '../helpers/app'
@@ -249,14 +250,25 @@ describe('readings import', () => {
 })
 
 describe('station history', () => {
-  it('counts each of the last days: readings stored against those expected, and refusals', async () => {
+  it('counts each of the last days for every station at once: stored against expected, and refusals', async () => {
     const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'history@admin.test', 'admin')
-    const res = await admin.get(`/api/admin/stations/${station.id}/history?days=3`).expect(200)
-    const { days } = StationHistory.parse(res.body)
+    const res = await admin.get('/api/admin/stations/history?days=3').expect(200)
+    const { items } = StationHistories.parse(res.body)
+    expect(items.length).toBe(await ctx.db.$count(stations))
+    const { days } = items.find((h) => h.stationId === station.id)!
     expect(days).toHaveLength(3)
     expect(days.at(-1)!.date).toBe(new Date().toISOString().slice(0, 10))
     // A parameter read every 15 minutes is expected 96 times a day.
     expect(days[0]!.expected).toBeGreaterThanOrEqual(96)
-    await admin.get(`/api/admin/stations/${station.id}/history?days=90`).expect(400)
+    // The rows the quarantine tests above held today count against today, for this station only.
+    expect(days.at(-1)!.rejected).toBeGreaterThan(0)
+    expect(items.filter((h) => h.days.at(-1)!.rejected > 0)).toHaveLength(1)
+    await admin.get('/api/admin/stations/history?days=90').expect(400)
+
+    // The feed's day, seen from then: the backfilled readings count on the days they were read.
+    const then = await stationsRepo(ctx.db).histories(new Date('2026-04-10T12:00:00Z'), 2)
+    const mine = then.filter((r) => r.station_id === station.id)
+    expect(mine.map((r) => r.date)).toEqual(['2026-04-09', '2026-04-10'])
+    expect(mine.every((r) => r.stored > 0)).toBe(true)
   })
 })

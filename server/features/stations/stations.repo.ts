@@ -25,11 +25,10 @@ export function stationsRepo(db: Db) {
       return { rows, streams }
     },
 
-    parametersOf: (stationId: string) =>
+    allParameters: () =>
       db
-        .select({ parameter: datastreams.parameter })
-        .from(datastreams)
-        .where(eq(datastreams.stationId, stationId)),
+        .select({ stationId: datastreams.stationId, parameter: datastreams.parameter })
+        .from(datastreams),
     lakeId: async (slug: string) =>
       (await db.select({ id: lakes.id }).from(lakes).where(eq(lakes.slug, slug)))[0]?.id,
     async byId(id: string) {
@@ -53,16 +52,32 @@ export function stationsRepo(db: Db) {
       return !!row
     },
     /** Per UTC day over the last `days`: readings stored (by observation time) and rows refused. */
-    async history(id: string, now: Date, days: number) {
-      const { rows } = await db.execute<{ date: string; stored: number; rejected: number }>(sql`
-        select d::date::text as date,
-          (select count(*)::int from readings r where r.station_id = ${id}
-             and r.observed_at >= d and r.observed_at < d + interval '1 day') as stored,
-          (select count(*)::int from quarantine q where q.station_id = ${id}
-             and q.received_at >= d and q.received_at < d + interval '1 day') as rejected
-        from generate_series(date_trunc('day', ${now.toISOString()}::timestamptz at time zone 'UTC') - ${days - 1} * interval '1 day',
-                             date_trunc('day', ${now.toISOString()}::timestamptz at time zone 'UTC'), interval '1 day') as d
-        order by d`)
+    /** Readings stored and refused per station and UTC day, over the last `days` days to `now`. */
+    async histories(now: Date, days: number) {
+      const { rows } = await db.execute<{
+        station_id: string
+        date: string
+        stored: number
+        rejected: number
+      }>(sql`
+        with days as (
+          select (${now.toISOString()}::timestamptz at time zone 'UTC')::date - g as day
+          from generate_series(0, ${days - 1}::int) as g),
+        since as (select min(day)::timestamp at time zone 'UTC' as at from days),
+        stored as (
+          select station_id, (observed_at at time zone 'UTC')::date as day, count(*)::int as n
+          from readings where observed_at >= (select at from since)
+          group by 1, 2),
+        rejected as (
+          select station_id, (received_at at time zone 'UTC')::date as day, count(*)::int as n
+          from quarantine where received_at >= (select at from since)
+          group by 1, 2)
+        select s.id as station_id, d.day::text as date,
+          coalesce(st.n, 0) as stored, coalesce(rj.n, 0) as rejected
+        from stations s cross join days d
+        left join stored st on st.station_id = s.id and st.day = d.day
+        left join rejected rj on rj.station_id = s.id and rj.day = d.day
+        order by s.id, d.day`)
       return rows
     },
     update: (id: string, values: StationValues, tx: Pick<Db, 'update'> = db) =>

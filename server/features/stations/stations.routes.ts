@@ -13,6 +13,13 @@ export function stationsRoutes(stations: StationsService): Router {
   router.get('/admin/stations', async (_req, res) => {
     res.json(await stations.list())
   })
+  router.get(
+    '/admin/stations/history',
+    validate({ query: StationHistoryQuery }),
+    async (req, res) => {
+      res.json(await stations.histories(input(StationHistoryQuery, req.query).days))
+    },
+  )
   router.post('/admin/stations', validate({ body: StationInput }), async (req, res) => {
     res.status(201).json(await stations.create(currentUser(req), input(StationInput, req.body)))
   })
@@ -34,14 +41,6 @@ export function stationsRoutes(stations: StationsService): Router {
       const commit = input(ImportQuery, req.query).commit === 'true'
       const csv = req.file!.buffer.toString('utf8')
       res.json(await stations.importReadings(currentUser(req), id, csv, commit))
-    },
-  )
-  router.get(
-    '/admin/stations/:id/history',
-    validate({ params: StationParams, query: StationHistoryQuery }),
-    async (req, res) => {
-      const { id } = input(StationParams, req.params)
-      res.json(await stations.history(id, input(StationHistoryQuery, req.query).days))
     },
   )
   router.post('/admin/stations/:id/run', validate({ params: StationParams }), async (req, res) => {

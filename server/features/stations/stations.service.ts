@@ -1,7 +1,7 @@
 import { isoOrNull } from '../../../shared/time'
 import type { User } from '../../../shared/schemas/auth'
 import type {
-  StationHistory,
+  StationHistories,
   StationInput,
   StationList,
   StationRunResult,
@@ -112,18 +112,24 @@ export function stationsService(
       return { id }
     },
 
-    /** The station's last days against its datastreams' cadence (the desk's small chart). */
-    async history(id: string, days: number): Promise<StationHistory> {
-      await station(id)
+    /** Each station's last days against its datastreams' cadence (the desk's small charts). */
+    async histories(days: number): Promise<StationHistories> {
       const [streams, rows] = await Promise.all([
-        repo.parametersOf(id),
-        repo.history(id, new Date(), days),
+        repo.allParameters(),
+        repo.histories(new Date(), days),
       ])
-      const perDay = streams.reduce(
-        (n, d) => n + Math.round(1440 / PARAMETERS[d.parameter].cadenceMin),
-        0,
-      )
-      return { days: rows.map((r) => ({ ...r, expected: perDay })) }
+      const perDay = new Map<string, number>()
+      for (const d of streams) {
+        const n = Math.round(1440 / PARAMETERS[d.parameter].cadenceMin)
+        perDay.set(d.stationId, (perDay.get(d.stationId) ?? 0) + n)
+      }
+      const items = new Map<string, StationHistories['items'][number]>()
+      for (const { station_id: stationId, ...day } of rows) {
+        let item = items.get(stationId)
+        if (!item) items.set(stationId, (item = { stationId, days: [] }))
+        item.days.push({ ...day, expected: perDay.get(stationId) ?? 0 })
+      }
+      return { items: [...items.values()] }
     },
 
     /** Historical readings from a CSV: a preview, or stored and quarantined as ingestion would. */
