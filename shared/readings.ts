@@ -60,6 +60,17 @@ export function isStale(parameter: Parameter, at: Date, now: Date): boolean {
   return now.getTime() - at.getTime() > staleAfterMs(parameter)
 }
 
+/** Why the ingest jobs refuse a row: the quarantine's vocabulary, and its review filter's. */
+export const QUARANTINE_REASONS = [
+  'malformed',
+  'unknown_unit',
+  'out_of_range',
+  'rate_of_change',
+  'conflicting_duplicate',
+  'invalid_weather',
+] as const
+export type QuarantineReason = (typeof QUARANTINE_REASONS)[number]
+
 /** Changes over very short spans are judged as if a quarter hour had passed. */
 const MIN_SPAN_H = 0.25
 

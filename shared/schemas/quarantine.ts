@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { QUARANTINE_REASONS } from '../readings'
 import { pageOf, PageQuery } from './paging'
 
 export const QUARANTINE_STATUSES = ['held', 'released', 'discarded'] as const
@@ -11,7 +12,7 @@ export const QuarantineItem = z.object({
   parameter: z.string(),
   observedAt: z.iso.datetime().nullable(),
   raw: z.unknown(),
-  reason: z.string(),
+  reason: z.enum(QUARANTINE_REASONS),
   detail: z.string(),
   status: z.enum(QUARANTINE_STATUSES),
   receivedAt: z.iso.datetime(),
@@ -19,14 +20,11 @@ export const QuarantineItem = z.object({
   releasable: z.boolean(),
 })
 export type QuarantineItem = z.infer<typeof QuarantineItem>
-export const QuarantinePage = pageOf(QuarantineItem).extend({
-  /** The reasons present, for the filter. */
-  reasons: z.array(z.string()),
-})
+export const QuarantinePage = pageOf(QuarantineItem)
 export type QuarantinePage = z.infer<typeof QuarantinePage>
 export const QuarantineQuery = PageQuery.extend({
   stationId: z.uuid('Not a station.').optional(),
-  reason: z.string().trim().max(40).optional(),
+  reason: z.enum(QUARANTINE_REASONS, { error: 'Not a reason for refusing a row.' }).optional(),
   status: z.enum(QUARANTINE_STATUSES).default('held'),
 })
 export type QuarantineQuery = z.infer<typeof QuarantineQuery>

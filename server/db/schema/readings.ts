@@ -13,7 +13,7 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core'
-import { PARAMETER_KEYS } from '../../../shared/readings'
+import { PARAMETER_KEYS, type QuarantineReason } from '../../../shared/readings'
 import { timestamps } from './columns'
 import { lakes } from './lakes'
 
@@ -110,7 +110,7 @@ export const quarantine = pgTable(
     feedId: text().notNull(),
     observedAt: timestamp({ withTimezone: true }),
     raw: jsonb().notNull(),
-    reason: text().notNull(),
+    reason: text().$type<QuarantineReason>().notNull(),
     detail: text().notNull(),
     status: quarantineStatus().notNull().default('held'),
     receivedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),

@@ -1,6 +1,6 @@
 import { isoOrNull } from '../../../shared/time'
 import { and, eq, getTableColumns, inArray, isNull, lte, or, sql } from 'drizzle-orm'
-import type { Parameter } from '../../../shared/readings'
+import type { Parameter, QuarantineReason } from '../../../shared/readings'
 import type { Db } from '../../db/index'
 import { datastreams, lakes, quarantine, stations, weatherHours } from '../../db/schema/index'
 
@@ -14,7 +14,7 @@ export interface QuarantineRow {
   feedId: string
   observedAt: Date | null
   raw: unknown
-  reason: string
+  reason: QuarantineReason
   detail: string
 }
 

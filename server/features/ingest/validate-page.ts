@@ -71,7 +71,10 @@ export function validatePage(
     if (earlier === undefined) seen.set(t, obs.result)
     const verdict =
       earlier !== undefined
-        ? { reason: 'conflicting_duplicate', detail: `a second value for ${obs.phenomenonTime}` }
+        ? {
+            reason: 'conflicting_duplicate' as const,
+            detail: `a second value for ${obs.phenomenonTime}`,
+          }
         : judge(parameter, unit, obs.result, at, previous)
     if ('si' in verdict) {
       good.push({ observedAt: at, value: verdict.si, originalValue: obs.result })

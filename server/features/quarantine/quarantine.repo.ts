@@ -17,7 +17,7 @@ export function quarantineRepo(db: Db) {
     )
   return {
     async list(q: QuarantineQuery) {
-      const [rows, [total], reasons] = await Promise.all([
+      const [rows, [total]] = await Promise.all([
         db
           .select({
             row: quarantine,
@@ -32,12 +32,8 @@ export function quarantineRepo(db: Db) {
           .limit(q.pageSize)
           .offset((q.page - 1) * q.pageSize),
         db.select({ n: count() }).from(quarantine).where(filters(q)),
-        db
-          .selectDistinct({ reason: quarantine.reason })
-          .from(quarantine)
-          .orderBy(quarantine.reason),
       ])
-      return { rows, total: total?.n ?? 0, reasons: reasons.map((r) => r.reason) }
+      return { rows, total: total?.n ?? 0 }
     },
 
     /** Runs `fn` in one transaction: the decision, the reading it stores and its audit entry. */

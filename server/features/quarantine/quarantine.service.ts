@@ -20,7 +20,7 @@ const gone = () =>
 export function quarantineService(repo: QuarantineRepo) {
   return {
     async list(query: QuarantineQuery): Promise<QuarantinePage> {
-      const { rows, total, reasons } = await repo.list(query)
+      const { rows, total } = await repo.list(query)
       return {
         items: rows.map(({ row, stationName, lakeName }) => ({
           id: row.id,
@@ -41,7 +41,6 @@ export function quarantineService(repo: QuarantineRepo) {
         total,
         page: query.page,
         pageSize: query.pageSize,
-        reasons,
       }
     },
 
