@@ -1,5 +1,4 @@
 import { existsSync } from 'node:fs'
-import { join } from 'node:path'
 import compression from 'compression'
 import cookieParser from 'cookie-parser'
 import express, { type RequestHandler } from 'express'
@@ -189,9 +188,9 @@ export function createApp(deps: AppDeps): express.Express {
   if (deps.devMiddleware) {
     app.use(deps.devMiddleware)
   } else if (deps.staticDir && existsSync(deps.staticDir)) {
-    const index = join(deps.staticDir, 'index.html')
     app.use(express.static(deps.staticDir, { index: false, maxAge: '1h' }))
-    app.get('/{*splat}', (_req, res) => res.sendFile(index))
+    // `root` keeps send's dotfile rule to the file's own name: the build may sit under a dot-directory.
+    app.get('/{*splat}', (_req, res) => res.sendFile('index.html', { root: deps.staticDir }))
   }
 
   app.use(notFound)
