@@ -21,8 +21,8 @@ interface RequestOptions {
 
 /**
  * One way to call the API: same-origin cookies, JSON both ways, the answer typed by its shared
- * schema (`apiRequest<LakeRead>(...)`). The client does not parse answers again: the server's tests
- * check every route's answer against that schema, and zod stays out of the code a page needs first.
+ * schema (`apiRequest<LakeRead>(...)`). The client does not parse answers again: the server's API
+ * tests parse them with those schemas, and zod stays out of the code a page needs first.
  */
 export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Promise<T> {
   const res = await send(path, opts)
