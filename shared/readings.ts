@@ -75,7 +75,7 @@ export type QuarantineReason = (typeof QUARANTINE_REASONS)[number]
 const MIN_SPAN_H = 0.25
 
 export type Rejection = {
-  reason: 'out_of_range' | 'rate_of_change' | 'unknown_unit'
+  reason: Extract<QuarantineReason, 'out_of_range' | 'rate_of_change' | 'unknown_unit'>
   detail: string
 }
 

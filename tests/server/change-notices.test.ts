@@ -55,9 +55,12 @@ afterAll(async () => {
   await ctx.drop()
 })
 
+/** A new angler signed up through the first instance; the session cookie to send. */
 async function signIn(email: string) {
-  await request(appOne).post('/api/auth/signup').send({ email, password: PASSWORD }).expect(201)
-  const res = await request(appOne).post('/api/auth/signin').send({ email, password: PASSWORD })
+  const res = await request(appOne)
+    .post('/api/auth/signup')
+    .send({ email, password: PASSWORD })
+    .expect(201)
   return res.headers['set-cookie']![0]!.split(';')[0]!
 }
 

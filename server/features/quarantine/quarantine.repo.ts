@@ -1,10 +1,11 @@
 import { and, count, desc, eq, sql } from 'drizzle-orm'
+import type { QuarantineReason } from '../../../shared/readings'
 import type { QuarantineQuery } from '../../../shared/schemas/quarantine'
 import type { Db } from '../../db/index'
 import { datastreams, lakes, quarantine, readings, stations } from '../../db/schema/index'
 
 /** Refused values that a person may still accept: the value was read, it only looked implausible. */
-export const RELEASABLE_REASONS = ['out_of_range', 'rate_of_change']
+export const RELEASABLE_REASONS: QuarantineReason[] = ['out_of_range', 'rate_of_change']
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0]
 
