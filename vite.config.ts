@@ -10,7 +10,7 @@ const alias = {
 export default defineConfig({
   plugins: [vue()],
   resolve: { alias },
-  publicDir: false,
+  publicDir: 'src/public',
   // The manifest lets `npm run bench -- dashboard` count what a route loads before it is usable.
   build: { outDir: 'dist', chunkSizeWarningLimit: 700, manifest: true },
   test: {

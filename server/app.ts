@@ -50,6 +50,7 @@ import { usersRoutes } from './features/users/users.routes'
 import { usersService } from './features/users/users.service'
 import { errorHandler, HttpError, notFound } from './http/errors'
 import { sameOrigin } from './http/origin'
+import { pageRoutes } from './http/pages'
 import { requestLog } from './http/request-log'
 import type { Logger } from './logger'
 
@@ -99,6 +100,9 @@ export function createApp(deps: AppDeps): express.Express {
     },
   })
 
+  const conditions = conditionsFor(deps.db, deps.changes)
+  const settings = settingsService(settingsRepo(deps.db))
+
   app.use(requestLog(deps.logger))
   // Anglers read this on a phone at the ramp: gzip the bundle and the JSON (clients that ask for it).
   app.use(compression())
@@ -130,7 +134,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limiter }))
   api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
   api.use(lakesRoutes(lakesService(lakesRepo(deps.db)), lakeReadService(lakeReadRepo(deps.db))))
-  api.use(conditionsRoutes(conditionsFor(deps.db, deps.changes)))
+  api.use(conditionsRoutes(conditions))
   api.use(banksRoutes(banksService(banksRepo(deps.db))))
   api.use(
     stationsRoutes(
@@ -141,7 +145,7 @@ export function createApp(deps: AppDeps): express.Express {
       }),
     ),
   )
-  api.use(settingsRoutes(settingsService(settingsRepo(deps.db))))
+  api.use(settingsRoutes(settings))
   api.use(
     briefRoutes(
       briefService({
@@ -188,9 +192,15 @@ export function createApp(deps: AppDeps): express.Express {
   if (deps.devMiddleware) {
     app.use(deps.devMiddleware)
   } else if (deps.staticDir && existsSync(deps.staticDir)) {
-    app.use(express.static(deps.staticDir, { index: false, maxAge: '1h' }))
-    // `root` keeps send's dotfile rule to the file's own name: the build may sit under a dot-directory.
-    app.get('/{*splat}', (_req, res) => res.sendFile('index.html', { root: deps.staticDir }))
+    app.use(
+      pageRoutes({
+        staticDir: deps.staticDir,
+        auth,
+        settings,
+        conditions,
+        log: deps.logger,
+      }),
+    )
   }
 
   app.use(notFound)

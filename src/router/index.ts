@@ -1,9 +1,11 @@
 import { createRouter, createWebHistory, type RouteLocationNormalized } from 'vue-router'
+import { lakeReadQuery } from '@/api/lakes'
 import { settingsQuery } from '@/api/settings'
 import { queryClient } from '@/queryClient'
 import type { Role } from '@shared/schemas/auth'
 import { useAuthStore } from '@/stores/auth'
-import HomeView from '@/views/HomeView.vue'
+import { loadNaiveScope } from '@/components/naiveScope'
+import LakeReadView from '@/views/LakeReadView.vue'
 
 declare module 'vue-router' {
   interface RouteMeta {
@@ -12,6 +14,11 @@ declare module 'vue-router' {
     /** Pages for signed-out visitors only (sign in, sign up). */
     guestOnly?: boolean
     title?: string
+    /**
+     * The page is plain markup, not naive-ui, so it draws without waiting for the component
+     * library; any naive-ui parts inside it wrap themselves in NaiveScope.
+     */
+    plain?: boolean
     /** Starts the page's data as navigation begins, alongside its code, not after it mounts. */
     prefetch?: (to: RouteLocationNormalized) => void
   }
@@ -20,7 +27,12 @@ declare module 'vue-router' {
 const router = createRouter({
   history: createWebHistory(),
   routes: [
-    { path: '/', name: 'home', component: HomeView, meta: { title: 'Chopline' } },
+    {
+      path: '/',
+      name: 'home',
+      component: () => import('@/views/HomeView.vue'),
+      meta: { title: 'Chopline' },
+    },
     {
       path: '/signin',
       name: 'signin',
@@ -42,14 +54,14 @@ const router = createRouter({
     {
       path: '/lakes/:slug',
       name: 'lake-read',
-      component: () => import('@/views/LakeReadView.vue'),
+      // In the first bundle, not a chunk of its own: it is the page most visits open, and served
+      // with its data (see PageBoot) it then renders in the same task as the app, before a paint.
+      component: LakeReadView,
       meta: {
         role: 'angler',
         title: 'Lake read',
-        prefetch: (to) =>
-          void import('@/api/lakes').then(({ lakeReadQuery }) =>
-            queryClient.prefetchQuery(lakeReadQuery(String(to.params.slug))),
-          ),
+        plain: true,
+        prefetch: (to) => void queryClient.prefetchQuery(lakeReadQuery(String(to.params.slug))),
       },
     },
     {
@@ -149,6 +161,7 @@ const router = createRouter({
 
 router.beforeEach(async (to) => {
   to.meta.prefetch?.(to)
+  if (!to.meta.plain) void loadNaiveScope()
   const auth = useAuthStore()
   // Signed-in pages show numbers in the user's units: ask for them beside the sign-in check.
   if (to.meta.role && (auth.signedIn || !auth.checked))

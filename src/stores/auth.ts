@@ -24,6 +24,12 @@ export const useAuthStore = defineStore('auth', () => {
     }
   }
 
+  /** The user the server served the page to (see PageBoot): no /api/me needed. */
+  function adopt(served: User | null) {
+    user.value = served
+    checked.value = true
+  }
+
   async function signIn(input: SignInInput) {
     user.value = (await authApi.signIn(input)).user
   }
@@ -37,7 +43,7 @@ export const useAuthStore = defineStore('auth', () => {
     user.value = null
   }
 
-  return { user, checked, signedIn, can, load, signIn, signUp, signOut }
+  return { user, checked, signedIn, can, load, adopt, signIn, signUp, signOut }
 })
 
 if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useAuthStore, import.meta.hot))

@@ -1,5 +1,5 @@
 import { acceptHMRUpdate, defineStore } from 'pinia'
-import { ref, watch } from 'vue'
+import { ref, watch, watchEffect } from 'vue'
 
 export type ColorScheme = 'light' | 'dark'
 
@@ -15,6 +15,8 @@ function initialScheme(): ColorScheme {
 export const usePreferencesStore = defineStore('preferences', () => {
   const colorScheme = ref<ColorScheme>(initialScheme())
   watch(colorScheme, (value) => localStorage.setItem(KEY, value))
+  // The page's own colours (main.css) follow it; naive-ui's follow through NaiveScope.
+  watchEffect(() => (document.documentElement.dataset.colorScheme = colorScheme.value))
   const toggleColorScheme = () => {
     colorScheme.value = colorScheme.value === 'dark' ? 'light' : 'dark'
   }

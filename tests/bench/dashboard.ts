@@ -122,8 +122,8 @@ try {
   }
   const rssAfter = rssMb()
 
-  // What the Lake read loads before it is usable: the entry and the view with their static
-  // imports, not the chunks it loads later (the charts).
+  // What the Lake read loads before it is usable: the page's classic scripts, and the entry (which
+  // holds the Lake read) with its static imports, not the chunks it loads later (map, charts).
   type Chunk = { file: string; imports?: string[]; css?: string[] }
   const manifest = JSON.parse(readFileSync(`${clientDir}/.vite/manifest.json`, 'utf8')) as Record<
     string,
@@ -137,7 +137,8 @@ try {
     for (const i of chunk.imports ?? []) walk(i)
   }
   walk('index.html')
-  walk('src/views/LakeReadView.vue')
+  const page = readFileSync(`${clientDir}/index.html`, 'utf8')
+  for (const [, src] of page.matchAll(/<script src="\/([^"]+)"/g)) files.add(src!)
   const jsGzipKb =
     [...files].reduce((n, f) => n + gzipSync(readFileSync(`${clientDir}/${f}`)).length, 0) / 1024
 

@@ -1,4 +1,10 @@
-import { Router, type CookieOptions, type RequestHandler, type Response } from 'express'
+import {
+  Router,
+  type CookieOptions,
+  type Request,
+  type RequestHandler,
+  type Response,
+} from 'express'
 import { PasswordChangeInput, SignInInput, SignUpInput } from '../../../shared/schemas/auth'
 import { currentUser, requireSignIn } from '../../http/access'
 import { input, validate } from '../../http/validate'
@@ -56,14 +62,17 @@ export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
   return router
 }
 
+/** The live session a request's cookie names, if it names one. */
+export async function sessionOf(auth: AuthService, req: Request) {
+  const token: unknown = req.cookies?.[SESSION_COOKIE]
+  return typeof token === 'string' && token ? auth.authenticate(token) : null
+}
+
 /** Reads the session cookie and, when it names a live session, sets req.auth. */
 export function sessionMiddleware(auth: AuthService): RequestHandler {
   return async (req, _res, next) => {
-    const token: unknown = req.cookies?.[SESSION_COOKIE]
-    if (typeof token === 'string' && token) {
-      const found = await auth.authenticate(token)
-      if (found) req.auth = found
-    }
+    const found = await sessionOf(auth, req)
+    if (found) req.auth = found
     next()
   }
 }

@@ -5,6 +5,10 @@ import { afterEach, describe, expect, it, vi } from 'vitest'
 import { createMemoryHistory, createRouter } from 'vue-router'
 import type { Polygon } from '@shared/geo/types'
 import type { LakeRead } from '@shared/schemas/lake-read'
+import { PAGE_BOOT_ID, type PageBoot } from '@shared/schemas/page-boot'
+import { adoptPageBoot } from '@/pageBoot'
+import { queryClient } from '@/queryClient'
+import { useAuthStore } from '@/stores/auth'
 import CautionBand from '@/components/lake/CautionBand.vue'
 import LakeOutline from '@/components/lake/LakeOutline.vue'
 import WaterStrip from '@/components/lake/WaterStrip.vue'
@@ -257,5 +261,49 @@ describe('LakeReadView', () => {
     expect(wrapper.find('h1').text()).toBe('Quiet Pond')
     expect(wrapper.find('[role="alert"]').exists()).toBe(false)
     expect(fetch).toHaveBeenCalledTimes(2)
+  })
+
+  it('draws the lake the page was served with in its first render, asking the API nothing', async () => {
+    const fetch = vi.fn()
+    vi.stubGlobal('fetch', fetch)
+    const boot: PageBoot = {
+      user: {
+        id: '00000000-0000-4000-8000-000000000009',
+        email: 'a@example.test',
+        role: 'angler',
+        createdAt: now,
+      },
+      settings: { temperature: 'C', length: 'm', speed: 'kmh', clock: '24h', homeLakeSlug: null },
+      lakeRead: read({ lake: { ...read().lake, name: 'Served Pond' } }),
+    }
+    const element = document.createElement('script')
+    element.type = 'application/json'
+    element.id = PAGE_BOOT_ID
+    element.textContent = JSON.stringify(boot)
+    document.body.append(element)
+    const pinia = createPinia()
+    adoptPageBoot(pinia)
+    expect(document.getElementById(PAGE_BOOT_ID)).toBeNull()
+    expect(useAuthStore(pinia)).toMatchObject({ checked: true, user: boot.user })
+
+    const router = createRouter({
+      history: createMemoryHistory(),
+      routes: [
+        { path: '/lakes/:slug', component: LakeReadView },
+        { path: '/lakes/:slug/plan/:date', name: 'day-plan', component: { render: () => null } },
+      ],
+    })
+    await router.push('/lakes/x')
+    const wrapper = baseMount(LakeReadView, {
+      global: {
+        plugins: [pinia, router, [VueQueryPlugin, { queryClient }]],
+        stubs: { WhenVisible: true },
+      },
+    })
+    expect(wrapper.find('h1').text()).toBe('Served Pond')
+    // The angler's own units, from the same boot data.
+    expect(wrapper.text()).toContain('20.0 °C')
+    expect(fetch).not.toHaveBeenCalled()
+    queryClient.clear()
   })
 })
