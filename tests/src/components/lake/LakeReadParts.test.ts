@@ -1,6 +1,6 @@
 import { QueryClient, VueQueryPlugin } from '@tanstack/vue-query'
 import { flushPromises, mount as baseMount } from '@vue/test-utils'
-import { createPinia } from 'pinia'
+import { createPinia, type Pinia } from 'pinia'
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { createMemoryHistory, createRouter } from 'vue-router'
 import type { Polygon } from '@shared/geo/types'
@@ -226,13 +226,8 @@ describe('LakeOutline', () => {
 describe('LakeReadView', () => {
   afterEach(() => vi.unstubAllGlobals())
 
-  it('shows loading bars, then a failure with a retry, then the lake', async () => {
-    const answers = [
-      Response.json({ error: { code: 'internal', message: 'Try later.' } }, { status: 500 }),
-      Response.json(read({ lake: { ...read().lake, name: 'Quiet Pond' } })),
-    ]
-    const fetch = vi.fn(async () => answers.shift()!)
-    vi.stubGlobal('fetch', fetch)
+  /** The page at /lakes/x, on its own router, with the given stores and query cache. */
+  async function mountLakeRead(pinia: Pinia, cache: QueryClient) {
     const router = createRouter({
       history: createMemoryHistory(),
       routes: [
@@ -241,14 +236,26 @@ describe('LakeReadView', () => {
       ],
     })
     await router.push('/lakes/x')
-    const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } })
-    const wrapper = baseMount(LakeReadView, {
+    return baseMount(LakeReadView, {
       global: {
-        plugins: [createPinia(), router, [VueQueryPlugin, { queryClient }]],
+        plugins: [pinia, router, [VueQueryPlugin, { queryClient: cache }]],
         // The map and the charts load when scrolled to; they have tests of their own.
         stubs: { WhenVisible: true },
       },
     })
+  }
+
+  it('shows loading bars, then a failure with a retry, then the lake', async () => {
+    const answers = [
+      Response.json({ error: { code: 'internal', message: 'Try later.' } }, { status: 500 }),
+      Response.json(read({ lake: { ...read().lake, name: 'Quiet Pond' } })),
+    ]
+    const fetch = vi.fn(async () => answers.shift()!)
+    vi.stubGlobal('fetch', fetch)
+    const wrapper = await mountLakeRead(
+      createPinia(),
+      new QueryClient({ defaultOptions: { queries: { retry: false } } }),
+    )
     expect(wrapper.find('[role="status"]').attributes('aria-label')).toBe('Loading the lake')
 
     await flushPromises()
@@ -286,20 +293,7 @@ describe('LakeReadView', () => {
     expect(document.getElementById(PAGE_BOOT_ID)).toBeNull()
     expect(useAuthStore(pinia)).toMatchObject({ checked: true, user: boot.user })
 
-    const router = createRouter({
-      history: createMemoryHistory(),
-      routes: [
-        { path: '/lakes/:slug', component: LakeReadView },
-        { path: '/lakes/:slug/plan/:date', name: 'day-plan', component: { render: () => null } },
-      ],
-    })
-    await router.push('/lakes/x')
-    const wrapper = baseMount(LakeReadView, {
-      global: {
-        plugins: [pinia, router, [VueQueryPlugin, { queryClient }]],
-        stubs: { WhenVisible: true },
-      },
-    })
+    const wrapper = await mountLakeRead(pinia, queryClient)
     expect(wrapper.find('h1').text()).toBe('Served Pond')
     // The angler's own units, from the same boot data.
     expect(wrapper.text()).toContain('20.0 °C')
