@@ -63,7 +63,7 @@ async function lakeReadFor(path: string, conditions: ConditionsService) {
   const params = LakeSlugParams.safeParse({ slug: LAKE_READ_PATH.exec(path)?.[1] })
   if (!params.success) return undefined
   try {
-    return JSON.parse(await conditions.readJson(params.data.slug)) as LakeRead
+    return JSON.parse((await conditions.readAnswer(params.data.slug)).body.toString()) as LakeRead
   } catch (err) {
     // The page then asks itself, and shows the API's answer for a lake that is not there.
     if (err instanceof HttpError && err.status === 404) return undefined

@@ -57,6 +57,17 @@ describe('GET /api/lakes/:slug/read', () => {
     expect(read.cautions.at(-1)!.kind).toBe('authority')
   })
 
+  it('answers 304 to a client that already holds this read (RFC 9110, If-None-Match)', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'etag@example.test')
+    const first = await angler.get('/api/lakes/quillmere/read').expect(200)
+    expect(first.headers.etag).toMatch(/^W\/"/)
+    await angler
+      .get('/api/lakes/quillmere/read')
+      .set('if-none-match', first.headers.etag!)
+      .expect(304)
+  })
+
   it('marks readings that are hours old as stale rather than current', async () => {
     const app = testApp(ctx.db)
     const angler = await signedInAgent(app, ctx.db, 'late@example.test')

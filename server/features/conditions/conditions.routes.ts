@@ -2,6 +2,7 @@ import { Router } from 'express'
 import { DayPlanParams } from '../../../shared/schemas/day-plan'
 import { LakeSlugParams } from '../../../shared/schemas/lake-read'
 import { currentUser, requireSignIn } from '../../http/access'
+import { sendPrepared } from '../../http/prepared-json'
 import { input, validate } from '../../http/validate'
 import type { ConditionsService } from './conditions.service'
 
@@ -13,7 +14,7 @@ export function conditionsRoutes(conditions: ConditionsService): Router {
     requireSignIn,
     validate({ params: LakeSlugParams }),
     async (req, res) => {
-      res.type('json').send(await conditions.readJson(input(LakeSlugParams, req.params).slug))
+      sendPrepared(res, await conditions.readAnswer(input(LakeSlugParams, req.params).slug))
     },
   )
   router.get(
@@ -22,7 +23,7 @@ export function conditionsRoutes(conditions: ConditionsService): Router {
     validate({ params: DayPlanParams }),
     async (req, res) => {
       const { slug, date } = input(DayPlanParams, req.params)
-      res.type('json').send(await conditions.planJson(currentUser(req).id, slug, date))
+      sendPrepared(res, await conditions.planAnswer(currentUser(req).id, slug, date))
     },
   )
   return router

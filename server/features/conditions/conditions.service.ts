@@ -5,6 +5,7 @@ import { addDays, localDate, localDayBounds, zonedMidnight } from '../../../shar
 import { NoticedCache, type Changes } from '../../db/changes'
 import type { Db } from '../../db/index'
 import { HttpError } from '../../http/errors'
+import { prepareJson, type PreparedJson } from '../../http/prepared-json'
 import { lakeReadRepo, type LakeRow } from '../lakes/lake-read.repo'
 import {
   flagsHoldUntil,
@@ -96,16 +97,20 @@ export function conditionsService(deps: {
     return (read && missingForPlan(read)) ?? 'The forecast does not reach this date yet.'
   }
 
-  /** The Day plan for an angler, lake and date, built from the cache the ingest jobs refresh. */
+  /**
+   * The Day plan for an angler, lake and date, built from the cache the ingest jobs refresh, with
+   * the window in which its date can be planned.
+   */
   async function plan(
     userId: string,
     slug: string,
     date: string,
     now: Date,
-  ): Promise<DayPlanResponse> {
+  ): Promise<{ window: [number, number]; response: DayPlanResponse }> {
     let view = await repo.planView(slug, date, userId)
     if (!view) throw new HttpError(404, 'not_found', 'No such lake.')
-    assertPlannable(plannableFrom(date, view.time_zone), now)
+    const window = plannableFrom(date, view.time_zone)
+    assertPlannable(window, now)
     if (!view.has_read) {
       // A lake no ingest has reached yet is read now, and cached like any other.
       await refreshLake(await repo.lake(view.id), now)
@@ -113,7 +118,7 @@ export function conditionsService(deps: {
     }
     const banks = view.banks.map((b) => ({ ...b, depthM: b.depthM ?? undefined }))
     const ranked = view.day ? planForBanks(view.day, banks) : null
-    return {
+    const response: DayPlanResponse = {
       lake: { slug: view.slug, name: view.name, timeZone: view.time_zone },
       date,
       dates: view.dates,
@@ -122,18 +127,19 @@ export function conditionsService(deps: {
       unavailable: ranked ? null : await whyNoPlan(slug),
       plan: ranked,
     }
+    return { window, response }
   }
 
   // Answers as sent, dropped on a change notice about what they were made from.
   const refreshed = new Set(['lakes', 'lake_reads', 'lake_days'])
-  const readRows = new NoticedCache<{ row: Awaited<ReturnType<ConditionsRepo['readBySlug']>> }>(
+  const readRows = new NoticedCache<{
+    row: Awaited<ReturnType<ConditionsRepo['readBySlug']>>
+    /** The stored read, ready to send while its stale flags hold. */
+    answer: PreparedJson | null
+  }>(changes, { max: 1_000 }, (change, kept) => refreshed.has(change.table) && kept.clear())
+  const plans = new NoticedCache<{ window: [number, number]; answer: PreparedJson }>(
     changes,
-    { max: 1_000 },
-    (change, kept) => refreshed.has(change.table) && kept.clear(),
-  )
-  const plans = new NoticedCache<{ window: [number, number]; json: string }>(
-    changes,
-    { maxSize: 32 * 2 ** 20, sizeCalculation: (kept) => kept.json.length },
+    { maxSize: 32 * 2 ** 20, sizeCalculation: (kept) => kept.answer.body.length },
     (change, kept) => {
       if (refreshed.has(change.table)) kept.clear()
       // Keys start with the angler's id: a bank notice names its angler.
@@ -156,30 +162,39 @@ export function conditionsService(deps: {
     },
 
     /**
-     * The Lake read as JSON text. While its stale flags still hold it goes out exactly as stored;
+     * The Lake read, ready to send. While its stale flags still hold it goes out exactly as stored;
      * after that it is re-judged against the clock.
      */
-    async readJson(slug: string, now = new Date()): Promise<string> {
-      const { row } = await readRows.get(slug, async () => ({ row: await repo.readBySlug(slug) }))
+    async readAnswer(slug: string, now = new Date()): Promise<PreparedJson> {
+      const { row, answer } = await readRows.get(slug, async () => {
+        const found = await repo.readBySlug(slug)
+        return { row: found, answer: found?.text ? prepareJson(found.text) : null }
+      })
       if (!row) throw new HttpError(404, 'not_found', 'No such lake.')
-      if (row.text === null) return JSON.stringify(await refreshLake(await repo.lake(row.id), now))
-      if (!row.holdUntil || now < row.holdUntil) return row.text
-      return JSON.stringify(withStaleFlags(JSON.parse(row.text) as LakeRead, now))
+      if (!answer)
+        return prepareJson(JSON.stringify(await refreshLake(await repo.lake(row.id), now)))
+      if (!row.holdUntil || now < row.holdUntil) return answer
+      return prepareJson(JSON.stringify(withStaleFlags(JSON.parse(row.text!) as LakeRead, now)))
     },
 
     /**
-     * The Day plan as JSON text: the lake's cached day with this angler's banks ranked in it. With
-     * change notices live it is made once per angler, lake and date, and again after an ingest
-     * refreshes the lake or the angler edits a bank.
+     * The Day plan, ready to send: the lake's cached day with this angler's banks ranked in it.
+     * With change notices live it is made once per angler, lake and date, and again after an
+     * ingest refreshes the lake or the angler edits a bank.
      */
-    async planJson(userId: string, slug: string, date: string, now = new Date()): Promise<string> {
+    async planAnswer(
+      userId: string,
+      slug: string,
+      date: string,
+      now = new Date(),
+    ): Promise<PreparedJson> {
       const kept = await plans.get(`${userId} ${slug} ${date}`, async () => {
-        const made = await plan(userId, slug, date, now)
-        return { window: plannableFrom(date, made.lake.timeZone), json: JSON.stringify(made) }
+        const { window, response } = await plan(userId, slug, date, now)
+        return { window, answer: prepareJson(JSON.stringify(response)) }
       })
       // A kept plan's date may have left the window since (midnight passed).
       assertPlannable(kept.window, now)
-      return kept.json
+      return kept.answer
     },
   }
 }
