@@ -177,6 +177,16 @@ describe('GET /api/lakes/:slug/plan/:date', () => {
     for (const w of theirs.plan!.windows) expect(w.banks).toEqual([])
   })
 
+  it('refreshes one lake from two places at once without either failing', async () => {
+    // An ingest job and a desk edit (or two first views) can replace a lake's days together.
+    const conditions = conditionsFor(ctx.db)
+    const { id } = await lakeRow('quillmere')
+    for (let i = 0; i < 3; i++)
+      await Promise.all([conditions.refresh(id, feed.now()), conditions.refresh(id, feed.now())])
+    const days = await ctx.db.select().from(lakeDays).where(eq(lakeDays.lakeId, id))
+    expect(days.length).toBeGreaterThan(0)
+  })
+
   it('reads the cache: with readings and weather gone, plan and read are unchanged until the next refresh', async () => {
     const app = testApp(ctx.db)
     const angler = await signedInAgent(app, ctx.db, 'cached@example.test')

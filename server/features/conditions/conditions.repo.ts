@@ -92,6 +92,13 @@ export function conditionsRepo(db: Db) {
       computedAt: Date,
     ) {
       await db.transaction(async (tx) => {
+        // One replacement of a lake's days at a time (an ingest and a desk edit may overlap):
+        // without the lock, both delete, then the second insert meets the first one's rows.
+        await tx
+          .select({ id: lakes.id })
+          .from(lakes)
+          .where(eq(lakes.id, lakeId))
+          .for('no key update')
         await tx.delete(lakeDays).where(and(eq(lakeDays.lakeId, lakeId), gte(lakeDays.date, today)))
         await tx.delete(lakeDays).where(
           and(
