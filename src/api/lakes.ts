@@ -28,3 +28,9 @@ export const lakeReadQuery = (slug: string) => ({
   staleTime: 60_000,
   refetchInterval: 5 * 60_000,
 })
+
+/** The Day plan's query, shared by the page and the router, which starts it alongside the page's code. */
+export const dayPlanQuery = (slug: string, date: string) => ({
+  queryKey: ['day-plan', slug, date],
+  queryFn: () => lakesApi.plan(slug, date),
+})

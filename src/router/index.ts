@@ -1,5 +1,5 @@
 import { createRouter, createWebHistory, type RouteLocationNormalized } from 'vue-router'
-import { lakeReadQuery } from '@/api/lakes'
+import { dayPlanQuery, lakeReadQuery } from '@/api/lakes'
 import { settingsQuery } from '@/api/settings'
 import { queryClient } from '@/queryClient'
 import type { Role } from '@shared/schemas/auth'
@@ -68,7 +68,14 @@ const router = createRouter({
       path: '/lakes/:slug/plan/:date',
       name: 'day-plan',
       component: () => import('@/views/DayPlanView.vue'),
-      meta: { role: 'angler', title: 'Day plan' },
+      meta: {
+        role: 'angler',
+        title: 'Day plan',
+        prefetch: (to) =>
+          void queryClient.prefetchQuery(
+            dayPlanQuery(String(to.params.slug), String(to.params.date)),
+          ),
+      },
     },
     {
       path: '/settings',
