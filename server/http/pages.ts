@@ -29,6 +29,16 @@ interface PageDeps {
 export function pageRoutes(deps: PageDeps): Router {
   const shell = readFileSync(join(deps.staticDir, 'index.html'), 'utf8')
   const router = Router()
+  // Built assets carry a hash of their content in their names: a browser may keep them for good.
+  // One that is not there (a page from an older build) is a 404, not index.html.
+  router.use(
+    '/assets',
+    express.static(join(deps.staticDir, 'assets'), {
+      immutable: true,
+      maxAge: '1y',
+      fallthrough: false,
+    }),
+  )
   router.use(express.static(deps.staticDir, { index: false, maxAge: '1h' }))
   router.get('/{*splat}', cookieParser(), async (req, res) => {
     const boot = await bootFor(req, deps).catch((err: unknown) => {

@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { eq } from 'drizzle-orm'
@@ -19,6 +19,8 @@ const staticDir = mkdtempSync(join(tmpdir(), 'chopline-pages-'))
 beforeAll(async () => {
   ctx = await createTestDb()
   await seedDemo(ctx.db)
+  mkdirSync(join(staticDir, 'assets'))
+  writeFileSync(join(staticDir, 'assets', 'index-Ab12Cd34.js'), 'export {}')
   writeFileSync(
     join(staticDir, 'index.html'),
     '<!doctype html><html><head><title>Chopline</title></head><body><div id="app"></div></body></html>',
@@ -70,6 +72,12 @@ describe('pages served with their boot data', () => {
       expect(boot.user?.email).toBe('boot-other@example.test')
       expect(boot.lakeRead).toBeUndefined()
     }
+  })
+
+  it('lets browsers keep the hashed build assets for good (RFC 8246, immutable)', async () => {
+    const res = await request(app).get('/assets/index-Ab12Cd34.js').expect(200)
+    expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable')
+    await request(app).get('/assets/index-OldBuild.js').expect(404)
   })
 
   it('still serves the page, without its data, when the database is down', async () => {
