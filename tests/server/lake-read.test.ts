@@ -68,6 +68,19 @@ describe('GET /api/lakes/:slug/read', () => {
       .expect(304)
   })
 
+  it('sends a phone that takes gzip the read gzipped, with the same ETag (RFC 9110, Content-Encoding)', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'gzip@example.test')
+    const plain = await angler.get('/api/lakes/quillmere/read').set('accept-encoding', 'identity')
+    expect(plain.headers['content-encoding']).toBeUndefined()
+    const zipped = await angler.get('/api/lakes/quillmere/read').set('accept-encoding', 'gzip, br')
+    expect(zipped.headers['content-encoding']).toBe('gzip')
+    expect(zipped.headers.vary).toMatch(/Accept-Encoding/i)
+    expect(zipped.headers.etag).toBe(plain.headers.etag)
+    // supertest has unzipped it: the same read.
+    expect(zipped.body).toEqual(plain.body)
+  })
+
   it('marks readings that are hours old as stale rather than current', async () => {
     const app = testApp(ctx.db)
     const angler = await signedInAgent(app, ctx.db, 'late@example.test')
