@@ -181,6 +181,9 @@ export async function startCluster(opts: ClusterOptions): Promise<Cluster> {
   await psql(
     `${hasRole ? 'ALTER' : 'CREATE'} ROLE ${ident(opts.user)} LOGIN CREATEDB PASSWORD ${literal(opts.password)}`,
   )
+  // Tests drop their copy of the database WITH (FORCE) when done, which must also stop an
+  // autovacuum worker that happens to be in it; PostgreSQL lets pg_signal_backend do that.
+  if (!opts.durable) await psql(`GRANT pg_signal_backend TO ${ident(opts.user)}`)
   const hasDb = (
     await psql(`SELECT 1 FROM pg_database WHERE datname = ${literal(opts.database)}`)
   ).stdout.trim()
