@@ -53,7 +53,8 @@ export function pageRoutes(deps: PageDeps): Router {
     res
       .type('html')
       .set({ 'cache-control': 'private, no-store', vary: 'cookie' })
-      .send(shell.replace('</body>', `${element}</body>`))
+      // A function, not a string: '$&' or "$'" in the data must not be read as patterns.
+      .send(shell.replace('</body>', () => `${element}</body>`))
   })
   return router
 }

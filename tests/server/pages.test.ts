@@ -99,8 +99,8 @@ describe('pages served with their boot data', () => {
     }
   })
 
-  it('keeps text in the data from closing the element (OWASP XSS Prevention Cheat Sheet)', async () => {
-    const name = '</script><script>alert(1)</script><!--'
+  it('writes text in the data as it is: it cannot close the element (OWASP XSS Prevention Cheat Sheet) nor act as a replacement pattern', async () => {
+    const name = "</script><script>alert(1)</script><!-- $' $&"
     const [lake] = await ctx.db
       .update(lakes)
       .set({ name })
