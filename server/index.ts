@@ -5,6 +5,7 @@ import { watchChanges } from './db/changes'
 import { createDb } from './db/index'
 import { migrateDb } from './db/migrate'
 import { loadEnv } from './env'
+import { createAppServer } from './http/server'
 import { createLogger } from './logger'
 import { smtpMailer } from './features/mail/mailer'
 import { startScheduler } from '../jobs/scheduler'
@@ -27,8 +28,10 @@ export function serve(opts: ServeOptions): Promise<Server> {
   const changes = opts.changes ?? watchChanges(opts.db.$client.options, opts.logger)
   const app = createApp({ ...opts, changes })
   return new Promise((resolve, reject) => {
-    const server = app.listen(opts.port, opts.host, (err?: Error) => {
-      if (err) return reject(err)
+    const server = createAppServer(app)
+    server.once('error', reject)
+    server.listen(opts.port, opts.host, () => {
+      server.off('error', reject)
       resolve(server)
     })
     let closing = false
