@@ -131,6 +131,23 @@ describe('answers kept in memory, dropped by change notices', () => {
     expect(before.asOf).not.toBe(later.toISOString())
   })
 
+  it('re-judges a kept read once when one of its values turns stale, not on every view', async () => {
+    const conditions = conditionsFor(ctx.db, one)
+    const stored = LakeRead.parse(
+      JSON.parse((await conditions.readAnswer('quillmere')).body.toString()),
+    )
+    expect(stored.waterTemp!.stale).toBe(false)
+    // Water temperature is read every 15 minutes and counts as stale after two hours.
+    const later = new Date(Date.parse(stored.waterTemp!.at) + 2 * 3_600_000 + 60_000)
+    const judged = await conditions.readAnswer('quillmere', later)
+    const read = LakeRead.parse(JSON.parse(judged.body.toString()))
+    expect(read.waterTemp).toEqual({ ...stored.waterTemp, stale: true })
+    // A minute on nothing else has turned: the same answer, not a new one.
+    expect(await conditions.readAnswer('quillmere', new Date(later.getTime() + 60_000))).toBe(
+      judged,
+    )
+  })
+
   it('answers from the database while notices are down', async () => {
     const cookie = await signIn('offline@example.test')
     const down = watch()

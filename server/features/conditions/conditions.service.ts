@@ -134,8 +134,10 @@ export function conditionsService(deps: {
   const refreshed = new Set(['lakes', 'lake_reads', 'lake_days'])
   const readRows = new NoticedCache<{
     row: Awaited<ReturnType<ConditionsRepo['readBySlug']>>
-    /** The stored read, ready to send while its stale flags hold. */
+    /** The read ready to send: as stored, then as last re-judged against the clock. */
     answer: PreparedJson | null
+    /** Until when the answer's stale flags hold; null until the next refresh. */
+    holdUntil: Date | null
   }>(changes, { max: 1_000 }, (change, kept) => refreshed.has(change.table) && kept.clear())
   const plans = new NoticedCache<{ window: [number, number]; answer: PreparedJson }>(
     changes,
@@ -163,18 +165,28 @@ export function conditionsService(deps: {
 
     /**
      * The Lake read, ready to send. While its stale flags still hold it goes out exactly as stored;
-     * after that it is re-judged against the clock.
+     * when a value turns stale it is re-judged against the clock, and that answer is kept until
+     * the next value does.
      */
     async readAnswer(slug: string, now = new Date()): Promise<PreparedJson> {
-      const { row, answer } = await readRows.get(slug, async () => {
+      const kept = await readRows.get(slug, async () => {
         const found = await repo.readBySlug(slug)
-        return { row: found, answer: found?.text ? prepareJson(found.text) : null }
+        return {
+          row: found,
+          answer: found?.text ? prepareJson(found.text) : null,
+          holdUntil: found?.holdUntil ?? null,
+        }
       })
+      const { row } = kept
       if (!row) throw new HttpError(404, 'not_found', 'No such lake.')
-      if (!answer)
+      if (!kept.answer)
         return prepareJson(JSON.stringify(await refreshLake(await repo.lake(row.id), now)))
-      if (!row.holdUntil || now < row.holdUntil) return answer
-      return prepareJson(JSON.stringify(withStaleFlags(JSON.parse(row.text!) as LakeRead, now)))
+      if (kept.holdUntil && now >= kept.holdUntil) {
+        const read = withStaleFlags(JSON.parse(row.text!) as LakeRead, now)
+        kept.answer = prepareJson(JSON.stringify(read))
+        kept.holdUntil = flagsHoldUntil(read, now)
+      }
+      return kept.answer
     },
 
     /**

@@ -83,15 +83,15 @@ export function withStaleFlags(read: LakeRead, now: Date): LakeRead {
 }
 
 /**
- * Until when a read's stale flags all hold: the first moment one of its fresh values turns stale;
- * null when none is fresh, as nothing can then turn stale before the next refresh.
+ * Until when a read's stale flags all hold, judged at `judgedAt` (by default when the read was
+ * made): the first later moment one of its fresh values turns stale; null when none is fresh, as
+ * nothing can then turn stale before the next refresh.
  */
-export function flagsHoldUntil(read: LakeRead): Date | null {
-  const asOf = Date.parse(read.asOf)
+export function flagsHoldUntil(read: LakeRead, judgedAt = new Date(read.asOf)): Date | null {
   const flips = GAUGE_KEYS.flatMap((key) => {
     const value = read[key]
     const flip = value ? Date.parse(value.at) + staleAfterMs(parameterOf(read, key)) : NaN
-    return flip > asOf ? [flip] : []
+    return flip > judgedAt.getTime() ? [flip] : []
   })
   return flips.length ? new Date(Math.min(...flips)) : null
 }
