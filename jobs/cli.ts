@@ -22,8 +22,8 @@ export function runFromCli(moduleUrl: string, job: (ctx: JobContext) => Promise<
   if (!process.argv[1] || pathToFileURL(process.argv[1]).href !== moduleUrl) return
   const env = loadEnv()
   const { databaseUrl, feedUrl, smtpUrl, sessionSecret } = localConnection(env)
-  const db = createDb(databaseUrl, 4)
   const log = createLogger(env.LOG_LEVEL)
+  const db = createDb(databaseUrl, 4, log)
   const mailer = smtpMailer(smtpUrl, env.MAIL_FROM)
   job({ db, feedUrl, log, sessionSecret, mail: { mailer, origin: publicOrigin(env) } })
     .then((result) => log.info({ result }, 'job finished'))

@@ -74,7 +74,7 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
  * What `npm start` and `npm run dev` share: the private cluster under .data/ (unless DATABASE_URL
  * names another), migrations, demo data and the development session secret.
  */
-async function prepareLocalStack(env: Env): Promise<LocalStack> {
+async function prepareLocalStack(env: Env, logger: Logger): Promise<LocalStack> {
   if (env.NODE_ENV === 'production') {
     throw new Error(
       'npm start seeds demo sign-ins with a published password and refuses to run with NODE_ENV=production. ' +
@@ -92,7 +92,7 @@ async function prepareLocalStack(env: Env): Promise<LocalStack> {
     })
     url = cluster.url()
   }
-  const db = createDb(url)
+  const db = createDb(url, 10, logger)
   await migrateDb(db)
   await seedDemo(db)
   return { db, cluster, sessionSecret: env.SESSION_SECRET ?? localSecret('session-secret', 48) }
@@ -109,8 +109,8 @@ export async function serveLocal(
 ): Promise<void> {
   const env = loadEnv()
   try {
-    const stack = await prepareLocalStack(env)
     const logger = createLogger(env.LOG_LEVEL)
+    const stack = await prepareLocalStack(env, logger)
     const { close, ...client } = await serving(env)
     const services = await startServicesAndJobs(env, stack.db, logger, stack.sessionSecret)
     await serve({

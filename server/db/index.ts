@@ -1,10 +1,19 @@
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
+import type { Logger } from '../logger'
 import * as schema from './schema/index'
 
 export type Db = NodePgDatabase<typeof schema> & { $client: pg.Pool }
 
-export function createDb(url: string, max = 10): Db {
+/**
+ * Drizzle over a pool of at most `max` connections. When PostgreSQL ends an idle connection (a
+ * restart, an administrator, a timeout) the pool drops it and opens another on the next query;
+ * without the listener below, that connection's error would end the process.
+ */
+export function createDb(url: string, max = 10, log?: Pick<Logger, 'warn'>): Db {
   const pool = new pg.Pool({ connectionString: url, max })
+  pool.on('error', (err) =>
+    log?.warn({ err }, 'an idle database connection was closed; the pool will open another'),
+  )
   return drizzle({ client: pool, schema, casing: 'snake_case' })
 }

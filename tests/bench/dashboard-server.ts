@@ -5,9 +5,10 @@ import { createLogger } from '../../server/logger'
 import { smtpMailer } from '../../server/features/mail/mailer'
 
 /** The app as `npm start` serves it, in a process of its own: prints its URL, runs until killed. */
+const logger = createLogger('warn')
 const server = await serve({
-  db: createDb(process.argv[2]!),
-  logger: createLogger('warn'),
+  db: createDb(process.argv[2]!, 10, logger),
+  logger,
   host: '127.0.0.1',
   port: 0,
   sessionSecret: 'bench-secret-that-is-long-enough-for-hs256-keys',

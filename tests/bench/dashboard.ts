@@ -76,7 +76,13 @@ try {
       stdio: ['ignore', 'pipe', 'inherit'],
     },
   )
-  stop.push(() => server.kill())
+  // Its pool is ended before the database stops: it shuts down on SIGTERM, then exits.
+  stop.push(async () => {
+    if (server.exitCode !== null || server.signalCode !== null) return
+    const exited = once(server, 'exit')
+    server.kill()
+    await exited
+  })
   const base = ((await once(server.stdout!, 'data')) as [Buffer])[0].toString().trim()
   const rssMb = () =>
     Number(/VmRSS:\s+(\d+)/.exec(readFileSync(`/proc/${server.pid}/status`, 'utf8'))![1]) / 1024

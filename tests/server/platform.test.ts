@@ -4,7 +4,7 @@ import { join } from 'node:path'
 import { sql } from 'drizzle-orm'
 import pg from 'pg'
 import request from 'supertest'
-import { afterAll, describe, expect, inject, it } from 'vitest'
+import { afterAll, describe, expect, inject, it, vi } from 'vitest'
 import { createDb } from '../../server/db/index'
 import { migrateDb } from '../../server/db/migrate'
 import { seedDemo } from '../../server/db/seed/index'
@@ -44,6 +44,17 @@ describe('database platform', () => {
     await seedDemo(db)
     expect(await db.$count(users)).toBe(3)
     expect(await db.$count(lakes)).toBe(3)
+  })
+
+  it('survives PostgreSQL ending an idle connection: the pool opens another', async () => {
+    const warnings: unknown[] = []
+    const pool = createDb(url, 1, { warn: (obj: unknown) => warnings.push(obj) }).$client
+    const { rows } = await pool.query<{ pid: number }>('select pg_backend_pid() as pid')
+    // As a restart or an administrator would: the connection now sits idle in the pool.
+    await db.execute(sql`select pg_terminate_backend(${rows[0]!.pid})`)
+    await vi.waitFor(() => expect(warnings).toHaveLength(1))
+    expect((await pool.query<{ one: number }>('select 1 as one')).rows[0]!.one).toBe(1)
+    await pool.end()
   })
 
   it('reports database reachability on /api/health', async () => {
