@@ -101,6 +101,8 @@ export function watchChanges(config: pg.ClientConfig, log: Logger, retryMs = 1_0
  */
 export class NoticedCache<V extends object> {
   private readonly kept: LRUCache<string, V>
+  /** Loads under way, with the notice version each began at. */
+  private readonly loading = new Map<string, { version: number; value: Promise<V> }>()
 
   constructor(
     private readonly changes: Changes | undefined,
@@ -111,15 +113,28 @@ export class NoticedCache<V extends object> {
     changes?.subscribe((change) => (change ? forget(change, this.kept) : this.kept.clear()))
   }
 
+  /**
+   * The kept answer, or one load shared by every caller that asks while it runs (after a refresh
+   * empties the cache, a burst of views makes one answer, not one each). A caller that asks after
+   * a notice starts a load of its own, as the running one may have read what the notice changed.
+   */
   async get(key: string, load: () => Promise<V>): Promise<V> {
     const changes = this.changes
     if (!changes?.live) return load()
     const kept = this.kept.get(key)
     if (kept) return kept
     const version = changes.version
-    const value = await load()
-    // A notice that came while loading may be about what was just read: keep nothing then.
-    if (changes.live && changes.version === version) this.kept.set(key, value)
-    return value
+    const running = this.loading.get(key)
+    if (running?.version === version) return running.value
+    const value = load()
+    this.loading.set(key, { version, value })
+    try {
+      const loaded = await value
+      // A notice that came while loading may be about what was just read: keep nothing then.
+      if (changes.live && changes.version === version) this.kept.set(key, loaded)
+      return loaded
+    } finally {
+      if (this.loading.get(key)?.value === value) this.loading.delete(key)
+    }
   }
 }

@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import { pino } from 'pino'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
@@ -6,7 +6,7 @@ import type { Position } from '../../shared/geo/types'
 import { DayPlanResponse } from '../../shared/schemas/day-plan'
 import { LakeRead } from '../../shared/schemas/lake-read'
 import { localDate } from '../../shared/time'
-import { watchChanges, type Changes } from '../../server/db/changes'
+import { NoticedCache, watchChanges, type Changes } from '../../server/db/changes'
 import { lakes, users } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
@@ -146,6 +146,31 @@ describe('answers kept in memory, dropped by change notices', () => {
     expect(await conditions.readAnswer('quillmere', new Date(later.getTime() + 60_000))).toBe(
       judged,
     )
+  })
+
+  it('makes one answer for views that ask at once, and a fresh one for a view after a notice', async () => {
+    const cache = new NoticedCache<{ load: number }>(one, { max: 10 }, (_, kept) => kept.clear())
+    let loads = 0
+    let open!: () => void
+    const gate = new Promise<void>((resolve) => (open = resolve))
+    const load = async () => {
+      const n = ++loads
+      await gate
+      return { load: n }
+    }
+    const [a, b] = [cache.get('quillmere', load), cache.get('quillmere', load)]
+    // A notice while that load runs: it may have read the row before the change.
+    const seen = one.version
+    await ctx.db.execute(sql`update lakes set name = name where slug = 'vessandra'`)
+    await vi.waitFor(() => expect(one.version).toBeGreaterThan(seen))
+    const c = cache.get('quillmere', load)
+    open()
+    expect(await a).toEqual({ load: 1 })
+    expect(await b).toBe(await a)
+    expect(await c).toEqual({ load: 2 })
+    // Only the load begun after the notice was kept.
+    expect(await cache.get('quillmere', load)).toBe(await c)
+    expect(loads).toBe(2)
   })
 
   it('answers from the database while notices are down', async () => {
