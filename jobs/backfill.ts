@@ -35,7 +35,7 @@ if (
   process.exit(2)
 }
 const { databaseUrl, feedUrl } = localConnection(env)
-const db = createDb(databaseUrl, 4)
+const db = createDb(databaseUrl, { max: 4 })
 const [lake] = await db.select().from(lakes).where(eq(lakes.slug, values.lake))
 if (!lake) {
   console.error(`No lake with slug "${values.lake}".`)

@@ -23,7 +23,7 @@ export function runFromCli(moduleUrl: string, job: (ctx: JobContext) => Promise<
   const env = loadEnv()
   const { databaseUrl, feedUrl, smtpUrl, sessionSecret } = localConnection(env)
   const log = createLogger(env.LOG_LEVEL)
-  const db = createDb(databaseUrl, 4, log)
+  const db = createDb(databaseUrl, { max: 4, log })
   const mailer = smtpMailer(smtpUrl, env.MAIL_FROM)
   job({ db, feedUrl, log, sessionSecret, mail: { mailer, origin: publicOrigin(env) } })
     .then((result) => log.info({ result }, 'job finished'))

@@ -64,7 +64,7 @@ async function main() {
     )
   }
   const logger = createLogger(env.LOG_LEVEL)
-  const db = createDb(DATABASE_URL, 10, logger)
+  const db = createDb(DATABASE_URL, { log: logger })
   await migrateDb(db)
   const mail = { mailer: smtpMailer(SMTP_URL, env.MAIL_FROM), origin: APP_ORIGIN }
   // Jobs run in every instance; each run takes a PostgreSQL lock, so one instance does the work.

@@ -92,7 +92,7 @@ async function prepareLocalStack(env: Env, logger: Logger): Promise<LocalStack> 
     })
     url = cluster.url()
   }
-  const db = createDb(url, 10, logger)
+  const db = createDb(url, { log: logger })
   await migrateDb(db)
   await seedDemo(db)
   return { db, cluster, sessionSecret: env.SESSION_SECRET ?? localSecret('session-secret', 48) }

@@ -5,12 +5,19 @@ import * as schema from './schema/index'
 
 export type Db = NodePgDatabase<typeof schema> & { $client: pg.Pool }
 
+export interface DbOptions {
+  /** Connections in the pool. */
+  max?: number
+  /** Told when PostgreSQL ends an idle connection. */
+  log?: Pick<Logger, 'warn'>
+}
+
 /**
- * Drizzle over a pool of at most `max` connections. When PostgreSQL ends an idle connection (a
- * restart, an administrator, a timeout) the pool drops it and opens another on the next query;
- * without the listener below, that connection's error would end the process.
+ * Drizzle over a pool. When PostgreSQL ends an idle connection (a restart, an administrator, a
+ * timeout) the pool drops it and opens another on the next query; without the listener below,
+ * that connection's error would end the process.
  */
-export function createDb(url: string, max = 10, log?: Pick<Logger, 'warn'>): Db {
+export function createDb(url: string, { max = 10, log }: DbOptions = {}): Db {
   const pool = new pg.Pool({ connectionString: url, max })
   pool.on('error', (err) =>
     log?.warn({ err }, 'an idle database connection was closed; the pool will open another'),

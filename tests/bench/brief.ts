@@ -41,7 +41,7 @@ const cluster = await startCluster({
   database: 'bench',
   durable: false,
 })
-const db = createDb(cluster.url(), 12)
+const db = createDb(cluster.url(), { max: 12 })
 const log = pino({ level: 'silent' })
 const linkKey = tokenKey('bench-secret-that-is-long-enough-for-hs256-keys')
 

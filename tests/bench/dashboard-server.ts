@@ -7,7 +7,7 @@ import { smtpMailer } from '../../server/features/mail/mailer'
 /** The app as `npm start` serves it, in a process of its own: prints its URL, runs until killed. */
 const logger = createLogger('warn')
 const server = await serve({
-  db: createDb(process.argv[2]!, 10, logger),
+  db: createDb(process.argv[2]!, { log: logger }),
   logger,
   host: '127.0.0.1',
   port: 0,

@@ -53,7 +53,7 @@ const cluster = await startCluster({
   database: 'bench',
   durable: false,
 })
-const db = createDb(cluster.url(), 4)
+const db = createDb(cluster.url(), { max: 4 })
 const stop: (() => Promise<unknown> | unknown)[] = []
 try {
   await migrateDb(db)

@@ -37,7 +37,7 @@ const cluster = await startCluster({
   database: 'bench',
   durable: false,
 })
-const db = createDb(cluster.url(), 12)
+const db = createDb(cluster.url(), { max: 12 })
 try {
   await migrateDb(db)
   await db.execute(sql`truncate lakes cascade`)

@@ -13,7 +13,7 @@ export async function createTestDb(): Promise<{ db: Db; url: string; drop: () =>
   await admin.query(`CREATE DATABASE "${name}" TEMPLATE "${template}"`)
   await admin.end()
   const url = new URL(`/${name}`, templateUrl).href
-  const db = createDb(url, 5)
+  const db = createDb(url, { max: 5 })
   return {
     db,
     url,
