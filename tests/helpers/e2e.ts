@@ -8,8 +8,8 @@ import { startWorld } from './world'
 
 /**
  * The demo data with `days` of Quillmere readings and the weather from the fake feed, as npm start
- * loads them, with the conditions cache refreshed; the built client served as npm start serves it (the same HTTP server),
- * sending mail to the local SMTP stand-in; and Chromium.
+ * loads them, with the conditions cache refreshed; the built client served as npm start serves it
+ * (the same HTTP server), sending mail to the local SMTP stand-in; and Chromium.
  */
 export async function startE2e(days: number) {
   const ctx = await startWorld(days)
