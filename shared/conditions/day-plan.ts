@@ -4,7 +4,15 @@ import type { LakeGeometry } from '../geo/types'
 import { HOUR_MS, localDayBounds, toInstant } from '../time'
 import { clarityClass, type ClarityClass } from './clarity'
 import { compassName, openWaterWaveM as openWaterWave, ROUGH_WAVE_M } from './exposure'
-import { cautions, type Caution } from './safety'
+import { frontPassage } from './weather'
+import {
+  cautions,
+  mergeCautions,
+  verdictOf,
+  worstOf,
+  type Caution,
+  type VerdictResult,
+} from './safety'
 import { rankBanks, type Bank, type RankedBank, type WindowWeather } from './ranking'
 import type { SeasonalPhase } from './season'
 import { skyDay, type SkyDay } from './sky'
@@ -20,6 +28,8 @@ export interface ForecastHour {
   relativeHumidityPct: number
   cloudCoverPct: number
   thunderstormProbabilityPct: number
+  /** Sea-level pressure, for telling a front; absent in forecasts without it. */
+  pressureHpa?: number
 }
 
 export type WindowId = 'dawn' | 'midday' | 'afternoon'
@@ -30,10 +40,27 @@ export const WINDOW_LABELS: Record<WindowId, string> = {
   afternoon: 'Afternoon to dusk',
 }
 
+/** The worst hour of a window, for safety: what its cautions and bank safety are judged on. */
+export interface WindowPeak {
+  /** Where the strongest wind comes from. */
+  windFromDeg: number
+  windMs: number
+  gustMs: number
+  thunderstormProbabilityPct: number
+  heatIndexC: number
+  /** Null where no hour is cold and windy enough for a wind chill. */
+  windChillC: number | null
+}
+
+/** A window's typical weather (means, for fishing) and its worst hour (for safety). */
 export interface WindowConditions extends WindowWeather {
   airC: number
   relativeHumidityPct: number
+  /** The highest chance in the window. */
   thunderstormProbabilityPct: number
+  peak: WindowPeak
+  /** Why a cold front has just passed (pressure up after a fall, wind veered); null when none. */
+  coldFront: string | null
 }
 
 /** One window of a lake's day, before any angler's banks are ranked in it. */
@@ -44,7 +71,7 @@ export interface WindowDay {
   end: string
   /** Null when the forecast does not reach this window. */
   weather: WindowConditions | null
-  /** Wave height where the wind has the longest run, for the open-water caution. */
+  /** Wave height where the wind has the longest run, in the window's worst hour. */
   openWaterWaveM: number
 }
 
@@ -59,13 +86,20 @@ export interface LakeDay {
 }
 
 export interface WindowPlan extends WindowDay {
+  /** Empty on a no-go window: no bank is offered as a place to fish. */
   banks: RankedBank[]
+  /** Empty on a no-go window. */
   tackle: TackleCall[]
   cautions: Caution[]
+  /** Null when the forecast does not reach the window. */
+  verdict: VerdictResult | null
 }
 
 export interface DayPlan extends Omit<LakeDay, 'windows'> {
   windows: WindowPlan[]
+  /** The day's cautions, one per hazard, each naming the windows it reaches. */
+  cautions: Caution[]
+  verdict: VerdictResult
 }
 
 /** Our cloud-cover classes: under 30 % sun, under 70 % partly, else overcast. */
@@ -103,20 +137,44 @@ function meanDirection(hours: ForecastHour[]): number {
   return ((Math.atan2(x, y) * 180) / Math.PI + 360) % 360
 }
 
-function summarise(hours: ForecastHour[], lowLight: boolean): WindowConditions | null {
+function summarise(
+  hours: TimedHour[],
+  lowLight: boolean,
+  before: TimedHour[],
+): WindowConditions | null {
   if (!hours.length) return null
   const avg = (f: (h: ForecastHour) => number) => hours.reduce((s, h) => s + f(h), 0) / hours.length
+  const worst = worstOf(hours)
+  const strongest = hours.reduce((a, b) => (b.windMs > a.windMs ? b : a))
+  const withPressure = before.filter((h) => h.pressureHpa !== undefined)
+  const front =
+    withPressure.length === before.length
+      ? frontPassage(withPressure.map((h) => ({ ...h, hPa: h.pressureHpa! })))
+      : null
   return {
     windFromDeg: meanDirection(hours),
     windMs: avg((h) => h.windMs),
-    gustMs: Math.max(...hours.map((h) => h.gustMs)),
+    gustMs: worst.gustMs!,
     sky: skyFromCloud(avg((h) => h.cloudCoverPct)),
     lowLight,
     airC: avg((h) => h.airC),
-    thunderstormProbabilityPct: Math.max(...hours.map((h) => h.thunderstormProbabilityPct)),
+    thunderstormProbabilityPct: worst.thunderstormProbabilityPct!,
     relativeHumidityPct: avg((h) => h.relativeHumidityPct),
+    peak: {
+      windFromDeg: strongest.windFromDeg,
+      windMs: strongest.windMs,
+      gustMs: worst.gustMs!,
+      thunderstormProbabilityPct: worst.thunderstormProbabilityPct!,
+      heatIndexC: worst.heatIndexC!,
+      windChillC: worst.windChillC ?? null,
+    },
+    coldFront: front?.coldFrontPassed ? front.reason : null,
   }
 }
+
+type TimedHour = ForecastHour & { t: number }
+/** A front is read from the day before a window up to its start. */
+const FRONT_LOOKBACK_MS = 24 * HOUR_MS
 
 interface LakeDayInput {
   lake: LakeGeometry
@@ -143,16 +201,20 @@ export function lakeDay(input: LakeDayInput): LakeDay {
   const windows = windowBounds(sky, input.date, input.timeZone).map(
     ([id, start, end]): WindowDay => {
       const inside = hours.filter((h) => h.t >= start.getTime() && h.t < end.getTime())
-      const weather = summarise(inside, id !== 'midday')
+      const before = hours.filter(
+        (h) => h.t >= start.getTime() - FRONT_LOOKBACK_MS && h.t <= start.getTime(),
+      )
       return {
         id,
         label: WINDOW_LABELS[id],
         start: start.toISOString(),
         end: end.toISOString(),
-        weather,
-        openWaterWaveM: weather
-          ? openWaterWave(input.lake, weather.windFromDeg, weather.windMs)
-          : 0,
+        weather: summarise(inside, id !== 'midday', before),
+        // The worst hour's waves: two hours of a blow raise them however calm the rest.
+        openWaterWaveM: Math.max(
+          0,
+          ...inside.map((h) => openWaterWave(input.lake, h.windFromDeg, h.windMs)),
+        ),
       }
     },
   )
@@ -168,7 +230,8 @@ export function lakeDay(input: LakeDayInput): LakeDay {
 
 /**
  * An angler's plan from a lake's day: in each window the saved banks ranked, the tackle calls for
- * the best bank (or the lake's usual cover when none are saved), and cautions. Banks carry their
+ * the best bank (or the lake's usual cover when none are saved), cautions from the window's worst
+ * hour and its verdict. A no-go window ranks no banks and calls no tackle. Banks carry their
  * stored exposure tables, so this is arithmetic only; `lake` is needed only for banks without one.
  */
 export function planForBanks(
@@ -179,8 +242,21 @@ export function planForBanks(
   const conditions = { clarity: day.clarity, waterC: day.waterC, phase: day.phase }
   const windows = day.windows.map((w): WindowPlan => {
     const { weather } = w
-    if (!weather) return { ...w, banks: [], tackle: [], cautions: [] }
+    if (!weather) return { ...w, banks: [], tackle: [], cautions: [], verdict: null }
     const ranked = rankBanks({ lake: opts.lake, banks, window: weather, conditions })
+    const { peak } = weather
+    const windowCautions = cautions({
+      windMs: peak.windMs,
+      gustMs: peak.gustMs,
+      waveHeightM: Math.max(w.openWaterWaveM, ...ranked.map((b) => b.peakWaveHeightM)),
+      thunderstormProbabilityPct: peak.thunderstormProbabilityPct,
+      waterC: day.waterC,
+      heatIndexC: peak.heatIndexC,
+      windChillC: peak.windChillC ?? undefined,
+    })
+    const verdict = verdictOf(windowCautions)
+    if (verdict.verdict === 'no-go')
+      return { ...w, banks: [], tackle: [], cautions: windowCautions, verdict }
     const best = banks.find((b) => b.id === ranked[0]?.id)
     const tackle = tackleCalls({
       ...conditions,
@@ -189,18 +265,10 @@ export function planForBanks(
       cover: best?.cover ?? opts.lakeCover ?? ['open'],
       depthM: best?.depthM,
     })
-    const windowCautions = cautions({
-      windMs: weather.windMs,
-      gustMs: weather.gustMs,
-      waveHeightM: Math.max(w.openWaterWaveM, ...ranked.map((b) => b.exposure.waveHeightM)),
-      thunderstormProbabilityPct: weather.thunderstormProbabilityPct,
-      waterC: day.waterC,
-      airC: weather.airC,
-      relativeHumidityPct: weather.relativeHumidityPct,
-    })
-    return { ...w, banks: ranked, tackle, cautions: windowCautions }
+    return { ...w, banks: ranked, tackle, cautions: windowCautions, verdict }
   })
-  return { ...day, windows }
+  const dayCautions = mergeCautions(windows.filter((w) => w.verdict))
+  return { ...day, windows, cautions: dayCautions, verdict: verdictOf(dayCautions) }
 }
 
 /** The day's plan for one lake and a set of banks, in one call. */
@@ -220,11 +288,12 @@ export function dayPlan(
 /**
  * Where to start on a lake where the angler has saved no banks, from the window's wind (common
  * practice): the shore the wind blows onto when it breaks the surface, the lee when the open
- * water is rough, cover anywhere when it is calm. Null when the forecast does not reach the window.
+ * water is rough, cover anywhere when it is calm. Null when the forecast does not reach the window
+ * or it is a no-go.
  */
-export function lakeWideSuggestion(window: WindowDay): string | null {
+export function lakeWideSuggestion(window: WindowPlan): string | null {
   const { weather } = window
-  if (!weather) return null
+  if (!weather || window.verdict?.verdict === 'no-go') return null
   const from = compassName(weather.windFromDeg)
   if (window.openWaterWaveM >= ROUGH_WAVE_M)
     return `Rough open water: fish the ${from} shore, in the lee, and stay off the open lake.`

@@ -8,6 +8,7 @@ import {
   type BankExposure,
   type ExposureTable,
 } from './exposure'
+import { WAVE_M, WIND_MS } from './safety'
 import type { SeasonalPhase } from './season'
 import type { Cover, Sky } from './tackle-rules'
 
@@ -29,6 +30,8 @@ export interface WindowWeather {
   sky: Sky
   /** Low sun (dawn, dusk) rather than midday light. */
   lowLight?: boolean
+  /** The window's strongest wind, for safety; the typical wind above stands in when absent. */
+  peak?: { windFromDeg: number; windMs: number; gustMs: number }
 }
 
 export interface RankConditions {
@@ -45,6 +48,13 @@ export interface ScoreComponent {
   reason: string
 }
 
+/**
+ * How safe a bank is to fish in the window's strongest wind: rough where a chop a small boat feels
+ * (1 ft) builds or force 7 gusts blow onto it, danger where waves reach 2 ft or gale-force gusts
+ * blow onto it. Banks rank by this first: in a blow every sheltered bank comes before a rough one.
+ */
+export type BankSafety = 'ok' | 'rough' | 'danger'
+
 export interface RankedBank {
   id: string
   name: string
@@ -52,7 +62,11 @@ export interface RankedBank {
   /** The sum of the components' points. */
   score: number
   components: ScoreComponent[]
+  /** In the window's typical wind. */
   exposure: BankExposure
+  safety: BankSafety
+  /** Waves at the bank in the window's strongest wind. */
+  peakWaveHeightM: number
 }
 
 /** Cover each phase favours (common practice), 1 = prime. */
@@ -167,17 +181,29 @@ function lightPoints(bank: Bank, w: WindowWeather): ScoreComponent {
   return { key: 'light', points: 0, reason: 'Light is neutral here.' }
 }
 
-function safetyPoints(x: BankExposure, w: WindowWeather): ScoreComponent {
-  if (x.waveHeightM >= 0.6)
+const SAFETY_ORDER: Record<BankSafety, number> = { ok: 0, rough: 1, danger: 2 }
+
+function bankSafety(peak: BankExposure, gustMs: number): BankSafety {
+  const onto = peak.onshore > 0.34
+  if (peak.waveHeightM >= WAVE_M.warning || (onto && gustMs >= WIND_MS.gustDanger)) return 'danger'
+  if (peak.waveHeightM >= ROUGH_WAVE_M || (onto && gustMs >= WIND_MS.gustWarning)) return 'rough'
+  return 'ok'
+}
+
+function safetyPoints(safety: BankSafety): ScoreComponent {
+  if (safety === 'danger')
     return {
       key: 'safety',
       points: -3,
-      reason: 'Waves here are big enough to swamp a small boat.',
+      reason:
+        'In the strongest wind, waves or gusts here can swamp a small boat: fish sheltered banks first.',
     }
-  if (x.waveHeightM >= ROUGH_WAVE_M)
-    return { key: 'safety', points: -1, reason: 'A chop a small boat feels builds on this bank.' }
-  if (w.gustMs >= 11.3 && x.onshore > 0)
-    return { key: 'safety', points: -1, reason: 'Strong gusts push the boat onto this bank.' }
+  if (safety === 'rough')
+    return {
+      key: 'safety',
+      points: -1,
+      reason: 'In the strongest wind a chop or gusts a small boat feels build on this bank.',
+    }
   return { key: 'safety', points: 0, reason: 'No safety concern from wind or waves here.' }
 }
 
@@ -191,7 +217,10 @@ function requireLake(lake: LakeGeometry | undefined): LakeGeometry {
   return lake
 }
 
-/** Saved banks ranked for one window of wind and light; each score is the sum of named components. */
+/**
+ * Saved banks ranked for one window of wind and light: safe banks first, then by score, the sum of
+ * named components.
+ */
 export function rankBanks(input: {
   /** Needed only for banks without a stored exposure table. */
   lake?: LakeGeometry
@@ -203,18 +232,34 @@ export function rankBanks(input: {
   const ranked = banks.map((bank) => {
     const table = bank.exposure ?? exposureTable(requireLake(lake), bank.points)
     const x = bankExposure(table, w.windFromDeg, w.windMs)
+    const peak = w.peak ? bankExposure(table, w.peak.windFromDeg, w.peak.windMs) : x
+    const safety = bankSafety(peak, w.peak?.gustMs ?? w.gustMs)
     const components = [
       windPoints(x, w, c),
       coverPoints(bank, c),
       depthPoints(bank, c),
       clarityPoints(bank, x, c),
       lightPoints(bank, w),
-      safetyPoints(x, w),
+      safetyPoints(safety),
     ]
     const score = components.reduce((sum, part) => sum + part.points, 0)
-    return { id: bank.id, name: bank.name, rank: 0, score, components, exposure: x }
+    return {
+      id: bank.id,
+      name: bank.name,
+      rank: 0,
+      score,
+      components,
+      exposure: x,
+      safety,
+      peakWaveHeightM: peak.waveHeightM,
+    }
   })
-  ranked.sort((a, b) => b.score - a.score || a.name.localeCompare(b.name))
+  ranked.sort(
+    (a, b) =>
+      SAFETY_ORDER[a.safety] - SAFETY_ORDER[b.safety] ||
+      b.score - a.score ||
+      a.name.localeCompare(b.name),
+  )
   ranked.forEach((r, i) => (r.rank = i + 1))
   return ranked
 }

@@ -3,15 +3,30 @@ import { cToF, msToKmh, msToKnots, mToFt } from '../units'
 import { heatIndexC, windChillC } from './weather'
 
 export type CautionLevel = 'info' | 'caution' | 'warning' | 'danger'
+export type CautionKind =
+  'wind' | 'waves' | 'lightning' | 'cold-water' | 'heat' | 'wind-chill' | 'authority'
 
 export interface Caution {
-  kind: 'wind' | 'waves' | 'lightning' | 'cold-water' | 'heat' | 'wind-chill' | 'authority'
+  kind: CautionKind
   level: CautionLevel
+  /** The number the caution is judged on, in SI: sustained wind m/s, wave m, chance %, or °C. */
+  value?: number
+  /** The strongest gust, m/s, for a wind caution. */
+  gustMs?: number
+  /** The hazard and its number in a few words: what a verdict gives as its reason. */
+  headline: string
+  /** The headline and what to do about it. */
   message: string
   /** A published source, or "common practice" / "from memory". */
   source: string
+  /** For a day's cautions: the windows (ids) this hazard reaches, in the day's order. */
+  windows?: string[]
 }
 
+/**
+ * The worst of the hours a caution covers: highest wind, gust, wave, chance of thunder and heat
+ * index; lowest wind chill. Cautions are judged on these, never on averages that hide a peak.
+ */
 export interface CautionInput {
   windMs: number
   gustMs?: number
@@ -19,94 +34,171 @@ export interface CautionInput {
   waveHeightM?: number
   thunderstormProbabilityPct?: number
   waterC?: number
-  airC?: number
-  relativeHumidityPct?: number
+  heatIndexC?: number
+  windChillC?: number
 }
 
+/** How a caution writes a number: by default in both unit systems, as cautions kept for everyone. */
+export interface CautionUnits {
+  speed: (ms: number) => string
+  length: (m: number) => string
+  /** To a tenth of a degree: cautions are judged on the value as shown. */
+  temp: (c: number) => string
+}
+
+export const BOTH_UNITS: CautionUnits = {
+  speed: (ms) => `${Math.round(msToKnots(ms))} kt (${Math.round(msToKmh(ms))} km/h)`,
+  length: (m) => `${mToFt(m).toFixed(1)} ft (${m.toFixed(1)} m)`,
+  temp: (c) => `${cToF(c).toFixed(1)} °F (${c.toFixed(1)} °C)`,
+}
+
+/**
+ * Wind on inland lakes for small boats, m/s, at the WMO Beaufort scale's bounds: force 5 (fresh
+ * breeze, 8.0 m/s), force 6 (strong breeze, 10.8 m/s, "large waves begin to form"), force 7
+ * (13.9 m/s) and force 8 (gale, 17.2 m/s). The 7 m/s caution, and which force a bass boat should
+ * not go out in, are common practice: NWS lake wind advisories vary by forecast office, and small
+ * boats are at risk well below the marine small craft advisory (22 kt).
+ */
+export const WIND_MS = {
+  caution: 7,
+  warning: 8,
+  danger: 10.8,
+  gustCaution: 10.8,
+  gustWarning: 13.9,
+  gustDanger: 17.2,
+}
+/** Waves for a small boat (common practice): 1 ft a chop, 2 ft rough, 3 ft dangerous. */
+export const WAVE_M = { caution: 0.3, warning: 0.6, danger: 0.9 }
+/**
+ * Chance of thunder, %: NWS wording calls 15-20 % a slight chance (isolated storms), 30-50 % a
+ * chance (scattered), 60 % and up likely. Lightning strikes miles from a storm (NWS lightning
+ * safety), so even a slight chance is a caution; 50 % is our danger line.
+ */
+export const THUNDER_PCT = { caution: 15, warning: 30, danger: 50 }
+
+type Levels = Record<Exclude<CautionLevel, 'info'>, string>
+
 interface CautionRule {
-  applies: (c: Required<Pick<CautionInput, 'windMs'>> & CautionInput) => CautionLevel | null
-  kind: Caution['kind']
-  message: (c: CautionInput) => string
+  kind: Exclude<CautionKind, 'authority'>
+  /** The number judged, from the worst hour; undefined when the conditions lack it. */
+  value: (c: CautionInput) => number | undefined
+  level: (value: number, c: CautionInput) => CautionLevel | null
+  headline: (value: number, c: CautionInput, u: CautionUnits) => string
+  /** What to do, by level. */
+  advice: Levels
   source: string
 }
 
-// Cautions are worked out once per lake for every angler, so they name both unit systems.
-const windText = (ms: number) => `${Math.round(msToKnots(ms))} kt (${Math.round(msToKmh(ms))} km/h)`
-const waveText = (m: number) => `${mToFt(m).toFixed(1)} ft (${m.toFixed(1)} m)`
-const tempText = (c: number) => `${Math.round(cToF(c))} °F (${Math.round(c)} °C)`
+const gustOf = (c: CautionInput) => Math.max(c.gustMs ?? 0, c.windMs)
+const tenth = (x: number) => Math.round(x * 10) / 10
+const GET_OFF = 'Do not launch; if you are out, get off the water by the shortest sheltered route.'
 
-/** Each caution is a row: when it applies, at what level, what it says and where that comes from. */
+/** Each caution is a row: what it judges, at what level, what it says and where that comes from. */
 export const CAUTION_RULES: CautionRule[] = [
   {
     kind: 'wind',
-    applies: (c) => {
-      const gust = Math.max(c.gustMs ?? 0, c.windMs)
-      if (gust >= 34 * 0.5144) return 'danger'
-      if (gust >= 22 * 0.5144) return 'warning'
-      return c.windMs >= 7 ? 'caution' : null
+    value: (c) => c.windMs,
+    level: (ms, c) => {
+      const gust = gustOf(c)
+      if (ms >= WIND_MS.danger || gust >= WIND_MS.gustDanger) return 'danger'
+      if (ms >= WIND_MS.warning || gust >= WIND_MS.gustWarning) return 'warning'
+      return ms >= WIND_MS.caution || gust >= WIND_MS.gustCaution ? 'caution' : null
     },
-    message: (c) =>
-      `Wind ${windText(c.windMs)}, gusts ${windText(Math.max(c.gustMs ?? 0, c.windMs))}. Small craft advisories on the Great Lakes start at 22 kt and gales at 34 kt; small bass boats are at risk well below that. Stay near sheltered water.`,
-    source: 'NWS marine hazard criteria (upper Great Lakes); 7 m/s caution is common practice',
+    headline: (ms, c, u) => `Wind ${u.speed(ms)}, gusts ${u.speed(gustOf(c))}`,
+    advice: {
+      caution:
+        'Whitecaps on open water: cross it with care, quartering the waves, and keep to sheltered water on long runs.',
+      warning:
+        'Rough for a small boat: fish near the launch and in sheltered coves, and do not cross open water.',
+      danger: `Dangerous for small boats. ${GET_OFF}`,
+    },
+    source:
+      'WMO Beaufort scale (force 5 from 8.0 m/s, force 6 from 10.8 m/s, gale from 17.2 m/s); limits for small boats on inland lakes are common practice',
   },
   {
     kind: 'waves',
-    applies: (c) => {
-      const h = c.waveHeightM ?? 0
-      if (h >= 1.2) return 'danger'
-      if (h >= 0.6) return 'warning'
-      return h >= 0.3 ? 'caution' : null
+    value: (c) => c.waveHeightM,
+    level: (m) =>
+      m >= WAVE_M.danger
+        ? 'danger'
+        : m >= WAVE_M.warning
+          ? 'warning'
+          : m >= WAVE_M.caution
+            ? 'caution'
+            : null,
+    headline: (m, _c, u) => `Waves to ${u.length(m)} on exposed water`,
+    advice: {
+      caution: 'A chop a small boat feels: slow down and quarter into it.',
+      warning:
+        'Rough for a small boat: stay in the lee, slow down, and avoid long runs across open water.',
+      danger: `Waves that can swamp a small boat. ${GET_OFF}`,
     },
-    message: (c) =>
-      `Waves to ${waveText(c.waveHeightM ?? 0)} on exposed water. Quarter into the chop, slow down, and keep to the lee shore on long runs.`,
-    source: 'NWS small craft advisory at 4 ft waves; 1 and 2 ft cautions are common practice',
+    source:
+      'Common practice for small boats (1, 2 and 3 ft); NWS small craft advisories on the Great Lakes start at 4 ft',
   },
   {
     kind: 'lightning',
-    applies: (c) => {
-      const p = c.thunderstormProbabilityPct ?? 0
-      if (p >= 50) return 'danger'
-      return p >= 20 ? 'warning' : null
+    value: (c) => c.thunderstormProbabilityPct,
+    level: (p) =>
+      p >= THUNDER_PCT.danger
+        ? 'danger'
+        : p >= THUNDER_PCT.warning
+          ? 'warning'
+          : p >= THUNDER_PCT.caution
+            ? 'caution'
+            : null,
+    headline: (p) => `Thunderstorms ${Math.round(p)} %`,
+    advice: {
+      caution:
+        'Lightning strikes miles from a storm: watch the sky, and at the first thunder get off the water and wait 30 minutes after the last.',
+      warning:
+        'When thunder roars, go indoors: plan to be off the water before storms build, and wait 30 minutes after the last thunder.',
+      danger: `Storms are likely. ${GET_OFF} When thunder roars, go indoors, and wait 30 minutes after the last thunder.`,
     },
-    message: (c) =>
-      `Thunderstorms possible (${Math.round(c.thunderstormProbabilityPct ?? 0)} %). When thunder roars, go indoors: get off the water and to shelter, and wait 30 minutes after the last thunder.`,
-    source: 'NWS lightning safety',
+    source: 'NWS lightning safety; NWS chance-of-precipitation wording',
   },
   {
     kind: 'cold-water',
-    applies: (c) => {
-      if (c.waterC === undefined) return null
-      if (c.waterC < 10) return 'warning'
-      return cToF(c.waterC) < 70 ? 'caution' : null
+    // Judged on the value as shown, to a tenth of a degree, so one number never reads at two levels.
+    value: (c) => (c.waterC === undefined ? undefined : tenth(c.waterC)),
+    level: (c) => (c < 10 ? 'warning' : cToF(c) < 70 ? 'caution' : null),
+    headline: (c, _i, u) => `Water ${u.temp(c)}`,
+    advice: {
+      caution:
+        'A fall brings cold shock (1-10-1: about 1 minute to control breathing, 10 of useful movement, an hour before unconsciousness). Wear the life jacket and clip on the kill-switch lanyard.',
+      warning:
+        'Cold water below 50 °F (10 °C): a fall brings cold shock within a minute (1-10-1). Wear the life jacket zipped, clip on the kill-switch lanyard, and do not fish alone.',
+      danger: GET_OFF,
     },
-    message: (c) =>
-      `Water ${tempText(c.waterC ?? 0)}: a fall brings cold shock (1-10-1: about 1 minute to control breathing, 10 of useful movement, an hour before unconsciousness). Wear the life jacket and clip on the kill-switch lanyard.`,
-    source: '1-10-1 principle; 70 °F threshold from memory',
+    source: '1-10-1 principle; 70 °F and 50 °F thresholds from memory',
   },
   {
     kind: 'heat',
-    applies: (c) => {
-      if (c.airC === undefined || c.relativeHumidityPct === undefined) return null
-      const hi = cToF(heatIndexC(c.airC, c.relativeHumidityPct))
-      if (hi >= 103) return 'danger'
-      if (hi >= 90) return 'warning'
-      return hi >= 80 ? 'caution' : null
+    value: (c) => c.heatIndexC,
+    level: (c) => {
+      const hi = cToF(c)
+      return hi >= 103 ? 'danger' : hi >= 90 ? 'warning' : hi >= 80 ? 'caution' : null
     },
-    message: (c) =>
-      `Heat index ${tempText(heatIndexC(c.airC ?? 0, c.relativeHumidityPct ?? 0))}. Drink water before you are thirsty, cover up, and rest in shade.`,
-    source: 'NWS heat index risk bands',
+    headline: (c, _i, u) => `Heat index ${u.temp(c)}`,
+    advice: {
+      caution: 'Drink water before you are thirsty, cover up, and rest in shade.',
+      warning:
+        'Heat exhaustion is possible: drink water every 15-20 minutes, cover up, rest in shade, and fish the cool hours.',
+      danger:
+        'Heat stroke is likely with long exposure: stay off the open water in the heat of the day, and fish the early hours only.',
+    },
+    source: 'NWS heat index risk bands (80, 90, 103 °F)',
   },
   {
     kind: 'wind-chill',
-    applies: (c) => {
-      if (c.airC === undefined) return null
-      const wc = windChillC(c.airC, c.windMs)
-      if (wc === null) return null
-      if (wc <= -28) return 'danger'
-      return wc <= -10 ? 'warning' : wc <= 0 ? 'caution' : null
+    value: (c) => c.windChillC,
+    level: (wc) => (wc <= -28 ? 'danger' : wc <= -10 ? 'warning' : wc <= 0 ? 'caution' : null),
+    headline: (c, _i, u) => `Wind chill ${u.temp(c)}`,
+    advice: {
+      caution: 'Colder still at running speed: cover skin and dress for spray.',
+      warning: 'Colder still at running speed: cover all skin; frostbite comes within 30 minutes.',
+      danger: 'Frostbite comes within minutes, faster at running speed: stay off the water.',
     },
-    message: (c) =>
-      `Wind chill ${tempText(windChillC(c.airC ?? 0, c.windMs) ?? 0)}, colder still at running speed. Cover skin; frostbite comes fast below -28 °C wind chill.`,
     source: 'NWS wind chill (2001); -28 °C frostbite threshold from memory',
   },
 ]
@@ -114,6 +206,7 @@ export const CAUTION_RULES: CautionRule[] = [
 export const AUTHORITY_CAUTION: Caution = {
   kind: 'authority',
   level: 'info',
+  headline: 'A guide only',
   message:
     'These cautions are a guide only. Follow local authorities, marine and weather warnings, and boating law; wear a life jacket and use the kill-switch lanyard.',
   source: 'common practice',
@@ -121,40 +214,135 @@ export const AUTHORITY_CAUTION: Caution = {
 
 const RANK: Record<CautionLevel, number> = { danger: 0, warning: 1, caution: 2, info: 3 }
 
-/** Cautions for the conditions, most serious first, always ending with the deferral to local authority. */
-export function cautions(conditions: CautionInput): Caution[] {
+/** Whether caution `a` is worse than `b` of the same kind: a higher level, or a worse number. */
+function worse(a: Caution, b: Caution): boolean {
+  if (a.level !== b.level) return RANK[a.level] < RANK[b.level]
+  const sign = a.kind === 'wind-chill' || a.kind === 'cold-water' ? -1 : 1
+  return sign * ((a.value ?? 0) - (b.value ?? 0)) > 0
+}
+
+/** Cautions for the worst of the conditions, most serious first, always ending with the deferral to local authority. */
+export function cautions(conditions: CautionInput, units: CautionUnits = BOTH_UNITS): Caution[] {
   assertFinite(conditions.windMs, 'windMs', { min: 0 })
   for (const key of [
     'gustMs',
     'waveHeightM',
     'thunderstormProbabilityPct',
     'waterC',
-    'airC',
-    'relativeHumidityPct',
+    'heatIndexC',
+    'windChillC',
   ] as const) {
     const v = conditions[key]
     if (v !== undefined) assertFinite(v, key)
   }
   const found: Caution[] = []
   for (const rule of CAUTION_RULES) {
-    const level = rule.applies(conditions)
-    if (level)
-      found.push({ kind: rule.kind, level, message: rule.message(conditions), source: rule.source })
+    const value = rule.value(conditions)
+    const level = value === undefined ? null : rule.level(value, conditions)
+    if (value === undefined || !level || level === 'info') continue
+    const headline = rule.headline(value, conditions, units)
+    found.push({
+      kind: rule.kind,
+      level,
+      value,
+      ...(rule.kind === 'wind' && { gustMs: gustOf(conditions) }),
+      headline,
+      message: `${headline}. ${rule.advice[level]}`,
+      source: rule.source,
+    })
   }
   found.sort((a, b) => RANK[a.level] - RANK[b.level])
   return [...found, AUTHORITY_CAUTION]
 }
 
+/** One hour of weather as the cautions read it. */
+export interface CautionHour {
+  windMs: number
+  gustMs: number
+  airC: number
+  relativeHumidityPct: number
+  thunderstormProbabilityPct?: number | null
+}
+
+/** The worst of some hours for the cautions: a day is judged by its worst hour for safety. */
+export function worstOf(hours: CautionHour[]): CautionInput {
+  const chills = hours.flatMap((h) => {
+    const wc = windChillC(h.airC, h.windMs)
+    return wc === null ? [] : [wc]
+  })
+  return {
+    windMs: Math.max(0, ...hours.map((h) => h.windMs)),
+    gustMs: Math.max(0, ...hours.map((h) => h.gustMs)),
+    thunderstormProbabilityPct: Math.max(0, ...hours.map((h) => h.thunderstormProbabilityPct ?? 0)),
+    heatIndexC: hours.length
+      ? Math.max(...hours.map((h) => heatIndexC(h.airC, h.relativeHumidityPct)))
+      : undefined,
+    windChillC: chills.length ? Math.min(...chills) : undefined,
+  }
+}
+
+export type Verdict = 'go' | 'caution' | 'no-go'
+
+export interface VerdictResult {
+  verdict: Verdict
+  /** The cautions that decided it, as headlines. */
+  reasons: string[]
+}
+
+/** The verdict in words, the same on every screen and mail. */
+export const VERDICT_LABELS: Record<Verdict, string> = {
+  go: 'Go',
+  caution: 'Go with caution',
+  'no-go': 'No-go: do not launch',
+}
+
 /**
- * The cautions of several windows as one list for the day: each message once, most serious first,
+ * Go, caution or no-go from the cautions: any danger is a no-go, any warning a caution; the
+ * reasons are the cautions at the deciding level (or, on a go, the lesser cautions to keep in mind).
+ */
+export function verdictOf(list: Caution[]): VerdictResult {
+  const real = list.filter((c) => c.kind !== 'authority')
+  const at = (level: CautionLevel) => real.filter((c) => c.level === level).map((c) => c.headline)
+  if (at('danger').length) return { verdict: 'no-go', reasons: at('danger') }
+  if (at('warning').length) return { verdict: 'caution', reasons: at('warning') }
+  return { verdict: 'go', reasons: at('caution') }
+}
+
+/** "Dawn to mid-morning", "midday and afternoon to dusk", "all day". */
+function whenText(labels: string[], of: number): string {
+  if (labels.length === of && of > 1) return 'All day'
+  const lower = labels.map((l, i) => (i ? l.toLowerCase() : l))
+  return lower.length > 1 ? `${lower.slice(0, -1).join(', ')} and ${lower.at(-1)}` : lower[0]!
+}
+
+/**
+ * The cautions of a day's windows as one list: one line per hazard at its worst level, naming
+ * the windows it reaches ("Midday and afternoon to dusk: Thunderstorms 36 %"), most serious first,
  * ending with the deferral to local authority.
  */
-export function mergeCautions(lists: Caution[][]): Caution[] {
-  const byMessage = new Map<string, Caution>()
-  for (const list of lists)
-    for (const c of list) if (c.kind !== 'authority') byMessage.set(c.message, c)
-  return [
-    ...[...byMessage.values()].sort((a, b) => RANK[a.level] - RANK[b.level]),
-    AUTHORITY_CAUTION,
-  ]
+export function mergeCautions(
+  windows: { id: string; label: string; cautions: Caution[] }[],
+): Caution[] {
+  const byKind = new Map<CautionKind, { worst: Caution; ids: string[]; labels: string[] }>()
+  for (const w of windows)
+    for (const c of w.cautions) {
+      if (c.kind === 'authority') continue
+      const seen = byKind.get(c.kind)
+      if (!seen) byKind.set(c.kind, { worst: c, ids: [w.id], labels: [w.label] })
+      else {
+        if (worse(c, seen.worst)) seen.worst = c
+        seen.ids.push(w.id)
+        seen.labels.push(w.label)
+      }
+    }
+  const merged = [...byKind.values()].map(({ worst, ids, labels }): Caution => {
+    const when = whenText(labels, windows.length)
+    return {
+      ...worst,
+      headline: `${when}: ${worst.headline}`,
+      message: `${when}: ${worst.message}`,
+      windows: ids,
+    }
+  })
+  return [...merged.sort((a, b) => RANK[a.level] - RANK[b.level]), AUTHORITY_CAUTION]
 }

@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { CLARITY_CLASSES } from '../conditions/clarity'
 import { SEASONAL_PHASES } from '../conditions/season'
-import { CautionView, LakeRead, LakeSlugParams } from './lake-read'
+import { CautionView, LakeRead, LakeSlugParams, VerdictView } from './lake-read'
 
 const Instant = z.iso.datetime()
 const Sky = z.enum(['sun', 'partly', 'overcast'])
@@ -24,6 +24,8 @@ const RankedBankView = z.object({
     fetchM: z.number(),
     waveHeightM: z.number(),
   }),
+  safety: z.enum(['ok', 'rough', 'danger']),
+  peakWaveHeightM: z.number(),
 })
 
 const TackleCallView = z.object({
@@ -55,12 +57,22 @@ const WindowPlanView = z.object({
       airC: z.number(),
       relativeHumidityPct: z.number(),
       thunderstormProbabilityPct: z.number(),
+      peak: z.object({
+        windFromDeg: z.number(),
+        windMs: z.number(),
+        gustMs: z.number(),
+        thunderstormProbabilityPct: z.number(),
+        heatIndexC: z.number(),
+        windChillC: z.number().nullable(),
+      }),
+      coldFront: z.string().nullable(),
     })
     .nullable(),
   openWaterWaveM: z.number(),
   banks: z.array(RankedBankView),
   tackle: z.array(TackleCallView),
   cautions: z.array(CautionView),
+  verdict: VerdictView.nullable(),
 })
 
 /** The Day plan screen: a lake's cached day with the signed-in angler's banks ranked in it. */
@@ -81,6 +93,8 @@ export const DayPlanResponse = z.object({
       waterC: z.number(),
       sky: LakeRead.shape.sky,
       windows: z.array(WindowPlanView),
+      cautions: z.array(CautionView),
+      verdict: VerdictView,
     })
     .nullable(),
 })

@@ -17,10 +17,22 @@ export const WindHour = z.object({
 export type WindHour = z.infer<typeof WindHour>
 
 export const CautionView = z.object({
-  kind: z.string(),
+  kind: z.enum(['wind', 'waves', 'lightning', 'cold-water', 'heat', 'wind-chill', 'authority']),
   level: z.enum(['info', 'caution', 'warning', 'danger']),
+  /** SI: sustained wind m/s, wave m, chance %, °C. */
+  value: z.number().optional(),
+  gustMs: z.number().optional(),
+  headline: z.string(),
   message: z.string(),
   source: z.string(),
+  /** On a day's cautions: the ids of the windows the hazard reaches. */
+  windows: z.array(z.string()).optional(),
+})
+
+/** Go, caution or no-go, with the cautions that decided it. */
+export const VerdictView = z.object({
+  verdict: z.enum(['go', 'caution', 'no-go']),
+  reasons: z.array(z.string()),
 })
 
 const Ring = z.array(z.tuple([z.number(), z.number()]))
@@ -70,8 +82,11 @@ export const LakeRead = z.object({
     moonPhase: z.string(),
   }),
   phase: z.object({ phase: z.enum(SEASONAL_PHASES), reason: z.string() }).nullable(),
+  /** In the strongest wind from now to 12 h ahead. */
   openWaterWaveM: z.number().nullable(),
+  /** Judged on the worst hour from now to 12 h ahead. */
   cautions: z.array(CautionView),
+  verdict: VerdictView,
 })
 export type LakeRead = z.infer<typeof LakeRead>
 

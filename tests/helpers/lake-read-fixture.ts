@@ -38,5 +38,6 @@ export function sampleRead(lake: LakeSummary, at = '2026-04-10T09:45:00.000Z'): 
     phase: { phase: 'pre-spawn', reason: 'Water in the 50s °F and warming.' },
     openWaterWaveM: 0.2,
     cautions: [],
+    verdict: { verdict: 'go', reasons: [] },
   }
 }

@@ -1,10 +1,6 @@
 import { lakeWideSuggestion, planForBanks, type LakeDay } from '../../../shared/conditions/day-plan'
 import type { Bank } from '../../../shared/conditions/ranking'
-import {
-  AUTHORITY_CAUTION,
-  mergeCautions,
-  type CautionLevel,
-} from '../../../shared/conditions/safety'
+import { AUTHORITY_CAUTION, type CautionLevel } from '../../../shared/conditions/safety'
 import { CLARITY_LABELS } from '../../../shared/conditions/clarity'
 import { PHASE_LABELS } from '../../../shared/conditions/season'
 import type { TackleCall } from '../../../shared/conditions/tackle'
@@ -161,7 +157,7 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
     unavailable: null,
     windows: shown,
     // The deferral to local authority closes the whole brief, once.
-    cautions: mergeCautions(plan.windows.map((w) => w.cautions))
+    cautions: plan.cautions
       .filter((c) => c.kind !== 'authority')
       .map((c) => ({
         level: c.level,

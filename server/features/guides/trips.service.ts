@@ -1,5 +1,5 @@
 import { planForBanks } from '../../../shared/conditions/day-plan'
-import { mergeCautions } from '../../../shared/conditions/safety'
+import { AUTHORITY_CAUTION } from '../../../shared/conditions/safety'
 import type {
   SharedTrip,
   ShareView,
@@ -69,7 +69,7 @@ export function tripsService(deps: {
       unavailable: plan
         ? null
         : 'The forecast does not reach this day yet; the plan appears here when it does.',
-      cautions: mergeCautions(plan?.windows.map((w) => w.cautions) ?? []),
+      cautions: plan?.cautions ?? [AUTHORITY_CAUTION],
       computedAt: isoOrNull(cached?.computedAt),
     }
   }

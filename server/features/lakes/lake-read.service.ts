@@ -5,7 +5,7 @@ import {
   secchiFromTurbidity,
 } from '../../../shared/conditions/clarity'
 import { openWaterWaveM } from '../../../shared/conditions/exposure'
-import { cautions } from '../../../shared/conditions/safety'
+import { cautions, verdictOf, worstOf } from '../../../shared/conditions/safety'
 import { seasonalPhase } from '../../../shared/conditions/season'
 import { skyDay } from '../../../shared/conditions/sky'
 import { median, theilSen } from '../../../shared/conditions/trend'
@@ -234,20 +234,18 @@ export function lakeReadService(repo: LakeReadRepo) {
             })
           : null
 
-      const wind = latest ?? forecast[0]
-      const wave = wind ? openWaterWaveM(lake.shoreline, wind.windFromDeg, wind.windMs) : null
       const next12 = forecast.map(hour)
+      // Safety looks at the worst hour from now to 12 h ahead: the wind, and the waves it raises.
+      const ahead = [...(latest ? [latest] : []), ...forecast]
+      const wave = ahead.length
+        ? Math.max(...ahead.map((w) => openWaterWaveM(lake.shoreline, w.windFromDeg, w.windMs)))
+        : null
       const list = cautions({
-        windMs: Math.max(wind?.windMs ?? 0, ...forecast.map((f) => f.windMs)),
-        gustMs: Math.max(wind?.gustMs ?? 0, ...forecast.map((f) => f.gustMs)),
-        waveHeightM: wave ?? undefined,
-        thunderstormProbabilityPct: Math.max(
-          0,
-          ...forecast.map((f) => f.thunderProbabilityPct ?? 0),
+        ...worstOf(
+          ahead.map((w) => ({ ...w, thunderstormProbabilityPct: w.thunderProbabilityPct })),
         ),
+        waveHeightM: wave ?? undefined,
         waterC: lastTemp?.value,
-        airC: latest?.airC,
-        relativeHumidityPct: latest?.relativeHumidityPct,
       })
       const times = [lastTemp?.at, lastTurb?.at, lastLevel?.at].filter((d): d is Date => !!d)
 
@@ -278,6 +276,7 @@ export function lakeReadService(repo: LakeReadRepo) {
           phase,
           openWaterWaveM: wave,
           cautions: list,
+          verdict: verdictOf(list),
         },
         now,
       )

@@ -6,7 +6,7 @@ import {
   planForBanks,
   type ForecastHour,
   type LakeDay,
-  type WindowDay,
+  type WindowPlan,
 } from '../../../shared/conditions/day-plan'
 import { exposureTable } from '../../../shared/conditions/exposure'
 import { DomainError } from '../../../shared/errors'
@@ -193,7 +193,7 @@ describe('lakeDay + planForBanks', () => {
 })
 
 describe('lakeWideSuggestion', () => {
-  const window = (windMs: number, openWaterWaveM: number): WindowDay => ({
+  const window = (windMs: number, openWaterWaveM: number): WindowPlan => ({
     id: 'dawn',
     label: 'Dawn to mid-morning',
     start: '2026-04-10T11:00:00Z',
@@ -206,8 +206,21 @@ describe('lakeWideSuggestion', () => {
       airC: 18,
       relativeHumidityPct: 60,
       thunderstormProbabilityPct: 0,
+      peak: {
+        windFromDeg: 225,
+        windMs,
+        gustMs: windMs * 1.4,
+        thunderstormProbabilityPct: 0,
+        heatIndexC: 18,
+        windChillC: null,
+      },
+      coldFront: null,
     },
     openWaterWaveM,
+    banks: [],
+    tackle: [],
+    cautions: [],
+    verdict: { verdict: 'go', reasons: [] },
   })
 
   it('sends the angler to the shore the wind blows onto when it breaks the surface (common practice)', () => {

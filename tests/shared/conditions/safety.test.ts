@@ -1,8 +1,16 @@
 import { describe, expect, it } from 'vitest'
-import { cautions } from '../../../shared/conditions/safety'
-import { fToC, MS_PER_KNOT } from '../../../shared/units'
+import {
+  cautions,
+  mergeCautions,
+  verdictOf,
+  worstOf,
+  type CautionHour,
+} from '../../../shared/conditions/safety'
+import { heatIndexC } from '../../../shared/conditions/weather'
+import { cToF, fToC, MS_PER_KNOT } from '../../../shared/units'
 
 const kinds = (c: ReturnType<typeof cautions>) => c.map((x) => `${x.kind}:${x.level}`)
+const find = (c: ReturnType<typeof cautions>, kind: string) => c.find((x) => x.kind === kind)
 
 describe('cautions', () => {
   it('always ends by deferring to local authorities and boating law', () => {
@@ -12,41 +20,65 @@ describe('cautions', () => {
     expect(cautions({ windMs: 20, thunderstormProbabilityPct: 80 }).at(-1)!.kind).toBe('authority')
   })
 
-  it('warns at small-craft-advisory winds and at 34 kt gales (NWS marine hazards)', () => {
-    expect(kinds(cautions({ windMs: 22 * MS_PER_KNOT }))).toContain('wind:warning')
-    expect(kinds(cautions({ windMs: 10, gustMs: 34 * MS_PER_KNOT }))).toContain('wind:danger')
+  it('tells small boats not to launch in a 25 kt blow, with no Great Lakes figures (WMO Beaufort force 6 from 10.8 m/s; small-boat limits common practice)', () => {
+    const wind = find(cautions({ windMs: 13, gustMs: 18 }), 'wind')!
+    expect(wind.level).toBe('danger')
+    expect(wind.message).toMatch(/Do not launch/)
+    expect(wind.message).toMatch(/get off the water/)
+    expect(wind.message).not.toMatch(/sheltered water\.$|Great Lakes|22 kt/)
+    expect(wind.source).toMatch(/Beaufort/)
+  })
+
+  it('reads a fresh breeze as rough and whitecaps as a caution, gusts counting too (WMO Beaufort forces 5, 7, 8; common practice)', () => {
+    expect(kinds(cautions({ windMs: 8.5 }))).toContain('wind:warning')
     expect(kinds(cautions({ windMs: 7.5 }))).toContain('wind:caution')
+    expect(kinds(cautions({ windMs: 5, gustMs: 14 }))).toContain('wind:warning')
+    expect(kinds(cautions({ windMs: 9, gustMs: 34 * MS_PER_KNOT }))).toContain('wind:danger')
+    expect(find(cautions({ windMs: 4, gustMs: 6 }), 'wind')).toBeUndefined()
   })
 
-  it('warns of waves from 2 ft and calls 4 ft a danger (NWS SCA waves; 2 ft common practice)', () => {
+  it('sends a small boat off the water in 3 ft waves instead of telling it to quarter into the chop (common practice)', () => {
+    const waves = find(cautions({ windMs: 5, waveHeightM: 0.95 }), 'waves')!
+    expect(waves.level).toBe('danger')
+    expect(waves.message).toMatch(/Do not launch/)
+    expect(waves.message).not.toMatch(/Quarter into the chop/i)
     expect(kinds(cautions({ windMs: 5, waveHeightM: 0.7 }))).toContain('waves:warning')
-    expect(kinds(cautions({ windMs: 5, waveHeightM: 1.3 }))).toContain('waves:danger')
+    expect(kinds(cautions({ windMs: 5, waveHeightM: 0.35 }))).toContain('waves:caution')
   })
 
-  it('sends anglers off the water for lightning (NWS: when thunder roars, go indoors)', () => {
-    const [first] = cautions({ windMs: 3, thunderstormProbabilityPct: 60 })
-    expect(first!.kind).toBe('lightning')
-    expect(first!.level).toBe('danger')
-    expect(first!.message).toMatch(/When thunder roars, go indoors/)
-    expect(first!.message).toMatch(/30 minutes/)
-  })
-
-  it('flags cold water below 70 °F with the 1-10-1 principle (from memory)', () => {
-    const c = cautions({ windMs: 2, waterC: fToC(55) }).find((x) => x.kind === 'cold-water')
-    expect(c?.message).toMatch(/1-10-1/)
-    // Worked out once for every angler, so it names both scales: 55 °F is 12.8 °C.
-    expect(c?.message).toContain('Water 55 °F (13 °C)')
-    expect(cautions({ windMs: 2, waterC: fToC(75) }).some((x) => x.kind === 'cold-water')).toBe(
-      false,
+  it('gives a lightning caution on a slight chance of thunder, 15-19 % (NWS chance wording; NWS lightning safety)', () => {
+    const slight = find(cautions({ windMs: 2, thunderstormProbabilityPct: 17 }), 'lightning')!
+    expect(slight.level).toBe('caution')
+    expect(slight.message).toMatch(/get off the water/)
+    expect(find(cautions({ windMs: 2, thunderstormProbabilityPct: 36 }), 'lightning')!.level).toBe(
+      'warning',
     )
+    const likely = cautions({ windMs: 3, thunderstormProbabilityPct: 60 })[0]!
+    expect(likely.kind).toBe('lightning')
+    expect(likely.level).toBe('danger')
+    expect(likely.message).toMatch(/When thunder roars, go indoors/)
+    expect(likely.message).toMatch(/30 minutes/)
   })
 
-  it('follows the NWS heat index bands', () => {
+  it('never prints one water temperature at two levels: 9.9 °C and 10.0 °C read differently (1-10-1; 50 °F from memory)', () => {
+    const cold = find(cautions({ windMs: 2, waterC: 9.9 }), 'cold-water')!
+    const cool = find(cautions({ windMs: 2, waterC: 10.0 }), 'cold-water')!
+    expect(cold.level).toBe('warning')
+    expect(cool.level).toBe('caution')
+    expect(cold.headline).toBe('Water 49.8 °F (9.9 °C)')
+    expect(cool.headline).toBe('Water 50.0 °F (10.0 °C)')
+    // Judged on the value as shown: 9.96 °C shows as 10.0 °C, and is judged as 10.0 °C.
+    expect(find(cautions({ windMs: 2, waterC: 9.96 }), 'cold-water')!.level).toBe('caution')
+    expect(cool.message).toMatch(/1-10-1/)
+    expect(find(cautions({ windMs: 2, waterC: fToC(75) }), 'cold-water')).toBeUndefined()
+  })
+
+  it('follows the NWS heat index bands (80, 90, 103 °F)', () => {
     // 90 °F at 50 % is a 95 °F heat index: extreme caution, 90-103 °F (NWS).
-    expect(kinds(cautions({ windMs: 2, airC: fToC(90), relativeHumidityPct: 50 }))).toContain(
+    expect(kinds(cautions({ windMs: 2, heatIndexC: heatIndexC(fToC(90), 50) }))).toContain(
       'heat:warning',
     )
-    expect(kinds(cautions({ windMs: 2, airC: fToC(100), relativeHumidityPct: 60 }))).toContain(
+    expect(kinds(cautions({ windMs: 2, heatIndexC: heatIndexC(fToC(100), 60) }))).toContain(
       'heat:danger',
     )
   })
@@ -55,5 +87,74 @@ describe('cautions', () => {
     const list = cautions({ windMs: 8, waveHeightM: 1.5, waterC: 12 })
     expect(list[0]!.level).toBe('danger')
     expect(() => cautions({ windMs: NaN })).toThrow(/windMs/)
+  })
+})
+
+describe('worstOf', () => {
+  const hour = (windMs: number, airC: number, rh: number, thunder = 0): CautionHour => ({
+    windMs,
+    gustMs: windMs * 1.4,
+    airC,
+    relativeHumidityPct: rh,
+    thunderstormProbabilityPct: thunder,
+  })
+
+  it('judges a window by its worst hour: a 107 °F peak heat index is not shown as the 99 °F average (NWS heat index)', () => {
+    const hours = [hour(2, fToC(90), 50), hour(2, fToC(96), 50), hour(2, fToC(91), 50)]
+    const peak = heatIndexC(fToC(96), 50)
+    // The heat index of the window's mean air temperature (92.3 °F) at 50 %.
+    const ofMeans = heatIndexC(fToC(92.33), 50)
+    expect(cToF(peak)).toBeCloseTo(107.6, 1)
+    expect(cToF(ofMeans)).toBeLessThan(100)
+    const worst = worstOf(hours)
+    expect(worst.heatIndexC).toBe(peak)
+    const heat = find(cautions(worst), 'heat')!
+    expect(heat.level).toBe('danger')
+    expect(heat.headline).toMatch(/^Heat index 107\.\d °F/)
+  })
+
+  it('takes the strongest wind, gust and chance of thunder, and the coldest wind chill (NWS wind chill 2001)', () => {
+    const worst = worstOf([hour(4, -5, 60, 10), hour(13, 0, 60, 36), hour(6, -8, 60)])
+    expect(worst.windMs).toBe(13)
+    expect(worst.gustMs).toBeCloseTo(18.2)
+    expect(worst.thunderstormProbabilityPct).toBe(36)
+    // -8 °C at 6 m/s is colder than 0 °C at 13 m/s.
+    expect(worst.windChillC).toBeLessThan(-13)
+  })
+})
+
+describe('verdictOf', () => {
+  it('is a no-go on any danger, naming it, and a caution on a warning (derived from the cautions)', () => {
+    const blow = verdictOf(cautions({ windMs: 13, gustMs: 18, waterC: 15 }))
+    expect(blow.verdict).toBe('no-go')
+    expect(blow.reasons).toEqual([expect.stringMatching(/^Wind 25 kt/)])
+    expect(verdictOf(cautions({ windMs: 8.5 })).verdict).toBe('caution')
+    const fine = verdictOf(cautions({ windMs: 3, waterC: 15 }))
+    expect(fine.verdict).toBe('go')
+    expect(fine.reasons).toEqual([expect.stringMatching(/^Water 59\.0 °F/)])
+  })
+})
+
+describe('mergeCautions', () => {
+  it('gives a stormy day one line per hazard at its worst, naming the windows (NWS lightning safety)', () => {
+    const windows = [
+      { id: 'dawn', label: 'Dawn to mid-morning', cautions: cautions({ windMs: 2, waterC: 25 }) },
+      {
+        id: 'midday',
+        label: 'Midday',
+        cautions: cautions({ windMs: 3, thunderstormProbabilityPct: 30, heatIndexC: fToC(99) }),
+      },
+      {
+        id: 'afternoon',
+        label: 'Afternoon to dusk',
+        cautions: cautions({ windMs: 3, thunderstormProbabilityPct: 36, heatIndexC: fToC(107) }),
+      },
+    ]
+    const day = mergeCautions(windows)
+    expect(day.map((c) => c.kind)).toEqual(['heat', 'lightning', 'authority'])
+    const lightning = find(day, 'lightning')!
+    expect(lightning.headline).toBe('Midday and afternoon to dusk: Thunderstorms 36 %')
+    expect(lightning.windows).toEqual(['midday', 'afternoon'])
+    expect(find(day, 'heat')!.level).toBe('danger')
   })
 })

@@ -84,6 +84,7 @@ function read(overrides: Partial<LakeRead> = {}): LakeRead {
     phase: null,
     openWaterWaveM: null,
     cautions: [],
+    verdict: { verdict: 'go', reasons: [] },
     ...overrides,
   }
 }
@@ -124,12 +125,14 @@ describe('CautionBand', () => {
           {
             kind: 'lightning',
             level: 'danger',
+            headline: 'Thunderstorms 60 %',
             message: 'When thunder roars, go indoors.',
             source: 'NWS lightning safety',
           },
           {
             kind: 'authority',
             level: 'info',
+            headline: 'A guide only',
             message: 'Follow local authorities and boating law.',
             source: 'common practice',
           },
