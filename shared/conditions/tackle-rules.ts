@@ -27,6 +27,11 @@ export interface TackleInput {
   cover: Cover[]
   /** Water depth a cast off the bank, metres. */
   depthM?: number
+  /**
+   * A cold front passed in the last day: pressure rising fast after a fall, the wind veered to the
+   * north-west, often a bright blue sky behind it. Fish tuck tight to cover and bite slowly.
+   */
+  coldFrontPassed?: boolean
 }
 
 export interface TackleDetails {
@@ -48,6 +53,8 @@ export interface TackleRule {
   family: LureFamily
   when: (x: TackleInput) => boolean
   fit?: number
+  /** The family does not suit this water at all: no call, whatever else matched. */
+  rulesOut?: true
   set?: Partial<TackleDetails>
   why: string
   source: 'common practice' | 'from memory'
@@ -61,7 +68,35 @@ const inPhase = (x: TackleInput, ...phases: SeasonalPhase[]) => phases.includes(
 /** Wind that breaks the surface: about 2.5 m/s (light breeze, Beaufort 2) and up. */
 export const SURFACE_BREAKING_WIND_MS = 2.5
 const breezy = (x: TackleInput) => x.windMs >= SURFACE_BREAKING_WIND_MS
-const spring = (x: TackleInput) => inPhase(x, 'early-pre-spawn', 'pre-spawn')
+/**
+ * Sustained wind at or above which no bait is worth the risk: the lower bound of WMO Beaufort
+ * force 6 ("strong breeze", 22 kt), which the safety code calls a danger for small boats.
+ */
+export const NO_FISHING_WIND_MS = 10.8
+/** The prime blade-bait depth a cast off the bank: about 10 ft. */
+export const PRIME_DEPTH_M = 3
+/** Deep enough, well past the prime depth, that a blade bait is slow-rolled along the bottom. */
+export const DEEP_SLOW_ROLL_M = 4.5
+/** A squarebill runs 1-1.5 m deep: over more water than this it touches neither bottom nor cover. */
+export const SQUAREBILL_MAX_DEPTH_M = 3
+/** Below about 46 °F fish will not chase a fast, deflecting crankbait. */
+export const SQUAREBILL_MIN_WATER_C = 8
+
+const coldEarlySpring = (x: TackleInput) => x.phase === 'early-pre-spawn' && x.waterC < 12
+/** No cover at all: an open bank, or open water when the angler has no banks saved. */
+const openOnly = (x: TackleInput) => x.cover.every((c) => c === 'open')
+const coldFront = (x: TackleInput) => x.coldFrontPassed === true
+/**
+ * The prime blade-bait bank: windblown, rock or sparse grass (not dense grass), about 10 ft of
+ * water a cast out, so not yet deep.
+ */
+const primeBladeBank = (x: TackleInput) =>
+  breezy(x) &&
+  has(x, 'rock', 'sparse-grass') &&
+  !has(x, 'dense-grass') &&
+  (x.depthM === undefined || x.depthM < DEEP_SLOW_ROLL_M)
+const midClarity = (x: TackleInput) => x.clarity === 'lightly-stained' || x.clarity === 'clear'
+const veryClear = (x: TackleInput) => x.clarity === 'very-clear'
 
 /** How each family is rigged before any detail row applies. */
 export const FAMILY_DEFAULTS: Record<LureFamily, TackleDetails> = {
@@ -117,6 +152,14 @@ export const FAMILY_DEFAULTS: Record<LureFamily, TackleDetails> = {
   },
 }
 
+const COLD_FRONT_WHY = 'A cold front just passed: fish tuck tight to cover; slow down.'
+const COLD_FRONT_OPEN_WHY =
+  'No cover here: after the front, fish hold tight to the bottom on points and breaks.'
+const DIRTY_COLORS_WHY = 'Dirty water: bright or dark colours make a silhouette fish can find.'
+const MID_COLORS_WHY = 'Lightly stained to clear water: natural baitfish and craw colours.'
+const VERY_CLEAR_COLORS_WHY =
+  'Very clear water: fish get a good look, so natural, translucent colours.'
+
 export const TACKLE_RULES: TackleRule[] = [
   // Spinnerbait (blade bait)
   {
@@ -146,9 +189,25 @@ export const TACKLE_RULES: TackleRule[] = [
   {
     id: 'blade-windblown-prime',
     family: 'spinnerbait',
-    when: (x) => breezy(x) && has(x, 'rock', 'sparse-grass'),
+    when: primeBladeBank,
     fit: 1,
     why: 'Windblown banks and points with rock and sparse grass are prime blade-bait water.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-dense-grass',
+    family: 'spinnerbait',
+    when: (x) => has(x, 'dense-grass'),
+    fit: -1.5,
+    why: 'Blade baits foul in dense grass; they are best over sparse grass and rock.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-open',
+    family: 'spinnerbait',
+    when: openOnly,
+    set: { retrieve: 'erratic: twitches and pauses; let it fall along points and breaks' },
+    why: 'No cover here: work it erratically along points and breaks.',
     source: 'common practice',
   },
   {
@@ -182,15 +241,15 @@ export const TACKLE_RULES: TackleRule[] = [
   {
     id: 'blade-willow-default',
     family: 'spinnerbait',
-    when: (x) => x.clarity === 'lightly-stained' || x.clarity === 'clear',
-    set: { blade: 'double-willow', bladeFinish: 'gold and silver' },
+    when: midClarity,
+    set: { blade: 'double-willow', bladeFinish: 'gold and silver', colors: ['white', 'shad'] },
     why: 'A gold-and-silver willow combination serves most clarities; willow blades flash more.',
     source: 'common practice',
   },
   {
     id: 'blade-very-clear',
     family: 'spinnerbait',
-    when: (x) => x.clarity === 'very-clear',
+    when: veryClear,
     set: {
       blade: 'double-willow',
       bladeFinish: 'larger blade silver, smaller gold',
@@ -210,7 +269,7 @@ export const TACKLE_RULES: TackleRule[] = [
   {
     id: 'blade-swimbait-trailer',
     family: 'spinnerbait',
-    when: (x) => x.waterC < 12 && dirty(x) && spring(x),
+    when: (x) => coldEarlySpring(x) && dirty(x),
     set: { trailer: 'large swimbait' },
     why: 'Cold, dirty early spring: a large swimbait trailer adds bulk and lift so the bait can be fished slower.',
     source: 'common practice',
@@ -218,9 +277,14 @@ export const TACKLE_RULES: TackleRule[] = [
   {
     id: 'blade-split-tail-trailer',
     family: 'spinnerbait',
-    when: (x) => x.waterC < 12 && !dirty(x) && spring(x),
+    when: (x) =>
+      coldEarlySpring(x) &&
+      !dirty(x) &&
+      !breezy(x) &&
+      has(x, 'wood', 'sparse-grass') &&
+      (x.depthM ?? 1.5) <= 2,
     set: { trailer: 'slender split-tail' },
-    why: 'A slender split-tail trailer adds lift with a slim profile for cold, clearer water.',
+    why: 'Cold early spring, calm, over shallow cover: a slender split-tail trailer adds lift without bulk, to fish slower over the cover.',
     source: 'common practice',
   },
   {
@@ -242,9 +306,26 @@ export const TACKLE_RULES: TackleRule[] = [
   {
     id: 'blade-slow-roll-deep',
     family: 'spinnerbait',
-    when: (x) => (x.depthM ?? 0) >= 3 && x.waterC < 12,
+    // Well past the prime 10 ft, and never the prime windblown bank: that one stays erratic.
+    when: (x) => (x.depthM ?? 0) >= DEEP_SLOW_ROLL_M && x.waterC < 12 && !primeBladeBank(x),
     set: { retrieve: 'steady slow-roll, deep along the bottom' },
     why: 'The retrieve is steady only when slow-rolling deep along the bottom.',
+    source: 'common practice',
+  },
+  {
+    id: 'blade-cold-front',
+    family: 'spinnerbait',
+    when: coldFront,
+    set: { retrieve: 'slow-roll it tight to cover, letting it bump and fall beside it' },
+    why: COLD_FRONT_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'blade-cold-front-open',
+    family: 'spinnerbait',
+    when: (x) => coldFront(x) && openOnly(x),
+    set: { retrieve: 'slow-roll it along the bottom on points and breaks' },
+    why: COLD_FRONT_OPEN_WHY,
     source: 'common practice',
   },
 
@@ -270,6 +351,54 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'Bright chartreuse with a dark back shows in dirty water.',
     source: 'common practice',
   },
+  {
+    id: 'squarebill-colors-clear',
+    family: 'squarebill crankbait',
+    when: midClarity,
+    set: { colors: ['shad', 'crawfish'] },
+    why: MID_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'squarebill-colors-very-clear',
+    family: 'squarebill crankbait',
+    when: veryClear,
+    set: { colors: ['translucent shad', 'natural craw'] },
+    why: VERY_CLEAR_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'squarebill-too-deep',
+    family: 'squarebill crankbait',
+    when: (x) => (x.depthM ?? 0) > SQUAREBILL_MAX_DEPTH_M,
+    rulesOut: true,
+    why: 'A squarebill runs 1-1.5 m deep: over deeper water it touches neither bottom nor cover.',
+    source: 'common practice',
+  },
+  {
+    id: 'squarebill-too-cold',
+    family: 'squarebill crankbait',
+    when: (x) => x.waterC < SQUAREBILL_MIN_WATER_C,
+    rulesOut: true,
+    why: 'In water colder than the mid 40s °F fish will not chase a fast, deflecting crankbait.',
+    source: 'common practice',
+  },
+  {
+    id: 'squarebill-no-cover',
+    family: 'squarebill crankbait',
+    when: (x) => !has(x, 'wood', 'rock', 'docks'),
+    rulesOut: true,
+    why: 'A squarebill needs wood, rock or docks to deflect off.',
+    source: 'common practice',
+  },
+  {
+    id: 'squarebill-cold-front',
+    family: 'squarebill crankbait',
+    when: coldFront,
+    set: { retrieve: 'slow: crawl it into cover and pause longer after each contact' },
+    why: COLD_FRONT_WHY,
+    source: 'common practice',
+  },
 
   // Lipless crankbait
   {
@@ -285,11 +414,52 @@ export const TACKLE_RULES: TackleRule[] = [
     source: 'common practice',
   },
   {
+    id: 'lipless-open-search',
+    family: 'lipless crankbait',
+    when: (x) => openOnly(x) && x.waterC >= 7 && x.waterC <= 24,
+    fit: 1,
+    set: { retrieve: 'yo-yo it over flats and points: lift it off the bottom and let it fall' },
+    why: 'With no cover to work, a lipless crankbait covers open flats and points fast to find roaming fish.',
+    source: 'common practice',
+  },
+  {
     id: 'lipless-stained',
     family: 'lipless crankbait',
     when: dirty,
-    set: { colors: ['red crawfish'] },
-    why: 'Red and crawfish tones are a stained-water standby in spring.',
+    set: { colors: ['red crawfish', 'chartreuse'] },
+    why: 'Red and crawfish tones are a stained-water standby in spring; chartreuse shows in dirty water.',
+    source: 'common practice',
+  },
+  {
+    id: 'lipless-colors-clear',
+    family: 'lipless crankbait',
+    when: midClarity,
+    set: { colors: ['chrome shad', 'gold'] },
+    why: MID_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'lipless-colors-very-clear',
+    family: 'lipless crankbait',
+    when: veryClear,
+    set: { colors: ['translucent shad', 'natural shad'] },
+    why: VERY_CLEAR_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'lipless-cold-front',
+    family: 'lipless crankbait',
+    when: coldFront,
+    set: { retrieve: 'slow: lift it and let it fall on a slack line by the grass edge' },
+    why: COLD_FRONT_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'lipless-cold-front-open',
+    family: 'lipless crankbait',
+    when: (x) => coldFront(x) && openOnly(x),
+    set: { retrieve: 'slow: lift it and let it fall along the bottom on flats and breaks' },
+    why: COLD_FRONT_OPEN_WHY,
     source: 'common practice',
   },
 
@@ -308,6 +478,46 @@ export const TACKLE_RULES: TackleRule[] = [
     when: (x) => clearish(x) && breezy(x) && x.waterC <= 13,
     fit: 0.5,
     why: 'A ripple on clear water hides the line and the bait.',
+    source: 'common practice',
+  },
+  {
+    id: 'jerkbait-stained',
+    family: 'jerkbait',
+    when: dirty,
+    set: { colors: ['chartreuse shad', 'black back'] },
+    why: DIRTY_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'jerkbait-colors-clear',
+    family: 'jerkbait',
+    when: midClarity,
+    set: { colors: ['chrome shad', 'pearl'] },
+    why: MID_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'jerkbait-colors-very-clear',
+    family: 'jerkbait',
+    when: veryClear,
+    set: { colors: ['ghost shad', 'translucent minnow'] },
+    why: VERY_CLEAR_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'jerkbait-cold-front',
+    family: 'jerkbait',
+    when: coldFront,
+    set: { retrieve: 'slow: one twitch, then pause ten seconds and more, close to cover' },
+    why: COLD_FRONT_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'jerkbait-cold-front-open',
+    family: 'jerkbait',
+    when: (x) => coldFront(x) && openOnly(x),
+    set: { retrieve: 'slow: one twitch, then pause ten seconds and more over points and breaks' },
+    why: COLD_FRONT_OPEN_WHY,
     source: 'common practice',
   },
 
@@ -329,11 +539,52 @@ export const TACKLE_RULES: TackleRule[] = [
     source: 'common practice',
   },
   {
+    id: 'jig-open',
+    family: 'jig',
+    when: openOnly,
+    set: { retrieve: 'drag and hop it along the bottom on points and breaks' },
+    why: 'No cover to pitch to here: drag the jig along the bottom on points and breaks.',
+    source: 'common practice',
+  },
+  {
     id: 'jig-stained',
     family: 'jig',
     when: dirty,
     set: { colors: ['black', 'blue'] },
     why: 'Black and blue make the strongest silhouette in dirty water.',
+    source: 'common practice',
+  },
+  {
+    id: 'jig-colors-clear',
+    family: 'jig',
+    when: midClarity,
+    set: { colors: ['green pumpkin', 'brown'] },
+    why: MID_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'jig-colors-very-clear',
+    family: 'jig',
+    when: veryClear,
+    set: { colors: ['watermelon', 'natural brown'] },
+    why: VERY_CLEAR_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'jig-cold-front',
+    family: 'jig',
+    when: coldFront,
+    fit: 1.5,
+    set: { retrieve: 'slow: pitch it tight to cover, let it sit, then small hops' },
+    why: COLD_FRONT_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'jig-cold-front-open',
+    family: 'jig',
+    when: (x) => coldFront(x) && openOnly(x),
+    set: { retrieve: 'slow: drag it along the bottom on points and breaks and let it sit' },
+    why: COLD_FRONT_OPEN_WHY,
     source: 'common practice',
   },
 
@@ -355,11 +606,52 @@ export const TACKLE_RULES: TackleRule[] = [
     source: 'common practice',
   },
   {
+    id: 'worm-open',
+    family: 'soft-plastic worm',
+    when: openOnly,
+    set: { retrieve: 'slow drag and lift along the bottom on points and breaks' },
+    why: 'No cover here: drag it along the bottom on points and breaks.',
+    source: 'common practice',
+  },
+  {
     id: 'worm-stained',
     family: 'soft-plastic worm',
     when: dirty,
     set: { colors: ['junebug', 'black'] },
     why: 'Dark colours show best in dirty water.',
+    source: 'common practice',
+  },
+  {
+    id: 'worm-colors-clear',
+    family: 'soft-plastic worm',
+    when: midClarity,
+    set: { colors: ['green pumpkin', 'watermelon red'] },
+    why: MID_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'worm-colors-very-clear',
+    family: 'soft-plastic worm',
+    when: veryClear,
+    set: { colors: ['watermelon', 'translucent green'] },
+    why: VERY_CLEAR_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'worm-cold-front',
+    family: 'soft-plastic worm',
+    when: coldFront,
+    fit: 1.5,
+    set: { retrieve: 'dead slow: let it sit tight to cover between small lifts' },
+    why: COLD_FRONT_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'worm-cold-front-open',
+    family: 'soft-plastic worm',
+    when: (x) => coldFront(x) && openOnly(x),
+    set: { retrieve: 'dead slow: drag it along the bottom on points and breaks and let it sit' },
+    why: COLD_FRONT_OPEN_WHY,
     source: 'common practice',
   },
 
@@ -381,11 +673,43 @@ export const TACKLE_RULES: TackleRule[] = [
     source: 'common practice',
   },
   {
+    id: 'topwater-open',
+    family: 'topwater',
+    when: openOnly,
+    set: { retrieve: 'walk it with pauses over points and flats' },
+    why: 'No cover here: walk it over points and flats where baitfish roam.',
+    source: 'common practice',
+  },
+  {
     id: 'topwater-stained',
     family: 'topwater',
     when: dirty,
     set: { colors: ['black'] },
     why: 'A dark topwater silhouettes against the sky in dirty water.',
+    source: 'common practice',
+  },
+  {
+    id: 'topwater-colors-clear',
+    family: 'topwater',
+    when: midClarity,
+    set: { colors: ['bone', 'shad'] },
+    why: MID_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'topwater-colors-very-clear',
+    family: 'topwater',
+    when: veryClear,
+    set: { colors: ['clear', 'translucent shad'] },
+    why: VERY_CLEAR_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'topwater-cold-front',
+    family: 'topwater',
+    when: coldFront,
+    rulesOut: true,
+    why: 'A cold front just passed: fish tuck tight to cover and will not come up; leave the topwater.',
     source: 'common practice',
   },
 
@@ -406,6 +730,54 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'Fish chase baitfish in the transitions of spring and fall.',
     source: 'common practice',
   },
+  {
+    id: 'swimbait-open',
+    family: 'swimbait',
+    when: openOnly,
+    set: { retrieve: 'steady and slow along breaks and over points' },
+    why: 'No cover here: swim it along breaks and over points.',
+    source: 'common practice',
+  },
+  {
+    id: 'swimbait-stained',
+    family: 'swimbait',
+    when: dirty,
+    set: { colors: ['white', 'chartreuse shad'] },
+    why: DIRTY_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'swimbait-colors-clear',
+    family: 'swimbait',
+    when: midClarity,
+    set: { colors: ['natural shad', 'pearl'] },
+    why: MID_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'swimbait-colors-very-clear',
+    family: 'swimbait',
+    when: veryClear,
+    set: { colors: ['translucent shad', 'ghost'] },
+    why: VERY_CLEAR_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'swimbait-cold-front',
+    family: 'swimbait',
+    when: coldFront,
+    set: { retrieve: 'slow: crawl it tight past cover, near the bottom' },
+    why: COLD_FRONT_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'swimbait-cold-front-open',
+    family: 'swimbait',
+    when: (x) => coldFront(x) && openOnly(x),
+    set: { retrieve: 'slow: crawl it near the bottom along breaks and points' },
+    why: COLD_FRONT_OPEN_WHY,
+    source: 'common practice',
+  },
 
   // Bladed jig
   {
@@ -423,6 +795,46 @@ export const TACKLE_RULES: TackleRule[] = [
     when: (x) => has(x, 'wood'),
     fit: -1,
     why: 'It snags in laydowns more than a spinnerbait does.',
+    source: 'common practice',
+  },
+  {
+    id: 'bladed-jig-dense-grass',
+    family: 'bladed jig',
+    when: (x) => has(x, 'dense-grass'),
+    fit: -1.5,
+    why: 'Blade baits foul in dense grass; they are best over sparse grass and rock.',
+    source: 'common practice',
+  },
+  {
+    id: 'bladed-jig-stained',
+    family: 'bladed jig',
+    when: dirty,
+    set: { colors: ['white', 'chartreuse', 'black and blue'] },
+    why: DIRTY_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'bladed-jig-colors-clear',
+    family: 'bladed jig',
+    when: midClarity,
+    set: { colors: ['white', 'shad'] },
+    why: MID_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'bladed-jig-colors-very-clear',
+    family: 'bladed jig',
+    when: veryClear,
+    set: { colors: ['translucent shad', 'natural shad'] },
+    why: VERY_CLEAR_COLORS_WHY,
+    source: 'common practice',
+  },
+  {
+    id: 'bladed-jig-cold-front',
+    family: 'bladed jig',
+    when: coldFront,
+    set: { retrieve: 'slow: crawl it along the grass tops and pause at the edges' },
+    why: COLD_FRONT_WHY,
     source: 'common practice',
   },
 ]
