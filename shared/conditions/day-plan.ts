@@ -264,6 +264,7 @@ export function planForBanks(
       sky: weather.sky,
       cover: best?.cover ?? opts.lakeCover ?? ['open'],
       depthM: best?.depthM,
+      coldFrontPassed: weather.coldFront !== null,
     })
     return { ...w, banks: ranked, tackle, cautions: windowCautions, verdict }
   })

@@ -1,4 +1,5 @@
 import type { ClarityClass } from './clarity'
+import { WIND_MS } from './safety'
 import type { SeasonalPhase } from './season'
 
 export const COVERS = ['wood', 'sparse-grass', 'dense-grass', 'rock', 'docks', 'open'] as const
@@ -70,9 +71,9 @@ export const SURFACE_BREAKING_WIND_MS = 2.5
 const breezy = (x: TackleInput) => x.windMs >= SURFACE_BREAKING_WIND_MS
 /**
  * Sustained wind at or above which no bait is worth the risk: the lower bound of WMO Beaufort
- * force 6 ("strong breeze", 22 kt), which the safety code calls a danger for small boats.
+ * force 6 ("strong breeze", 22 kt), where the wind caution calls a danger for small boats.
  */
-export const NO_FISHING_WIND_MS = 10.8
+export const NO_FISHING_WIND_MS = WIND_MS.danger
 /** The prime blade-bait depth a cast off the bank: about 10 ft. */
 export const PRIME_DEPTH_M = 3
 /** Deep enough, well past the prime depth, that a blade bait is slow-rolled along the bottom. */

@@ -9,6 +9,7 @@ import {
   type WindowPlan,
 } from '../../../shared/conditions/day-plan'
 import { exposureTable } from '../../../shared/conditions/exposure'
+import { waveGrowth } from '../../../shared/conditions/waves'
 import { DomainError } from '../../../shared/errors'
 import { rankBanks, type Bank } from '../../../shared/conditions/ranking'
 import type { Polygon } from '../../../shared/geo/types'
@@ -98,6 +99,85 @@ describe('rankBanks', () => {
     expect(windward.components.find((c) => c.key === 'safety')!.points).toBe(-3)
     // The sheltered bank wins on a day like that.
     expect(ranked[0]!.id).toBe('e')
+  })
+})
+
+describe('a day in a blow', () => {
+  // A west wind runs the lake's whole 9 km width onto the east bank (CEM EM 1110-2-1100 growth).
+  const pointAndLee: Bank[] = [
+    { ...banks[1]!, id: 'point', name: 'East rock point', depthM: 3 },
+    { id: 'lee', name: 'West flat', points: banks[0]!.points, cover: ['open'], depthM: 9 },
+  ]
+
+  it('ranks a sheltered bank above a prime rock point the blow makes rough, and says why (common practice)', () => {
+    const ranked = rankBanks({
+      lake,
+      banks: pointAndLee,
+      window: { windFromDeg: 270, windMs: 13, gustMs: 18, sky: 'partly' },
+      conditions,
+    })
+    expect(ranked.map((r) => r.id)).toEqual(['lee', 'point'])
+    const point = ranked[1]!
+    expect(point.safety).toBe('danger')
+    expect(point.components.find((c) => c.key === 'safety')!.reason).toMatch(
+      /swamp a small boat: fish sheltered banks first/,
+    )
+  })
+
+  it('keeps a moderate wind onto the rock point a plus: windblown banks are prime for blade baits (common practice)', () => {
+    const ranked = rankBanks({
+      lake,
+      banks: pointAndLee,
+      window: { windFromDeg: 270, windMs: 5, gustMs: 7, sky: 'partly' },
+      conditions,
+    })
+    expect(ranked[0]!.id).toBe('point')
+    expect(ranked[0]!.safety).toBe('ok')
+  })
+
+  // Moderate west wind all day, with two hours of 13 m/s at the start of the midday window.
+  const hours: ForecastHour[] = Array.from({ length: 24 }, (_, h) => ({
+    at: new Date(Date.UTC(2026, 3, 10, 5 + h)).toISOString(),
+    windFromDeg: 270,
+    windMs: h === 10 || h === 11 ? 13 : 4,
+    gustMs: h === 10 || h === 11 ? 18 : 6,
+    airC: 18,
+    relativeHumidityPct: 60,
+    cloudCoverPct: 40,
+    thunderstormProbabilityPct: 0,
+  }))
+  const plan = dayPlan({
+    lake,
+    date: '2026-04-10',
+    timeZone: 'America/Chicago',
+    banks: pointAndLee,
+    hourly: hours,
+    waterC: 13,
+    secchiM: 0.5,
+    phase: 'pre-spawn',
+  })
+  const midday = plan.windows.find((w) => w.id === 'midday')!
+
+  it('raises waves from the worst hour: two hours at 13 m/s over 9 km make 0.6 m, not the average’s 0.2 m (CEM II-2-36)', () => {
+    const chord = 9_100
+    expect(midday.openWaterWaveM).toBeCloseTo(waveGrowth(13, chord).heightM, 1)
+    expect(midday.openWaterWaveM).toBeGreaterThanOrEqual(0.55)
+    expect(midday.weather!.windMs).toBeLessThan(7)
+    expect(midday.weather!.peak.windMs).toBe(13)
+  })
+
+  it('says plainly not to launch in a no-go window, and ranks no banks or tackle there (WMO Beaufort force 6)', () => {
+    expect(midday.verdict!.verdict).toBe('no-go')
+    expect(midday.verdict!.reasons[0]).toMatch(/^Wind 25 kt/)
+    expect(midday.banks).toEqual([])
+    expect(midday.tackle).toEqual([])
+    expect(midday.cautions[0]!.message).toMatch(/Do not launch/)
+    // The calm dawn is still a fishing window, and the day is a no-go because of its midday.
+    const dawn = plan.windows.find((w) => w.id === 'dawn')!
+    expect(dawn.verdict!.verdict).not.toBe('no-go')
+    expect(dawn.banks.length).toBe(2)
+    expect(plan.verdict.verdict).toBe('no-go')
+    expect(plan.cautions.find((c) => c.kind === 'wind')!.headline).toMatch(/^Midday: Wind 25 kt/)
   })
 })
 
