@@ -1,3 +1,4 @@
+import { SHORE_SNAP_M } from '../../../shared/conditions/bank-stretch'
 import { exposureTable } from '../../../shared/conditions/exposure'
 import { DomainError } from '../../../shared/errors'
 import { shoreIndex } from '../../../shared/geo/fetch'
@@ -7,7 +8,7 @@ import { HttpError } from '../../http/errors'
 import type { BankRow, BankValues, BanksRepo } from './banks.repo'
 
 /** A picked point this close to the shore counts as on it, and is moved onto it. */
-export const SNAP_M = 40
+export const SNAP_M = SHORE_SNAP_M
 
 const invalid = (field: string, message: string) =>
   new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
@@ -43,7 +44,7 @@ function withExposure(shoreline: LakeGeometry, input: BankInput): BankValues {
     // Saved again on today's shore, a bank flagged by a new outline is whole again.
     return { ...input, points, exposure: exposureTable(shoreline, points), detachedAt: null }
   } catch (err) {
-    // Points that snap too close together make no bank to face the water from.
+    // Points too close together, on two shores, or too far apart along one make no bank.
     if (err instanceof DomainError) throw invalid('points', err.message)
     throw err
   }
