@@ -122,6 +122,48 @@ describe('banks', () => {
     await angler.post('/api/lakes/no-such-lake/banks').send(bank()).expect(404)
   })
 
+  it('refuses a bank that jumps to an island or runs too far along the shore, saying what to do', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'stray-tap@example.test')
+    // A stray tap snapped to an island between two on the main shore.
+    const island = shoreline.coordinates[1]![0]!
+    const jump = await angler
+      .post('/api/lakes/quillmere/banks')
+      .send(bank({ points: [nearShore(10), island, nearShore(13)] }))
+      .expect(400)
+    expect(jump.body.error.fields.points).toMatch(
+      /same stretch of shore; point 2 jumps to an island\. Pick points along one shore, within 1\.5 km/,
+    )
+    const index = shoreIndex(shoreline)
+    const far = [nearShore(10), nearShore(120)]
+    const [a, b] = far.map((p) => index.locate(p, 40)!.alongM)
+    expect(Math.abs(b! - a!)).toBeGreaterThan(1500)
+    const long = await angler
+      .post('/api/lakes/quillmere/banks')
+      .send(bank({ points: far }))
+      .expect(400)
+    expect(long.body.error.fields.points).toMatch(/km along it\. Pick points along one shore/)
+    expect((await angler.get('/api/lakes/quillmere/banks').expect(200)).body.items).toEqual([])
+  })
+
+  it('faces a bank the same way whichever end was picked first', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'either-end@example.test')
+    const points = [nearShore(40), nearShore(43), nearShore(47)]
+    const there = BankView.parse(
+      (await angler.post('/api/lakes/quillmere/banks').send(bank({ points })).expect(201)).body,
+    )
+    const back = BankView.parse(
+      (
+        await angler
+          .post('/api/lakes/quillmere/banks')
+          .send(bank({ name: 'Back again', points: [...points].reverse() }))
+          .expect(201)
+      ).body,
+    )
+    expect(back.exposure.facingDeg).toBeCloseTo(there.exposure.facingDeg, 6)
+  })
+
   it('edits a bank (new points, new exposure) and deletes it', async () => {
     const app = testApp(ctx.db)
     const angler = await signedInAgent(app, ctx.db, 'editor@example.test')
