@@ -3,11 +3,13 @@ import type { Logger } from '../server/logger'
 import { INGEST_READINGS_CRON, runIngestReadings } from './ingest-readings'
 import { INGEST_WEATHER_CRON, runIngestWeather } from './ingest-weather'
 import type { JobContext } from './cli'
+import { runRecomputeBanks } from './recompute-banks'
 import { runSendBriefs, SEND_BRIEFS_CRON } from './send-briefs'
 
 /**
- * The in-process schedule. Every instance may run it: each job takes a PostgreSQL advisory lock,
- * so only one instance does the work of a given run.
+ * The in-process schedule, after one run at start of the jobs that bring stored rows up to this
+ * version of the app (`recompute-banks`). Every instance may run it: each job takes a PostgreSQL
+ * advisory lock, so only one instance does the work of a given run.
  */
 export function startScheduler(ctx: JobContext): { stop: () => Promise<void> } {
   // Runs in flight, so that stopping waits for them before the pool under them ends.
@@ -29,6 +31,7 @@ export function startScheduler(ctx: JobContext): { stop: () => Promise<void> } {
     ['ingest-weather', INGEST_WEATHER_CRON, () => runIngestWeather(ctx)],
     ['send-briefs', SEND_BRIEFS_CRON, () => runSendBriefs(ctx)],
   ]
+  void guarded('recompute-banks', ctx.log, () => runRecomputeBanks(ctx))()
   const tasks = jobs.map(([name, expression, run]) =>
     cron.schedule(expression, guarded(name, ctx.log, run), { name, noOverlap: true }),
   )

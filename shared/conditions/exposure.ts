@@ -1,7 +1,8 @@
 import { assertFinite, DomainError } from '../errors'
 import { effectiveFetch, fetchLength, shoreIndex } from '../geo/fetch'
-import { inWaterXy, lakeCenter } from '../geo/polygon'
+import { lakeCenter } from '../geo/polygon'
 import type { LakeGeometry, Position } from '../geo/types'
+import { bankStretch } from './bank-stretch'
 import { waveGrowth } from './waves'
 
 /** cos of the angle between where the bank looks out and where the wind comes from: 1 onto the bank, -1 off it. */
@@ -42,8 +43,17 @@ export interface ExposureRow {
   effectiveFetchM: number
 }
 
+/**
+ * How the tables made now are computed. 1 (no `version`): facing square to the first and last
+ * points picked, so a bank could face either way by the order it was picked in. 2: facing from
+ * the shore the bank lies along (`bankFacing`).
+ */
+export const EXPOSURE_TABLE_VERSION = 2
+
 /** What the server stores for each saved bank, so a day plan never recomputes geometry. */
 export interface ExposureTable {
+  /** Absent on tables stored before versions were kept: version 1. */
+  version?: number
   point: Position
   facingDeg: number
   rows: ExposureRow[]
@@ -73,27 +83,24 @@ export function bankMidpoint(points: Position[]): Position {
 }
 
 /**
- * The true bearing a bank looks out over the water: square to the line from its first to its last
- * point, on the side where the water is.
+ * The true bearing a bank looks out over the water, from the shore itself: the stretch of ring
+ * its points cover (`bankStretch`), and the outward normal of that stretch — the edges' normals
+ * averaged by length, which is the left normal of the chord from the stretch's start to its end,
+ * since water lies left of every oriented edge. The order the points were picked in plays no part.
  */
 export function bankFacing(lake: LakeGeometry, points: Position[]): number {
-  if (points.length < 2)
-    throw new DomainError('invalid_geometry', 'A bank needs at least two points.', 'points')
+  const stretch = bankStretch(lake, points)
   const index = shoreIndex(lake)
-  const { project } = index.projection
-  const a = project(points[0]!)
-  const b = project(points[points.length - 1]!)
-  const m = project(bankMidpoint(points))
-  const len = Math.hypot(b[0] - a[0], b[1] - a[1])
-  if (len < 1)
-    throw new DomainError('invalid_geometry', 'A bank must be at least 1 m long.', 'points')
-  // Left normal of a -> b, then flip it if that side is land.
-  let nx = -(b[1] - a[1]) / len
-  let ny = (b[0] - a[0]) / len
-  if (!inWaterXy(index.rings, [m[0] + nx * 5, m[1] + ny * 5])) {
-    nx = -nx
-    ny = -ny
+  let [a, b] = [stretch.start, stretch.end]
+  // A bank almost all the way round an island has ends too close to say: face out from its middle.
+  if (Math.hypot(b[0] - a[0], b[1] - a[1]) < 1) {
+    const middleM = stretch.fromM + stretch.lengthM / 2
+    a = index.pointAlong(stretch.ring, middleM - 0.5)
+    b = index.pointAlong(stretch.ring, middleM + 0.5)
   }
+  const len = Math.hypot(b[0] - a[0], b[1] - a[1])
+  const nx = -(b[1] - a[1]) / len
+  const ny = (b[0] - a[0]) / len
   // On the tangent plane near the lake, grid and true north differ by well under a degree.
   const north = index.projection.bearingVector(bankMidpoint(points), 0)
   const east: [number, number] = [north[1], -north[0]]
@@ -105,6 +112,7 @@ export function bankFacing(lake: LakeGeometry, points: Position[]): number {
 export function exposureTable(lake: LakeGeometry, points: Position[]): ExposureTable {
   const point = bankMidpoint(points)
   return {
+    version: EXPOSURE_TABLE_VERSION,
     point,
     facingDeg: bankFacing(lake, points),
     rows: COMPASS_16.map((windFromDeg) => ({

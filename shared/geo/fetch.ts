@@ -11,6 +11,17 @@ const FIRST_STRETCH_M = 500
 /** Small tree nodes: a short stretch of ray then tests few edges it does not touch. */
 const NODE_SIZE = 8
 
+/** Where a point lies on the shore: its edge, the fraction along it, and the metres along the ring. */
+export interface ShorePlace {
+  edge: number
+  f: number
+  ring: number
+  /** Metres along the ring from its first vertex, in its water-on-the-left direction. */
+  alongM: number
+  /** How far the located point was from this place. */
+  distanceM: number
+}
+
 /**
  * A lake ready for ray casting: every shoreline and island edge on the lake's tangent plane,
  * in a Flatbush R-tree so a radial only tests the edges near it.
@@ -25,6 +36,16 @@ export class ShoreIndex {
   readonly tree: Flatbush
   /** Diagonal of the lake's bounding box: no fetch is longer. */
   readonly spanM: number
+  /** The ring each edge belongs to (an index into `rings`). */
+  readonly edgeRing: Uint32Array
+  /** Metres along its ring at the start of each edge. */
+  readonly edgeAlongM: Float64Array
+  /** The first edge of each ring; a ring's edges follow one another in its oriented order. */
+  readonly ringFirstEdge: number[]
+  /** Each ring's length in metres. */
+  readonly ringLengthM: number[]
+  /** Whether each ring is an island's (the water lies outside it) rather than a shoreline. */
+  readonly ringIsIsland: boolean[]
 
   // Scratch state for the tree's visitor callbacks, so casting a radial allocates nothing.
   private ox = 0
@@ -43,25 +64,37 @@ export class ShoreIndex {
     const oriented = polygonsOf(lake).flatMap((polygon) =>
       polygon.map((ring, i) => {
         const xy = ring.map(project)
-        return ringAreaXy(xy) > 0 === (i === 0)
-          ? { xy, lonLat: ring }
-          : { xy: xy.reverse(), lonLat: [...ring].reverse() }
+        const island = i > 0
+        return ringAreaXy(xy) > 0 === !island
+          ? { xy, lonLat: ring, island }
+          : { xy: xy.reverse(), lonLat: [...ring].reverse(), island }
       }),
     )
     this.rings = oriented.map((r) => r.xy)
+    this.ringIsIsland = oriented.map((r) => r.island)
     const count = this.rings.reduce((n, r) => n + r.length - 1, 0)
     this.edges = new Float64Array(count * 4)
     this.edgesLonLat = new Float64Array(count * 4)
+    this.edgeRing = new Uint32Array(count)
+    this.edgeAlongM = new Float64Array(count)
+    this.ringFirstEdge = []
+    this.ringLengthM = []
     this.tree = new Flatbush(count, NODE_SIZE)
     let k = 0
-    for (const { xy, lonLat } of oriented) {
+    for (const [r, { xy, lonLat }] of oriented.entries()) {
+      this.ringFirstEdge.push(k)
+      let along = 0
       for (let i = 0; i + 1 < xy.length; i++) {
         const [x1, y1] = xy[i]!
         const [x2, y2] = xy[i + 1]!
         this.edgesLonLat.set([...lonLat[i]!, ...lonLat[i + 1]!], k * 4)
+        this.edgeRing[k] = r
+        this.edgeAlongM[k] = along
+        along += Math.hypot(x2 - x1, y2 - y1)
         this.edges.set([x1, y1, x2, y2], k++ * 4)
         this.tree.add(Math.min(x1, x2), Math.min(y1, y2), Math.max(x1, x2), Math.max(y1, y2))
       }
+      this.ringLengthM.push(along)
     }
     this.tree.finish()
     this.spanM = Math.hypot(this.tree.maxX - this.tree.minX, this.tree.maxY - this.tree.minY)
@@ -205,11 +238,10 @@ export class ShoreIndex {
   }
 
   /**
-   * The nearest point on any shore (islands included) within `maxM` metres of `point`, with its
-   * distance; null when no shore is that close. Edges are short, so the point found on the plane
-   * maps back to WGS84 by its fraction along the edge.
+   * Where on any shore (islands included) the point nearest `point` lies, within `maxM` metres;
+   * null when no shore is that close.
    */
-  nearestShorePoint(point: Position, maxM: number): { point: Position; distanceM: number } | null {
+  locate(point: Position, maxM: number): ShorePlace | null {
     const [ox, oy] = this.projection.project(point)
     let best: { distanceM: number; edge: number; f: number } | null = null
     for (const e of this.tree.neighbors(ox, oy, Infinity, maxM)) {
@@ -224,11 +256,53 @@ export class ShoreIndex {
         best = { distanceM, edge: e, f }
     }
     if (!best) return null
-    const [lon1, lat1, lon2, lat2] = this.edgesLonLat.subarray(best.edge * 4, best.edge * 4 + 4)
+    const { edge, f } = best
+    const edgeM = Math.hypot(
+      this.edges[edge * 4 + 2]! - this.edges[edge * 4]!,
+      this.edges[edge * 4 + 3]! - this.edges[edge * 4 + 1]!,
+    )
     return {
-      point: [lon1! + best.f * (lon2! - lon1!), lat1! + best.f * (lat2! - lat1!)],
-      distanceM: best.distanceM,
+      ...best,
+      ring: this.edgeRing[edge]!,
+      alongM: this.edgeAlongM[edge]! + f * edgeM,
     }
+  }
+
+  /**
+   * The nearest point on any shore (islands included) within `maxM` metres of `point`, with its
+   * distance; null when no shore is that close. Edges are short, so the point found on the plane
+   * maps back to WGS84 by its fraction along the edge.
+   */
+  nearestShorePoint(point: Position, maxM: number): { point: Position; distanceM: number } | null {
+    const place = this.locate(point, maxM)
+    if (!place) return null
+    const { edge, f } = place
+    const [lon1, lat1, lon2, lat2] = this.edgesLonLat.subarray(edge * 4, edge * 4 + 4)
+    return {
+      point: [lon1! + f * (lon2! - lon1!), lat1! + f * (lat2! - lat1!)],
+      distanceM: place.distanceM,
+    }
+  }
+
+  /** The point `alongM` metres along ring `ring` (wrapping past its end), on the lake's plane. */
+  pointAlong(ring: number, alongM: number): Xy {
+    const length = this.ringLengthM[ring]!
+    const m = ((alongM % length) + length) % length
+    // Binary search for the last edge of the ring that starts at or before m.
+    let lo = this.ringFirstEdge[ring]!
+    let hi = (this.ringFirstEdge[ring + 1] ?? this.edgeRing.length) - 1
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1
+      if (this.edgeAlongM[mid]! <= m) lo = mid
+      else hi = mid - 1
+    }
+    const x1 = this.edges[lo * 4]!
+    const y1 = this.edges[lo * 4 + 1]!
+    const ex = this.edges[lo * 4 + 2]! - x1
+    const ey = this.edges[lo * 4 + 3]! - y1
+    const len = Math.hypot(ex, ey)
+    const f = len ? Math.min(1, (m - this.edgeAlongM[lo]!) / len) : 0
+    return [x1 + f * ex, y1 + f * ey]
   }
 
   /**

@@ -40,6 +40,8 @@ export const BankInput = z.object({
 export type BankInput = z.infer<typeof BankInput>
 
 export const ExposureTableView = z.object({
+  /** How the table was computed (`EXPOSURE_TABLE_VERSION`); absent on the oldest tables. */
+  version: z.number().int().optional(),
   point: Position,
   facingDeg: z.number(),
   rows: z.array(

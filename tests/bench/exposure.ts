@@ -1,12 +1,13 @@
 import { performance } from 'node:perf_hooks'
-import { COMPASS_16 } from '../../shared/conditions/exposure'
+import { bankFacing, COMPASS_16 } from '../../shared/conditions/exposure'
 import { EFFECTIVE_FETCH_OFFSETS_DEG, shoreIndex } from '../../shared/geo/fetch'
 import type { Position } from '../../shared/geo/types'
 import { DEMO_LAKES, demoShoreline } from '../../server/db/seed/demo-lakes'
 
 /**
  * Fetch and effective fetch for 1,000 banks x 16 directions on a 2,400-vertex lake with 10 islands,
- * through the R-tree; the baseline is the same radials scanning every edge, timed in the same run.
+ * through the R-tree, and each bank's facing from the shore; the baseline is the same radials
+ * scanning every edge, timed in the same run. The target covers radials and facings together.
  */
 const TARGET_MS = 1000
 const shape = {
@@ -42,6 +43,16 @@ for (const bank of banks) {
 const indexedMs = performance.now() - t1
 const radials = banks.length * radialsPerBank
 
+// Each bank as a stretch of five shore vertices (about 100 m), picked in reverse every other time.
+const t3 = performance.now()
+for (let i = 0; i < banks.length; i++) {
+  const at = Math.floor((i * (shore.length - 6)) / banks.length)
+  const points = [shore[at]!, shore[at + 2]!, shore[at + 5]!]
+  checksum += bankFacing(lake, i % 2 ? points.reverse() : points) / 360
+}
+const facingMs = performance.now() - t3
+const tablesMs = indexedMs + facingMs
+
 // Baseline: the naive first-hit scan for a tenth of the banks, scaled up.
 const sample = banks.filter((_, i) => i % 10 === 0)
 const t2 = performance.now()
@@ -61,6 +72,8 @@ const rows = [
   ['radials', radials],
   ['index build (ms)', buildMs.toFixed(1)],
   ['R-tree fetch + effective fetch (ms)', indexedMs.toFixed(0)],
+  ['bank facing from the shore (ms)', facingMs.toFixed(1)],
+  ['exposure tables in all (ms)', tablesMs.toFixed(0)],
   ['naive edge scan, same radials (ms, est.)', naiveMs.toFixed(0)],
   ['naive / R-tree', (naiveMs / indexedMs).toFixed(1)],
   ['target (ms)', `< ${TARGET_MS}`],
@@ -75,10 +88,12 @@ console.log(
     directions: COMPASS_16.length,
     radials,
     indexedMs: Math.round(indexedMs),
+    facingMs: Math.round(facingMs),
+    tablesMs: Math.round(tablesMs),
     naiveMs: Math.round(naiveMs),
     ratioNaiveToIndexed: Number((naiveMs / indexedMs).toFixed(2)),
     targetMs: TARGET_MS,
-    pass: indexedMs < TARGET_MS,
+    pass: tablesMs < TARGET_MS,
     checksum: Math.round(checksum),
   }),
 )

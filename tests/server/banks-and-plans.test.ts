@@ -1,4 +1,5 @@
 import { eq, sql } from 'drizzle-orm'
+import { pino } from 'pino'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { exposureTable } from '../../shared/conditions/exposure'
@@ -8,7 +9,8 @@ import { BankList, BankView, type BankInput } from '../../shared/schemas/banks'
 import { DayPlanResponse } from '../../shared/schemas/day-plan'
 import { LakeRead } from '../../shared/schemas/lake-read'
 import { localDate, addDays } from '../../shared/time'
-import { lakeDays, lakes } from '../../server/db/schema/index'
+import { runRecomputeBanks } from '../../jobs/recompute-banks'
+import { banks, lakeDays, lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
@@ -122,6 +124,48 @@ describe('banks', () => {
     await angler.post('/api/lakes/no-such-lake/banks').send(bank()).expect(404)
   })
 
+  it('refuses a bank that jumps to an island or runs too far along the shore, saying what to do', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'stray-tap@example.test')
+    // A stray tap snapped to an island between two on the main shore.
+    const island = shoreline.coordinates[1]![0]!
+    const jump = await angler
+      .post('/api/lakes/quillmere/banks')
+      .send(bank({ points: [nearShore(10), island, nearShore(13)] }))
+      .expect(400)
+    expect(jump.body.error.fields.points).toMatch(
+      /same stretch of shore; point 2 jumps to an island\. Pick points along one shore, within 1\.5 km/,
+    )
+    const index = shoreIndex(shoreline)
+    const far = [nearShore(10), nearShore(120)]
+    const [a, b] = far.map((p) => index.locate(p, 40)!.alongM)
+    expect(Math.abs(b! - a!)).toBeGreaterThan(1500)
+    const long = await angler
+      .post('/api/lakes/quillmere/banks')
+      .send(bank({ points: far }))
+      .expect(400)
+    expect(long.body.error.fields.points).toMatch(/km along it\. Pick points along one shore/)
+    expect((await angler.get('/api/lakes/quillmere/banks').expect(200)).body.items).toEqual([])
+  })
+
+  it('faces a bank the same way whichever end was picked first', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'either-end@example.test')
+    const points = [nearShore(40), nearShore(43), nearShore(47)]
+    const there = BankView.parse(
+      (await angler.post('/api/lakes/quillmere/banks').send(bank({ points })).expect(201)).body,
+    )
+    const back = BankView.parse(
+      (
+        await angler
+          .post('/api/lakes/quillmere/banks')
+          .send(bank({ name: 'Back again', points: [...points].reverse() }))
+          .expect(201)
+      ).body,
+    )
+    expect(back.exposure.facingDeg).toBeCloseTo(there.exposure.facingDeg, 6)
+  })
+
   it('edits a bank (new points, new exposure) and deletes it', async () => {
     const app = testApp(ctx.db)
     const angler = await signedInAgent(app, ctx.db, 'editor@example.test')
@@ -140,6 +184,50 @@ describe('banks', () => {
     expect(moved.exposure.facingDeg).not.toBeCloseTo(first.exposure.facingDeg, 0)
     await angler.delete(`/api/lakes/quillmere/banks/${first.id}`).expect(204)
     await angler.delete(`/api/lakes/quillmere/banks/${first.id}`).expect(404)
+  })
+})
+
+describe('banks stored by an older engine', () => {
+  it('get their exposure table made again at start; a bank across two shores is flagged to redraw', async () => {
+    const app = testApp(ctx.db)
+    const angler = await signedInAgent(app, ctx.db, 'old-timer@example.test')
+    const save = async (name: string, points: Position[]) =>
+      BankView.parse(
+        (await angler.post('/api/lakes/quillmere/banks').send(bank({ name, points })).expect(201))
+          .body,
+      )
+    const kept = await save('Old rocks', [nearShore(60), nearShore(64)])
+    const straddling = await save('Old straddle', [nearShore(20), nearShore(23)])
+    const current = await save('New rocks', [nearShore(90), nearShore(94)])
+    // As version 1 stored them: no version, and a facing turned round by the order of the picks.
+    const island = shoreline.coordinates[1]![0]!
+    const old = sql`(${banks.exposure} - 'version') || jsonb_build_object('facingDeg', ((${banks.exposure}->>'facingDeg')::float + 180)::numeric % 360)`
+    await ctx.db
+      .update(banks)
+      .set({ exposure: old })
+      .where(sql`${banks.id} in (${kept.id}, ${straddling.id})`)
+    await ctx.db
+      .update(banks)
+      .set({ points: [straddling.points[0]!, island] })
+      .where(eq(banks.id, straddling.id))
+    const before = await ctx.db.select().from(banks).where(eq(banks.id, kept.id))
+    expect(before[0]!.exposure.facingDeg).not.toBeCloseTo(kept.exposure.facingDeg, 0)
+
+    const log = pino({ level: 'silent' })
+    const run = await runRecomputeBanks({ db: ctx.db, log })
+    expect(run).toEqual({ skipped: false, result: { recomputed: 1, flagged: 1 } })
+    const list = BankList.parse((await angler.get('/api/lakes/quillmere/banks').expect(200)).body)
+    const byName = new Map(list.items.map((b) => [b.name, b]))
+    expect(byName.get('Old rocks')!.exposure).toEqual(kept.exposure)
+    // A recompute is not the angler's edit.
+    expect(byName.get('Old rocks')!.updatedAt).toBe(before[0]!.updatedAt.toISOString())
+    expect(byName.get('Old straddle')!.detached).toBe(true)
+    expect(byName.get('New rocks')).toEqual(current)
+    // Nothing is left to do on the next start.
+    expect(await runRecomputeBanks({ db: ctx.db, log })).toEqual({
+      skipped: false,
+      result: { recomputed: 0, flagged: 0 },
+    })
   })
 })
 

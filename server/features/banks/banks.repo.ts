@@ -1,4 +1,5 @@
-import { and, asc, eq, ne } from 'drizzle-orm'
+import { and, asc, eq, inArray, isNull, ne, sql } from 'drizzle-orm'
+import type { ExposureTable } from '../../../shared/conditions/exposure'
 import type { Db } from '../../db/index'
 import { banks, lakes } from '../../db/schema/index'
 
@@ -8,6 +9,11 @@ export type BankValues = Omit<typeof banks.$inferInsert, 'id' | 'userId' | 'lake
 export function banksRepo(db: Db) {
   const owned = (userId: string, lakeId: string, id: string) =>
     and(eq(banks.id, id), eq(banks.userId, userId), eq(banks.lakeId, lakeId))
+  // Tables stored before they carried a version are version 1.
+  const olderThan = (version: number) =>
+    sql`coalesce((${banks.exposure}->>'version')::int, 1) < ${version}`
+  // A recompute is not the angler's edit: the bank keeps its updated_at.
+  const unedited = { updatedAt: sql`${banks.updatedAt}` }
   return {
     async lake(slug: string) {
       const [row] = await db
@@ -60,6 +66,37 @@ export function banksRepo(db: Db) {
         .returning({ id: banks.id })
       return gone.length > 0
     },
+
+    /** Lakes with banks, not flagged to redraw, whose exposure table is older than `version`. */
+    lakesWithOldExposure: (version: number) =>
+      db
+        .select({ id: lakes.id, shoreline: lakes.shoreline })
+        .from(lakes)
+        .where(
+          inArray(
+            lakes.id,
+            db
+              .select({ id: banks.lakeId })
+              .from(banks)
+              .where(and(isNull(banks.detachedAt), olderThan(version))),
+          ),
+        ),
+    oldExposure: (lakeId: string, version: number) =>
+      db
+        .select({ id: banks.id, points: banks.points })
+        .from(banks)
+        .where(and(eq(banks.lakeId, lakeId), isNull(banks.detachedAt), olderThan(version))),
+    /** Unless the angler saved the bank again meanwhile (with a table of today's version). */
+    saveExposure: (id: string, exposure: ExposureTable, version: number) =>
+      db
+        .update(banks)
+        .set({ exposure, ...unedited })
+        .where(and(eq(banks.id, id), olderThan(version))),
+    flagToRedraw: (id: string, at: Date, version: number) =>
+      db
+        .update(banks)
+        .set({ detachedAt: at, ...unedited })
+        .where(and(eq(banks.id, id), olderThan(version))),
   }
 }
 export type BanksRepo = ReturnType<typeof banksRepo>

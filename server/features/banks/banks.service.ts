@@ -1,4 +1,9 @@
-import { exposureTable } from '../../../shared/conditions/exposure'
+import { SHORE_SNAP_M } from '../../../shared/conditions/bank-stretch'
+import {
+  EXPOSURE_TABLE_VERSION,
+  exposureTable,
+  type ExposureTable,
+} from '../../../shared/conditions/exposure'
 import { DomainError } from '../../../shared/errors'
 import { shoreIndex } from '../../../shared/geo/fetch'
 import type { LakeGeometry } from '../../../shared/geo/types'
@@ -7,7 +12,7 @@ import { HttpError } from '../../http/errors'
 import type { BankRow, BankValues, BanksRepo } from './banks.repo'
 
 /** A picked point this close to the shore counts as on it, and is moved onto it. */
-export const SNAP_M = 40
+export const SNAP_M = SHORE_SNAP_M
 
 const invalid = (field: string, message: string) =>
   new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
@@ -43,10 +48,39 @@ function withExposure(shoreline: LakeGeometry, input: BankInput): BankValues {
     // Saved again on today's shore, a bank flagged by a new outline is whole again.
     return { ...input, points, exposure: exposureTable(shoreline, points), detachedAt: null }
   } catch (err) {
-    // Points that snap too close together make no bank to face the water from.
+    // Points too close together, on two shores, or too far apart along one make no bank.
     if (err instanceof DomainError) throw invalid('points', err.message)
     throw err
   }
+}
+
+/**
+ * Brings every stored exposure table up to `EXPOSURE_TABLE_VERSION`, lake by lake, from the bank's
+ * stored points. A bank today's rules refuse (points on two shores, or more than 1.5 km along one)
+ * keeps its old table and is flagged for its angler to pick again; banks already flagged wait for
+ * their angler.
+ */
+export async function recomputeOldExposure(repo: BanksRepo, now = () => new Date()) {
+  let recomputed = 0
+  let flagged = 0
+  for (const lake of await repo.lakesWithOldExposure(EXPOSURE_TABLE_VERSION)) {
+    for (const bank of await repo.oldExposure(lake.id, EXPOSURE_TABLE_VERSION)) {
+      let exposure: ExposureTable | null = null
+      try {
+        exposure = exposureTable(lake.shoreline, bank.points)
+      } catch (err) {
+        if (!(err instanceof DomainError)) throw err
+      }
+      if (exposure) {
+        await repo.saveExposure(bank.id, exposure, EXPOSURE_TABLE_VERSION)
+        recomputed++
+      } else {
+        await repo.flagToRedraw(bank.id, now(), EXPOSURE_TABLE_VERSION)
+        flagged++
+      }
+    }
+  }
+  return { recomputed, flagged }
 }
 
 export function banksService(repo: BanksRepo) {

@@ -199,4 +199,21 @@ describe('nearestShorePoint', () => {
   it('gives null for a point farther than the limit from every shore', () => {
     expect(index.nearestShorePoint([-90.08, 45.01], 40)).toBeNull()
   })
+
+  it('tells which ring a shore point is on and how far along it, and finds it again there', () => {
+    const onIsland = index.locate([-90.06, 45.025], 1)!
+    expect(index.ringIsIsland[onIsland.ring]).toBe(true)
+    const onShore = index.locate([-90.1, 45.013], 1)!
+    expect(index.ringIsIsland[onShore.ring]).toBe(false)
+    for (const place of [onIsland, onShore]) {
+      const [x, y] = index.pointAlong(place.ring, place.alongM)
+      const [ex, ey] = index.pointAlong(place.ring, place.alongM + index.ringLengthM[place.ring]!)
+      const e = place.edge * 4
+      const f = place.f
+      const ox = index.edges[e]! + f * (index.edges[e + 2]! - index.edges[e]!)
+      const oy = index.edges[e + 1]! + f * (index.edges[e + 3]! - index.edges[e + 1]!)
+      expect(Math.hypot(x - ox, y - oy)).toBeLessThan(1e-6)
+      expect(Math.hypot(ex - ox, ey - oy)).toBeLessThan(1e-6)
+    }
+  })
 })
