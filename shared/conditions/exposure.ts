@@ -46,9 +46,11 @@ export interface ExposureRow {
 /**
  * How the tables made now are computed. 1 (no `version`): facing square to the first and last
  * points picked, so a bank could face either way by the order it was picked in. 2: facing from
- * the shore the bank lies along (`bankFacing`).
+ * the shore the bank lies along (`bankFacing`). 3: fetch measured from the middle of that stretch,
+ * a step into the water (the middle of the points picked round a point or island lies on land,
+ * where every fetch is 0 and the bank read lee in any wind).
  */
-export const EXPOSURE_TABLE_VERSION = 2
+export const EXPOSURE_TABLE_VERSION = 3
 
 /** What the server stores for each saved bank, so a day plan never recomputes geometry. */
 export interface ExposureTable {
@@ -109,8 +111,26 @@ export function bankFacing(lake: LakeGeometry, points: Position[]): number {
   return (deg + 360) % 360
 }
 
+/** Where a bank's fetch is measured from: its stretch's middle on the shore, a step into the water. */
+function fetchOrigin(lake: LakeGeometry, points: Position[]): Position {
+  const stretch = bankStretch(lake, points)
+  const index = shoreIndex(lake)
+  const middleM = stretch.fromM + stretch.lengthM / 2
+  const a = index.pointAlong(stretch.ring, middleM - 0.5)
+  const b = index.pointAlong(stretch.ring, middleM + 0.5)
+  const len = Math.hypot(b[0] - a[0], b[1] - a[1]) || 1
+  // Water lies left of the ring's direction; the middle of a chord across a point may be on land.
+  const step = WATER_STEP_M / len
+  return index.projection.unproject([
+    (a[0] + b[0]) / 2 - (b[1] - a[1]) * step,
+    (a[1] + b[1]) / 2 + (b[0] - a[0]) * step,
+  ])
+}
+/** How far into the water from the shore a bank's fetch is measured. */
+const WATER_STEP_M = 2
+
 export function exposureTable(lake: LakeGeometry, points: Position[]): ExposureTable {
-  const point = bankMidpoint(points)
+  const point = fetchOrigin(lake, points)
   return {
     version: EXPOSURE_TABLE_VERSION,
     point,

@@ -13,6 +13,8 @@ export interface LocalProjection {
   project: (p: Position) => Xy
   /** Unit vector in the plane along a true bearing (degrees clockwise from north) at p. */
   bearingVector: (p: Position, bearingDeg: number) => Xy
+  /** The position at a point of the plane: `project` inverted by Newton's method. */
+  unproject: (xy: Xy) => Position
 }
 
 function ecef([lon, lat]: Position): [number, number, number] {
@@ -54,5 +56,20 @@ export function localProjection(origin: Position): LocalProjection {
     // East is north turned a right angle clockwise.
     return [Math.cos(b) * nx + Math.sin(b) * ny, Math.cos(b) * ny - Math.sin(b) * nx]
   }
-  return { project, bearingVector }
+  const unproject = ([x, y]: Xy): Position => {
+    let p: Position = [origin[0], origin[1]]
+    // The plane is nearly linear in lon/lat over a lake: three steps reach well under a millimetre.
+    for (let i = 0; i < 3; i++) {
+      const [px, py] = project(p)
+      const [ex, ey] = project([p[0] + 1e-5, p[1]])
+      const [nx, ny] = project([p[0], p[1] + 1e-5])
+      const [a, c] = [(ex - px) / 1e-5, (ey - py) / 1e-5]
+      const [b, d] = [(nx - px) / 1e-5, (ny - py) / 1e-5]
+      const det = a * d - b * c
+      const [dx, dy] = [x - px, y - py]
+      p = [p[0] + (d * dx - b * dy) / det, p[1] + (a * dy - c * dx) / det]
+    }
+    return p
+  }
+  return { project, bearingVector, unproject }
 }

@@ -3,6 +3,7 @@ import {
   bankExposure,
   bankFacing,
   compassName,
+  EXPOSURE_TABLE_VERSION,
   exposureTable,
   onshoreComponent,
 } from '../../../shared/conditions/exposure'
@@ -108,6 +109,15 @@ describe('a bank tapped in either order faces the same water', () => {
     // A north wind blows off the island's south shore; a south wind onto it.
     expect(bankExposure(there, 0, 6).exposure).toBe('lee')
     expect(bankExposure(back, 0, 6).exposure).toBe('lee')
-    expect(there.version).toBe(2)
+    expect(there.version).toBe(EXPOSURE_TABLE_VERSION)
+  })
+
+  it('feels a wind blowing straight onto the point of an island: fetch measured from the water, not the island (geometry, from memory)', () => {
+    // The middle of the line between the two picks lies 6 m inside the island.
+    const table = exposureTable(withIsland, onCircle(islandAt, 400, [170, 190]))
+    const south = bankExposure(table, 180, 6)
+    // About 2.4 km of water lies between the island's south point and the lake's south shore.
+    expect(table.rows.find((r) => r.windFromDeg === 180)!.fetchM).toBeGreaterThan(2_300)
+    expect(south.exposure).toBe('windward')
   })
 })
