@@ -1,4 +1,5 @@
 import { compassName } from './conditions/exposure'
+import { cautionWords, verdictOf, type CautionUnits } from './conditions/safety'
 import type { Settings } from './schemas/settings'
 import { dateTimeFormat } from './time'
 import { cToF, ftToM, mToFt, msToKmh, msToKnots, msToMph } from './units'
@@ -27,6 +28,14 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
   const tempChange = (c: number) =>
     s.temperature === 'F' ? `${((c * 9) / 5).toFixed(1)} °F` : `${c.toFixed(1)} °C`
   const lengthOf = (m: number) => (s.length === 'ft' ? mToFt(m) : m)
+  const speedText = (ms: number) => `${Math.round(toSpeed(ms))} ${speedUnit}`
+  const lengthText = (m: number) => `${lengthOf(m).toFixed(1)} ${s.length}`
+  const cautionUnits: CautionUnits = {
+    speed: speedText,
+    length: lengthText,
+    // A tenth of a degree, as cautions are judged: 49.8 °F reads as a warning, 50.0 °F not.
+    temp: (c) => (s.temperature === 'F' ? `${cToF(c).toFixed(1)} °F` : `${c.toFixed(1)} °C`),
+  }
   return {
     settings: s,
     tempUnit: s.temperature === 'F' ? '°F' : '°C',
@@ -47,13 +56,18 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
         : Math.abs(perDay) < 0.1
           ? 'steady'
           : `${perDay > 0 ? 'warming' : 'cooling'} ${tempChange(Math.abs(perDay))}/day`,
-    length: (m: number) => `${lengthOf(m).toFixed(1)} ${s.length}`,
+    length: lengthText,
     signedLength: (m: number) =>
       `${m >= 0 ? '+' : '−'}${Math.abs(lengthOf(m)).toFixed(1)} ${s.length}`,
     /** Longer distances (fetch): miles with feet, kilometres with metres. */
     distance: (m: number) =>
       s.length === 'ft' ? `${(m / 1609.344).toFixed(1)} mi` : `${(m / 1000).toFixed(1)} km`,
-    speed: (ms: number) => `${Math.round(toSpeed(ms))} ${speedUnit}`,
+    speed: speedText,
+    /** A caution's headline and message in these units. */
+    caution: (c: Parameters<typeof cautionWords>[0]) => cautionWords(c, cautionUnits),
+    /** The verdict of some cautions, its reasons in these units. */
+    verdict: (cautions: Parameters<typeof cautionWords>[0][]) =>
+      verdictOf(cautions.map((c) => ({ ...c, ...cautionWords(c, cautionUnits) }))),
     from: (deg: number) => `from ${compassName(deg)}`,
     time: (iso: string | null, timeZone: string) =>
       iso

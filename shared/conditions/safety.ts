@@ -21,6 +21,8 @@ export interface Caution {
   source: string
   /** For a day's cautions: the windows (ids) this hazard reaches, in the day's order. */
   windows?: string[]
+  /** For a day's cautions: those windows in words ("Midday and afternoon to dusk", "All day"). */
+  when?: string
 }
 
 /**
@@ -221,6 +223,19 @@ function worse(a: Caution, b: Caution): boolean {
   return sign * ((a.value ?? 0) - (b.value ?? 0)) > 0
 }
 
+/** A caution's headline and message in some units; a day's caution keeps the windows it names. */
+export function cautionWords(
+  c: Pick<Caution, 'kind' | 'level' | 'value' | 'gustMs' | 'when' | 'headline' | 'message'>,
+  units: CautionUnits,
+): { headline: string; message: string } {
+  const rule = CAUTION_RULES.find((r) => r.kind === c.kind)
+  if (!rule || c.value === undefined || c.level === 'info')
+    return { headline: c.headline, message: c.message }
+  const bare = rule.headline(c.value, { windMs: c.value, gustMs: c.gustMs }, units)
+  const headline = c.when ? `${c.when}: ${bare}` : bare
+  return { headline, message: `${headline}. ${rule.advice[c.level]}` }
+}
+
 /** Cautions for the worst of the conditions, most serious first, always ending with the deferral to local authority. */
 export function cautions(conditions: CautionInput, units: CautionUnits = BOTH_UNITS): Caution[] {
   assertFinite(conditions.windMs, 'windMs', { min: 0 })
@@ -240,16 +255,14 @@ export function cautions(conditions: CautionInput, units: CautionUnits = BOTH_UN
     const value = rule.value(conditions)
     const level = value === undefined ? null : rule.level(value, conditions)
     if (value === undefined || !level || level === 'info') continue
-    const headline = rule.headline(value, conditions, units)
-    found.push({
+    const caution = {
       kind: rule.kind,
       level,
       value,
       ...(rule.kind === 'wind' && { gustMs: gustOf(conditions) }),
-      headline,
-      message: `${headline}. ${rule.advice[level]}`,
       source: rule.source,
-    })
+    }
+    found.push({ ...caution, ...cautionWords({ ...caution, headline: '', message: '' }, units) })
   }
   found.sort((a, b) => RANK[a.level] - RANK[b.level])
   return [...found, AUTHORITY_CAUTION]
@@ -300,7 +313,7 @@ export const VERDICT_LABELS: Record<Verdict, string> = {
  * Go, caution or no-go from the cautions: any danger is a no-go, any warning a caution; the
  * reasons are the cautions at the deciding level (or, on a go, the lesser cautions to keep in mind).
  */
-export function verdictOf(list: Caution[]): VerdictResult {
+export function verdictOf(list: Pick<Caution, 'kind' | 'level' | 'headline'>[]): VerdictResult {
   const real = list.filter((c) => c.kind !== 'authority')
   const at = (level: CautionLevel) => real.filter((c) => c.level === level).map((c) => c.headline)
   if (at('danger').length) return { verdict: 'no-go', reasons: at('danger') }
@@ -342,6 +355,7 @@ export function mergeCautions(
       headline: `${when}: ${worst.headline}`,
       message: `${when}: ${worst.message}`,
       windows: ids,
+      when,
     }
   })
   return [...merged.sort((a, b) => RANK[a.level] - RANK[b.level]), AUTHORITY_CAUTION]

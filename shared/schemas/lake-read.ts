@@ -25,8 +25,9 @@ export const CautionView = z.object({
   headline: z.string(),
   message: z.string(),
   source: z.string(),
-  /** On a day's cautions: the ids of the windows the hazard reaches. */
+  /** On a day's cautions: the ids of the windows the hazard reaches, and those in words. */
   windows: z.array(z.string()).optional(),
+  when: z.string().optional(),
 })
 
 /** Go, caution or no-go, with the cautions that decided it. */

@@ -27,6 +27,8 @@ export const LakeListItem = LakeSummary.extend({
     clarity: z.enum(CLARITY_CLASSES).nullable(),
     windMs: z.number().nullable(),
     windFromDeg: z.number().nullable(),
+    /** The Lake read's verdict for the next 12 hours. */
+    verdict: z.enum(['go', 'caution', 'no-go']).nullable(),
   }),
 })
 export type LakeListItem = z.infer<typeof LakeListItem>

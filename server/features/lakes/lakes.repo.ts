@@ -1,5 +1,6 @@
 import { and, asc, count, eq, ilike, or, sql } from 'drizzle-orm'
 import type { ClarityClass } from '../../../shared/conditions/clarity'
+import type { Verdict } from '../../../shared/conditions/safety'
 import type { LakeListQuery } from '../../../shared/schemas/lakes'
 import type { Db } from '../../db/index'
 import { lakes, subscriptions } from '../../db/schema/index'
@@ -50,6 +51,7 @@ export function lakesRepo(db: Db) {
         last_reading_at: string | null
         wind_ms: number | null
         wind_from: number | null
+        verdict: Verdict | null
       }>(sql`
         select l.id as lake_id,
           exists (select 1 from subscriptions s where s.lake_id = l.id and s.user_id = ${userId}) as subscribed,
@@ -57,7 +59,8 @@ export function lakesRepo(db: Db) {
           r.read -> 'clarity' ->> 'class' as clarity,
           r.read ->> 'lastReadingAt' as last_reading_at,
           (r.read -> 'windNow' ->> 'windMs')::float8 as wind_ms,
-          (r.read -> 'windNow' ->> 'windFromDeg')::float8 as wind_from
+          (r.read -> 'windNow' ->> 'windFromDeg')::float8 as wind_from,
+          r.read -> 'verdict' ->> 'verdict' as verdict
         from unnest(${sql.param(lakeIds)}::uuid[]) as l(id)
         left join lake_reads r on r.lake_id = l.id`)
       return rows

@@ -30,6 +30,7 @@ export function lakesService(repo: LakesRepo) {
             clarity: t?.clarity ?? null,
             windMs: t?.wind_ms ?? null,
             windFromDeg: t?.wind_from ?? null,
+            verdict: t?.verdict ?? null,
           },
         }
       })
