@@ -200,7 +200,7 @@ export const SCENARIOS = defineScenarios({
       middayThunderPct: 45,
       afternoonThunderPct: 55,
       peakHeatAt: '18:00',
-      peakAirC: 34.4,
+      peakAirC: 34.6,
       peakRelativeHumidityPct: 55,
     },
     water: {
@@ -231,7 +231,7 @@ export const SCENARIOS = defineScenarios({
           0,
           [
             27, 26.5, 26, 25.5, 25.2, 25, 25.2, 26, 27.5, 29, 30.5, 31.5, 32.3, 33, 33.5, 33.8, 34,
-            34.2, 34.4, 31.5, 29.5, 28.5, 27.5, 27,
+            34.2, 34.6, 31.3, 29.4, 28.5, 27.5, 27,
           ],
         ),
       ),
@@ -252,7 +252,7 @@ export const SCENARIOS = defineScenarios({
           0,
           0,
           [
-            10, 10, 10, 12, 15, 16, 17, 17, 17, 25, 36, 38, 40, 40, 42, 45, 45, 45, 50, 55, 45, 30,
+            10, 10, 10, 12, 15, 16, 17, 17, 17, 36, 36, 38, 40, 40, 42, 45, 45, 45, 50, 55, 45, 30,
             20, 15,
           ],
         ),
