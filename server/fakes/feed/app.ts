@@ -3,6 +3,7 @@ import { PARAMETERS, type Parameter } from '../../../shared/readings'
 import { M_PER_FT } from '../../../shared/units'
 import { FaultInjector, type FaultPlan, type ItemFault } from './faults'
 import { LakeWorld, type FeedLake } from './model'
+import { isScenarioName, SCENARIOS, ScriptedDays, type ScenarioName } from './scenarios'
 
 export interface FeedStation {
   thingId: number
@@ -32,6 +33,26 @@ export interface FeedOptions {
   now?: () => Date
   /** Keep the ground truth of what was served (tests); off for load runs. Default on. */
   recordTruth?: boolean
+  /** A named scenario to play from the start, on its own lake and day unless these are given. */
+  scenario?: ScenarioName | ScenarioChoice
+}
+
+/** Which scenario to play, and where and when: by default its own lake and day. */
+export interface ScenarioChoice {
+  name: ScenarioName
+  /** The lake's slug. */
+  lake?: string
+  /** The local date the scenario is about (YYYY-MM-DD), to move it on the calendar. */
+  day?: string
+}
+
+/** What a lake is playing, as the controls and `/__admin/scenario` report it. */
+export interface ScenarioState {
+  lake: string
+  name: ScenarioName
+  day: string
+  /** The instant a test sets its clock to. */
+  clock: string
 }
 
 const QUARTER = 900_000
@@ -124,6 +145,31 @@ export function createFeed(opts: FeedOptions) {
     setPlan(plan: Partial<FaultPlan>) {
       faults.plan = { ...faults.plan, ...plan }
     },
+    /** Plays a named scenario on its lake (or `choice.lake`), replacing any it was playing. */
+    setScenario(choice: ScenarioName | ScenarioChoice): ScenarioState {
+      const { name, lake, day } = typeof choice === 'string' ? { name: choice } : choice
+      if (!isScenarioName(name)) throw new Error(`No scenario named ${String(name)}.`)
+      const scenario = SCENARIOS[name]
+      const slug = lake ?? scenario.lake
+      const world = worlds.get(slug)
+      if (!world) throw new Error(`The feed has no lake ${slug}.`)
+      world.script = new ScriptedDays(scenario, day)
+      return stateOf(slug, world.script)
+    },
+    /** Back to the synthetic world: on one lake, or on every lake when none is named. */
+    clearScenario(lake?: string) {
+      for (const [slug, world] of worlds) if (!lake || slug === lake) world.script = null
+    },
+    /** The scenarios being played, one per lake at most. */
+    scenarios(): ScenarioState[] {
+      return [...worlds].flatMap(([slug, w]) => (w.script ? [stateOf(slug, w.script)] : []))
+    },
+  }
+  if (opts.scenario) controls.setScenario(opts.scenario)
+
+  function stateOf(lake: string, script: ScriptedDays): ScenarioState {
+    const name = script.scenario.name as ScenarioName
+    return { lake, name, day: script.day, clock: script.clock.toISOString() }
   }
 
   const datastreams = opts.stations.flatMap((station) =>
@@ -306,8 +352,11 @@ export function createFeed(opts: FeedOptions) {
 
   const hourJson = (world: LakeWorld, t: number, forecastLeadH = 0) => {
     const w = world.weather(t)
-    // Forecasts drift further from what happens the further ahead they look.
-    const err = 1 + 0.3 * (forecastLeadH / 168) * Math.sin(t / 3_600_000)
+    // Forecasts drift further from what happens the further ahead they look; a scenario's hours
+    // are forecast as scripted.
+    const err = world.scriptsWeather(t)
+      ? 1
+      : 1 + 0.3 * (forecastLeadH / 168) * Math.sin(t / 3_600_000)
     return {
       time: new Date(t).toISOString(),
       windSpeed: +(w.windMs * err).toFixed(1),
@@ -364,6 +413,38 @@ export function createFeed(opts: FeedOptions) {
       plan: faults.plan,
       injected: Object.fromEntries(faults.injected),
       total: faults.total,
+    })
+  })
+
+  // Scenarios: { name, lake?, day? } plays one; { name: null, lake? } goes back to the world.
+  app.post('/__admin/scenario', express.json(), (req, res) => {
+    const body = (req.body ?? {}) as { name?: unknown; lake?: unknown; day?: unknown }
+    const lake = typeof body.lake === 'string' ? body.lake : undefined
+    if (body.name === null) {
+      controls.clearScenario(lake)
+      return void res.json({ active: controls.scenarios() })
+    }
+    if (!isScenarioName(body.name))
+      return void res.status(400).json({ error: 'unknown scenario', names: Object.keys(SCENARIOS) })
+    const day = typeof body.day === 'string' ? body.day : undefined
+    try {
+      const state = controls.setScenario({ name: body.name, lake, day })
+      res.json({ ...state, active: controls.scenarios() })
+    } catch (err) {
+      res.status(400).json({ error: (err as Error).message })
+    }
+  })
+  app.get('/__admin/scenario', (_req, res) => {
+    res.json({
+      active: controls.scenarios(),
+      scenarios: Object.values(SCENARIOS).map((s) => ({
+        name: s.name,
+        summary: s.summary,
+        lake: s.lake,
+        day: s.day,
+        clockHour: s.clockHour,
+        facts: s.facts,
+      })),
     })
   })
 

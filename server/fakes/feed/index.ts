@@ -1,7 +1,14 @@
 import type { AddressInfo } from 'node:net'
 import { createFeed, type FeedOptions } from './app'
 
-export type { FeedStation, FeedTruth, ServedObservation } from './app'
+export type {
+  FeedStation,
+  FeedTruth,
+  ScenarioChoice,
+  ScenarioState,
+  ServedObservation,
+} from './app'
+export { SCENARIOS, SCENARIO_NAMES, scenarioClock, type ScenarioName } from './scenarios'
 
 /** Starts the fake gauge-and-weather feed on 127.0.0.1; port 0 picks a free one (tests). */
 export async function startFeed(opts: FeedOptions, port = 0) {

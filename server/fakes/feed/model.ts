@@ -1,5 +1,6 @@
 import { secchiFromTurbidity } from '../../../shared/conditions/clarity'
 import { oxygenSaturationMgL } from '../../../shared/readings'
+import type { ScriptedDays } from './scenarios'
 
 /**
  * The synthetic lake world behind the fake feed: physical in shape, deterministic for a seed, and
@@ -89,6 +90,8 @@ export class LakeWorld {
   /** Rain events every 4 to 12 days, with a size from 0.2 to 1. */
   private readonly rains: { at: number; size: number }[]
   private readonly rainTimes: number[]
+  /** A named scenario played on this lake: its tracks replace the world where they reach. */
+  script: ScriptedDays | null = null
 
   constructor(
     readonly lake: FeedLake,
@@ -172,12 +175,13 @@ export class LakeWorld {
 
   /** Surface water lags the air by about a month, swings less by day, and cools after fronts. */
   waterC(t: number): number {
-    const lagged = this.seasonalAirC(t - 30 * DAY) + 1
+    const scripted = this.script?.waterAt('tempC', t)
+    const lagged = scripted ?? this.seasonalAirC(t - 30 * DAY) + 1
     const daily = 0.4 * Math.cos((2 * Math.PI * (this.solarHour(t) - 16)) / 24)
     const value =
       lagged +
       daily -
-      1.2 * this.frontAfter(t) +
+      (scripted === undefined ? 1.2 * this.frontAfter(t) : 0) +
       0.05 * noise(this.seed, this.index, 11, Math.floor(t / 900_000))
     return Math.max(0.5, value)
   }
@@ -185,13 +189,15 @@ export class LakeWorld {
   gaugeFt(t: number): number {
     return (
       this.lake.normalGaugeFt +
-      1.4 * this.rainLoad(t, 12, 6) +
+      (this.script?.waterAt('levelFt', t) ?? 1.4 * this.rainLoad(t, 12, 6)) +
       0.01 * noise(this.seed, this.index, 12, Math.floor(t / 900_000))
     )
   }
 
   turbidityFnu(t: number): number {
-    const value = this.lake.baseTurbidityFnu + 60 * this.rainLoad(t, 6, 2.5)
+    const value =
+      this.script?.waterAt('turbidityFnu', t) ??
+      this.lake.baseTurbidityFnu + 60 * this.rainLoad(t, 6, 2.5)
     return value * (1 + 0.03 * noise(this.seed, this.index, 13, Math.floor(t / 900_000)))
   }
 
@@ -212,7 +218,14 @@ export class LakeWorld {
     )
   }
 
+  /** Whether the weather at t comes from a scenario (a forecast of it then does not drift). */
+  scriptsWeather(t: number): boolean {
+    return this.script?.scriptsWeather(t) ?? false
+  }
+
   weather(t: number): WeatherSample {
+    const scripted = this.script?.weatherAt(t)
+    if (scripted) return scripted
     const hour = Math.floor(t / HOUR)
     const after = this.frontAfter(t)
     const ahead = this.frontAhead(t)
