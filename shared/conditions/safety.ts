@@ -19,7 +19,7 @@ export interface Caution {
   message: string
   /** A published source, or "common practice" / "from memory". */
   source: string
-  /** For a day's cautions: the windows (ids) this hazard reaches, in the day's order. */
+  /** For a day's cautions: the windows (ids) where the hazard is at its level, in the day's order. */
   windows?: string[]
   /** For a day's cautions: those windows in words ("Midday and afternoon to dusk", "All day"). */
   when?: string
@@ -330,8 +330,9 @@ function whenText(labels: string[], of: number): string {
 
 /**
  * The cautions of a day's windows as one list: one line per hazard at its worst level, naming
- * the windows it reaches ("Midday and afternoon to dusk: Thunderstorms 36 %"), most serious first,
- * ending with the deferral to local authority.
+ * the windows where it reaches that level ("Midday and afternoon to dusk: Thunderstorms 36 %"),
+ * most serious first, ending with the deferral to local authority. Each window's own cautions
+ * still say what the others bring.
  */
 export function mergeCautions(
   windows: { id: string; label: string; cautions: Caution[] }[],
@@ -341,8 +342,9 @@ export function mergeCautions(
     for (const c of w.cautions) {
       if (c.kind === 'authority') continue
       const seen = byKind.get(c.kind)
-      if (!seen) byKind.set(c.kind, { worst: c, ids: [w.id], labels: [w.label] })
-      else {
+      if (!seen || RANK[c.level] < RANK[seen.worst.level])
+        byKind.set(c.kind, { worst: c, ids: [w.id], labels: [w.label] })
+      else if (c.level === seen.worst.level) {
         if (worse(c, seen.worst)) seen.worst = c
         seen.ids.push(w.id)
         seen.labels.push(w.label)

@@ -1,4 +1,5 @@
 import { and, asc, eq, gte, lt } from 'drizzle-orm'
+import { afterAll, beforeAll, describe } from 'vitest'
 import {
   lakeDays,
   lakes,
@@ -9,11 +10,17 @@ import {
 } from '../../server/db/schema/index'
 import { DEMO_USERS, seedDemo } from '../../server/db/seed/index'
 import { SCENARIOS, scenarioClock, type ScenarioName } from '../../server/fakes/feed/scenarios'
+import { banksRepo } from '../../server/features/banks/banks.repo'
+import { banksService } from '../../server/features/banks/banks.service'
 import { conditionsRepo } from '../../server/features/conditions/conditions.repo'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { backfillReadings, ingestReadings } from '../../server/features/ingest/readings.ingest'
 import { ingestWeather } from '../../server/features/ingest/weather.ingest'
 import type { WindowId } from '../../shared/conditions/day-plan'
+import type { Cover } from '../../shared/conditions/tackle-rules'
+import { fetchLength } from '../../shared/geo/fetch'
+import { lakeCenter } from '../../shared/geo/polygon'
+import { destination } from '../shared/geo/fixtures'
 import type { Parameter } from '../../shared/readings'
 import type { DayPlanResponse } from '../../shared/schemas/day-plan'
 import type { LakeRead } from '../../shared/schemas/lake-read'
@@ -45,6 +52,9 @@ export async function startScenario(name: ScenarioName) {
   /** A local date: an offset in days from the scenario's day, or the date itself. */
   const dateOf = (day: number | string) =>
     typeof day === 'number' ? addDays(scenario.day, day) : day
+
+  const anglerId = async () =>
+    (await ctx.db.select().from(users).where(eq(users.email, DEMO_ANGLER_EMAIL)))[0]!.id
 
   /** The stored day of the lake for a date. */
   async function lakeDay(day: number | string = 0) {
@@ -124,10 +134,31 @@ export async function startScenario(name: ScenarioName) {
       const answer = await conditions.readAnswer(lake!.slug, feed.now())
       return JSON.parse(answer.body.toString()) as LakeRead
     },
+    /**
+     * Saves a bank for the demo angler where the shore lies `bearingDeg` from the lake's centre:
+     * two points on the shore 4° apart as seen from the centre, so it faces back across the lake.
+     */
+    async saveBank(name: string, bearingDeg: number, cover: Cover[], depthM = 3) {
+      const center = lakeCenter(lake!.shoreline)
+      const onShore = (deg: number) =>
+        destination(center, deg, fetchLength(lake!.shoreline, center, deg) - 1)
+      return banksService(banksRepo(ctx.db)).create(await anglerId(), lake!.slug, {
+        name,
+        points: [onShore(bearingDeg - 2), onShore(bearingDeg + 2)],
+        cover,
+        depthM,
+        slope: null,
+        notes: '',
+      })
+    },
     /** The demo angler's Day plan for a date, as the app sends it at the feed's clock. */
     async plan(day: number | string = 0): Promise<DayPlanResponse> {
-      const [angler] = await ctx.db.select().from(users).where(eq(users.email, DEMO_ANGLER_EMAIL))
-      const answer = await conditions.planAnswer(angler!.id, lake!.slug, dateOf(day), feed.now())
+      const answer = await conditions.planAnswer(
+        await anglerId(),
+        lake!.slug,
+        dateOf(day),
+        feed.now(),
+      )
       return JSON.parse(answer.body.toString()) as DayPlanResponse
     },
     close: async () => {
@@ -137,3 +168,17 @@ export async function startScenario(name: ScenarioName) {
   }
 }
 export type ScenarioWorld = Awaited<ReturnType<typeof startScenario>>
+
+/** A describe block that starts a scenario once for its tests and closes it after them. */
+export function describeScenario(name: ScenarioName, body: (get: () => ScenarioWorld) => void) {
+  describe(name, () => {
+    let w: ScenarioWorld
+    beforeAll(async () => {
+      w = await startScenario(name)
+    }, 30_000)
+    afterAll(async () => {
+      await w?.close()
+    })
+    body(() => w)
+  })
+}

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { SCENARIOS, type ScenarioName } from '../../server/fakes/feed/scenarios'
 import { startFeed } from '../../server/fakes/feed/index'
 import { DEMO_STATIONS } from '../../server/db/seed/demo-stations'
@@ -8,7 +8,7 @@ import { fetchLength } from '../../shared/geo/fetch'
 import { lakeCenter } from '../../shared/geo/polygon'
 import { addDays, localDate, zonedMidnight } from '../../shared/time'
 import { cToF } from '../../shared/units'
-import { startScenario, type ScenarioWorld } from '../helpers/scenario'
+import { describeScenario, startScenario, type ScenarioWorld } from '../helpers/scenario'
 
 /**
  * Named scenario days played through the real ingest jobs into the stored lake days. Each
@@ -61,15 +61,7 @@ function itIsPlannable(get: () => ScenarioWorld) {
 }
 
 function scenario(name: ScenarioName, body: (get: () => ScenarioWorld) => void) {
-  describe(name, () => {
-    let w: ScenarioWorld
-    beforeAll(async () => {
-      w = await startScenario(name)
-    }, 30_000)
-    afterAll(async () => {
-      await w?.close()
-    })
-    const get = () => w
+  describeScenario(name, (get) => {
     itIsPlannable(get)
     body(get)
   })

@@ -136,6 +136,7 @@ export function conditionsRepo(db: Db) {
         relativeHumidityPct: w.relativeHumidityPct,
         cloudCoverPct: w.cloudCoverPct,
         thunderstormProbabilityPct: w.thunderProbabilityPct ?? 0,
+        pressureHpa: w.pressureHpa,
       }))
     },
   }

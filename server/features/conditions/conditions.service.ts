@@ -65,10 +65,11 @@ export function conditionsService(deps: {
     const days = []
     if (!missingForPlan(read)) {
       const dates = Array.from({ length: PLAN_DAYS }, (_, i) => addDays(today, i))
-      // One read of the weather for all the days; each window takes the hours inside it.
+      // One read of the weather for all the days; each window takes the hours inside it, and
+      // the day before it for telling a front that passed in the night.
       const hourly = await repo.hours(
         lake.id,
-        localDayBounds(today, lake.timeZone)[0],
+        localDayBounds(addDays(today, -1), lake.timeZone)[0],
         localDayBounds(dates.at(-1)!, lake.timeZone)[1],
       )
       for (const date of dates) {
