@@ -35,6 +35,23 @@ export const LakeShoreline = z.union([
 export const LakeShape = z.object({ shoreline: LakeShoreline })
 export type LakeShape = z.infer<typeof LakeShape>
 
+/** The clarity trend (`clarityTrend` in shared/conditions/clarity.ts); rain in mm, Secchi in metres. */
+export const ClarityTrendView = z.object({
+  slopePerDay: z.number(),
+  label: z.enum(['clearing', 'steady', 'staining']),
+  basis: z.enum(['step', 'day', 'drift']),
+  ratePerDay: z.number(),
+  secchiNowM: z.number(),
+  secchiDayAgoM: z.number().nullable(),
+  peakAt: Instant.nullable(),
+  rain: z.object({ mm: z.number(), since: Instant, until: Instant }).nullable(),
+  daysToNextClass: z.number().nullable(),
+  nextClassAt: Instant.nullable(),
+  nextClass: z.enum(CLARITY_CLASSES).nullable(),
+  reason: z.string(),
+})
+export type ClarityTrendView = z.infer<typeof ClarityTrendView>
+
 /** The Lake read: everything the water strip, wind, sky and caution band show. SI units throughout. */
 export const LakeRead = z.object({
   lake: LakeSummary,
@@ -46,13 +63,7 @@ export const LakeRead = z.object({
     source: z.enum(['secchi', 'turbidity']),
     class: z.enum(CLARITY_CLASSES),
     tsi: z.number(),
-    trend: z
-      .object({
-        slopePerDay: z.number(),
-        label: z.enum(['clearing', 'steady', 'staining']),
-        daysToNextClass: z.number().nullable(),
-      })
-      .nullable(),
+    trend: ClarityTrendView.nullable(),
   }).nullable(),
   level: Reading.extend({ gaugeM: z.number(), vsMedian30dM: z.number().nullable() }).nullable(),
   windNow: WindHour.nullable(),

@@ -43,6 +43,20 @@ export function lakeReadRepo(db: Db) {
           ),
         )
         .orderBy(asc(weatherHours.at)),
+    /** Observed rain at a lake, hour by hour, after `from` up to `to` (for the clarity trend). */
+    rainfall: (lakeId: string, from: Date, to: Date) =>
+      db
+        .select({ at: weatherHours.at, mm: weatherHours.precipitationMm })
+        .from(weatherHours)
+        .where(
+          and(
+            eq(weatherHours.lakeId, lakeId),
+            eq(weatherHours.kind, 'observed'),
+            gt(weatherHours.at, from),
+            lte(weatherHours.at, to),
+          ),
+        )
+        .orderBy(asc(weatherHours.at)),
     /** Hourly means of a station's readings and of a lake's observed weather since `since`. */
     async hourly(stationId: string | null, lakeId: string, since: Date) {
       const readingsByHour = stationId

@@ -176,7 +176,11 @@ export function lakeReadService(repo: LakeReadRepo) {
         at: iso(p.at),
         secchiM: secchiFromTurbidity(p.value),
       }))
-      const trend = unlessTooFew(() => clarityTrend(estimates, iso(now)))
+      // Rain over the trend's 72 h and the day before it, to name the cause of a staining.
+      const rain = (await repo.rainfall(lake.id, new Date(now.getTime() - 4 * DAY), now)).map(
+        (r) => ({ at: iso(r.at), mm: r.mm }),
+      )
+      const trend = unlessTooFew(() => clarityTrend(estimates, iso(now), rain))
       const clarity = clarityPoint
         ? {
             at: iso(clarityPoint.at),
