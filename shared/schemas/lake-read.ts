@@ -52,6 +52,24 @@ export const ClarityTrendView = z.object({
 })
 export type ClarityTrendView = z.infer<typeof ClarityTrendView>
 
+const LocalDate = z.iso.date()
+
+/**
+ * The seasonal phase (`SeasonalPhaseResult` in shared/conditions/season.ts): the lake's stored
+ * state with the 5-day mean (°C) and 7-day trend (°C a day) of the last day judged, and a reason.
+ */
+export const PhaseView = z.object({
+  phase: z.enum(SEASONAL_PHASES),
+  since: LocalDate,
+  pending: z.enum(SEASONAL_PHASES).nullable(),
+  pendingDays: z.number().int().min(0),
+  lastDay: LocalDate,
+  meanC: z.number(),
+  trendCPerDay: z.number(),
+  reason: z.string(),
+})
+export type PhaseView = z.infer<typeof PhaseView>
+
 /** The Lake read: everything the water strip, wind, sky and caution band show. SI units throughout. */
 export const LakeRead = z.object({
   lake: LakeSummary,
@@ -80,7 +98,7 @@ export const LakeRead = z.object({
     moonIllumination: z.number(),
     moonPhase: z.string(),
   }),
-  phase: z.object({ phase: z.enum(SEASONAL_PHASES), reason: z.string() }).nullable(),
+  phase: PhaseView.nullable(),
   openWaterWaveM: z.number().nullable(),
   cautions: z.array(CautionView),
 })

@@ -48,7 +48,16 @@ export function sampleRead(lake: LakeSummary, at = '2026-04-10T09:45:00.000Z'): 
       moonIllumination: 0.5,
       moonPhase: 'first quarter',
     },
-    phase: { phase: 'pre-spawn', reason: 'Water in the 50s °F and warming.' },
+    phase: {
+      phase: 'pre-spawn',
+      since: '2026-03-28',
+      pending: null,
+      pendingDays: 0,
+      lastDay: at.slice(0, 10),
+      meanC: 12.2,
+      trendCPerDay: 0.4,
+      reason: 'water warm enough for feeding and growth, not yet for nesting.',
+    },
     openWaterWaveM: 0.2,
     cautions: [],
   }
