@@ -67,17 +67,17 @@ export interface ClarityTrend {
   slopePerDay: number
   label: 'clearing' | 'steady' | 'staining'
   /**
-   * What the label rests on: `step`, a change of a class or more within hours (a rain event) and
-   * the clearing after it; `day`, the recent level against a day before; `drift`, the 72 h slope.
+   * What the label rests on: `event`, water a quarter or more dirtier within 36 h (a rain event)
+   * and the clearing after it; `day`, the recent level against a day before; `drift`, the 72 h slope.
    */
-  basis: 'step' | 'day' | 'drift'
+  basis: 'event' | 'day' | 'drift'
   /** The rate behind the label and the estimate, ln(Secchi) per day; 0 when steady. */
   ratePerDay: number
   /** The water now, metres: the recent robust level, or the fitted line at `now`. */
   secchiNowM: number
   /** Median of the readings 18 to 30 h before the latest, metres; null with fewer than 3 there. */
   secchiDayAgoM: number | null
-  /** The dirtiest water of a step, from which clearing is measured; null without a step. */
+  /** The dirtiest water of an event, from which clearing is measured; null without one. */
   peakAt: string | null
   /** Rain at the lake before the staining, from the observed weather; null when none was recorded. */
   rain: { mm: number; since: string; until: string } | null
@@ -96,17 +96,19 @@ const WINDOW_MS = 72 * HOUR_MS
 /** The robust level at a reading: the median of the 6 h up to it, when it holds at least 3 readings. */
 const LEVEL_MS = 6 * HOUR_MS
 const LEVEL_MIN_READINGS = 3
-/** A step is a change of a whole class or more: our classes each span a doubling of Secchi depth. */
-const STEP = Math.log(CLARITY_BREAKS_M.stained / CLARITY_BREAKS_M.muddy)
-/** 25 % within a day, five times the steady threshold, is a sustained change (our threshold). */
-const DAY_CHANGE = Math.log(1.25)
-/** After a step the water reads clearing once it is 10 % clearer than at its dirtiest (our threshold). */
+/**
+ * 25 % within a day or so, five times the steady threshold, is a sustained change (our threshold);
+ * the 6 h medians it compares move about 1 % with a gauge's noise. A rain's step is far more: from
+ * 3 to 60 FNU, Secchi falls to a seventh (USGS Oregon WSC regression).
+ */
+const CHANGE = Math.log(1.25)
+/** After an event the water reads clearing once it is 10 % clearer than at its dirtiest (our threshold). */
 const RECOVERED = Math.log(1.1)
-/** A step reads staining for 48 h at most; water that stays dirty longer is no longer staining. */
+/** An event reads staining for 48 h at most; water that stays dirty longer is no longer staining. */
 const STAINING_FOR_MS = 48 * HOUR_MS
-/** The clear level before a step is looked for in the 36 h before its dirtiest water. */
-const BEFORE_STEP_MS = 36 * HOUR_MS
-/** Rain from 12 h before the water was last clear up to its dirtiest counts towards a step. */
+/** The clear level before an event is looked for in the 36 h before its dirtiest water. */
+const BEFORE_EVENT_MS = 36 * HOUR_MS
+/** Rain from 12 h before the water was last clear up to its dirtiest counts towards an event. */
 const RAIN_LEAD_MS = 12 * HOUR_MS
 /** Less rain than 1 mm (about 0.04 in) is not named as a cause (our threshold). */
 const MIN_RAIN_MM = 1
@@ -160,10 +162,10 @@ function rainBetween(
 
 /**
  * Clarity trend from Secchi estimates over the last 72 h. A rain event stains the water within
- * hours, so the label first looks for a step: the robust level (median of 6 h of readings, which
- * a lone spike cannot move) falling a whole class or more below the level of the 36 h before. Such
+ * hours, so the label first looks for an event: the robust level (median of 6 h of readings, which
+ * a lone spike cannot move) falling a quarter or more below its level in the 36 h before. Such
  * water reads staining until it is clearly clearer than at its dirtiest, then clearing at the rate
- * measured since (Theil-Sen). Without a step, the recent level against the level a day before
+ * measured since (Theil-Sen). Without an event, the recent level against the level a day before
  * decides; without that, the 72 h Theil-Sen slope (Sen 1968) does, for slow drift. `rain` is the
  * lake's observed hourly precipitation, used to name the cause of staining.
  */
@@ -232,41 +234,41 @@ export function clarityTrend(
     }
   }
 
-  // A step: the dirtiest robust level of the window, a class or more below the clearest before it.
+  // An event: the dirtiest robust level of the window, well below the clearest in the 36 h before it.
   const peak = levels.reduce<Point | null>((low, l) => (!low || l.y < low.y ? l : low), null)
   const before = peak
     ? levels
-        .filter((l) => l.t < peak.t && l.t >= peak.t - BEFORE_STEP_MS / DAY)
+        .filter((l) => l.t < peak.t && l.t >= peak.t - BEFORE_EVENT_MS / DAY)
         .reduce<Point | null>((high, l) => (!high || l.y >= high.y ? l : high), null)
     : null
-  if (peak && before && recent !== null && before.y - peak.y >= STEP) {
-    const stepRain = rainBetween(rain, msAt(before.t) - RAIN_LEAD_MS, msAt(peak.t))
+  if (peak && before && recent !== null && before.y - peak.y >= CHANGE) {
+    const eventRain = rainBetween(rain, msAt(before.t) - RAIN_LEAD_MS, msAt(peak.t))
     const peakAt = new Date(msAt(peak.t)).toISOString()
     const since = points.filter((p) => p.t >= peak.t)
     const sinceLine = since.length >= 3 && latest - peak.t >= 3 / 24 ? theilSen(since) : null
     if (sinceLine && recent - peak.y >= RECOVERED && sinceLine.slope > STEADY_PER_DAY) {
-      return result('clearing', 'step', sinceLine.slope, sinceLine.intercept, {
+      return result('clearing', 'event', sinceLine.slope, sinceLine.intercept, {
         peakAt,
-        rain: stepRain,
-        reason: `clearing since the water was dirtiest${stepRain ? ' after rain' : ''}`,
+        rain: eventRain,
+        reason: `clearing since the water was dirtiest${eventRain ? ' after rain' : ''}`,
       })
     }
     if (nowMs - msAt(peak.t) <= STAINING_FOR_MS) {
-      // How fast the step came; whether more staining follows depends on rain yet to come.
-      const stepRate = (peak.y - before.y) / Math.max(peak.t - before.t, 1 / 24)
-      return result('staining', 'step', stepRate, recent, {
+      // How fast it stained; whether more staining follows depends on rain yet to come.
+      const eventRate = (peak.y - before.y) / Math.max(peak.t - before.t, 1 / 24)
+      return result('staining', 'event', eventRate, recent, {
         peakAt,
-        rain: stepRain,
+        rain: eventRain,
         estimate: false,
-        reason: stepRain
-          ? 'stained by rain: a class or more dirtier within hours'
-          : 'a class or more dirtier within hours; no rain recorded at the lake',
+        reason: eventRain
+          ? 'stained by rain within the last two days'
+          : 'dirtier within the last two days; no rain recorded at the lake',
       })
     }
   }
 
   // A sustained change over a day: the recent level against the level a day before.
-  if (recent !== null && dayAgo !== null && Math.abs(recent - dayAgo) >= DAY_CHANGE) {
+  if (recent !== null && dayAgo !== null && Math.abs(recent - dayAgo) >= CHANGE) {
     const lastDay = points.filter((p) => p.t >= latest - 1)
     const dayLine = theilSen(lastDay) ?? line
     const label = recent > dayAgo ? 'clearing' : 'staining'

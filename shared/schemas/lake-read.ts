@@ -39,7 +39,7 @@ export type LakeShape = z.infer<typeof LakeShape>
 export const ClarityTrendView = z.object({
   slopePerDay: z.number(),
   label: z.enum(['clearing', 'steady', 'staining']),
-  basis: z.enum(['step', 'day', 'drift']),
+  basis: z.enum(['event', 'day', 'drift']),
   ratePerDay: z.number(),
   secchiNowM: z.number(),
   secchiDayAgoM: z.number().nullable(),

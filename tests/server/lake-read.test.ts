@@ -1,10 +1,10 @@
-import { eq } from 'drizzle-orm'
+import { and, eq, gte } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { LakeRead, LakeShape } from '../../shared/schemas/lake-read'
 import { LakeSeries } from '../../shared/schemas/lake-series'
 import { LakePage } from '../../shared/schemas/lakes'
-import { lakePhases, lakes } from '../../server/db/schema/index'
+import { lakePhases, lakes, weatherHours } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { backfillReadings, ingestReadings } from '../../server/features/ingest/readings.ingest'
@@ -208,8 +208,9 @@ describe('the seasonal phase as stored state', () => {
   const stored = async () =>
     (await world.db.select().from(lakePhases).where(eq(lakePhases.lakeId, lakeId)))[0]!
   /** A day later at the feed: its readings and weather ingested, then the refresh the jobs run. */
-  async function nextDay() {
-    summerFeed.advance(24)
+  const nextDay = () => atFeed(new Date(summerFeed.now().getTime() + 86_400_000))
+  async function atFeed(now: Date) {
+    summerFeed.setNow(now)
     await ingestReadings(ingestDeps(world.db, summerFeed), { lakeId })
     await ingestWeather(ingestDeps(world.db, summerFeed))
     await conditionsFor(world.db).refreshAll(summerFeed.now())
@@ -265,5 +266,38 @@ describe('the seasonal phase as stored state', () => {
       since: '2026-05-30',
       lastDay: '2026-08-12',
     })
+  })
+
+  it('names the rain that stained the water, then reads clearing with when it reaches the next class (from memory: rain stains a lake, which clears over days)', async () => {
+    // The clock goes on from the test above. The feed's next rain at Quillmere falls from about
+    // 14:00 UTC on 15 August for six hours.
+    await atFeed(new Date('2026-08-16T04:00:00Z'))
+    const app = testApp(world.db)
+    const angler = await signedInAgent(app, world.db, 'rain@example.test')
+    const wet = LakeRead.parse((await angler.get('/api/lakes/quillmere/read').expect(200)).body)
+    const rainRows = await world.db
+      .select()
+      .from(weatherHours)
+      .where(
+        and(
+          eq(weatherHours.lakeId, lakeId),
+          eq(weatherHours.kind, 'observed'),
+          gte(weatherHours.at, new Date('2026-08-15T00:00:00Z')),
+        ),
+      )
+    const stored = rainRows.reduce((sum, r) => sum + r.precipitationMm, 0)
+    expect(stored).toBeGreaterThan(5)
+    expect(wet.clarity!.trend).toMatchObject({ label: 'staining', basis: 'event' })
+    expect(wet.clarity!.trend!.rain!.mm).toBeCloseTo(stored, 6)
+    expect(wet.clarity!.trend!.rain!.since.slice(0, 10)).toBe('2026-08-15')
+
+    await atFeed(new Date('2026-08-17T16:00:00Z'))
+    const clearing = LakeRead.parse(
+      (await angler.get('/api/lakes/quillmere/read').expect(200)).body,
+    ).clarity!.trend!
+    expect(clearing).toMatchObject({ label: 'clearing', basis: 'event' })
+    expect(clearing.rain!.mm).toBeCloseTo(stored, 6)
+    expect(Date.parse(clearing.nextClassAt!)).toBeGreaterThan(Date.parse('2026-08-17T16:00:00Z'))
+    expect(clearing.nextClass).not.toBeNull()
   })
 })

@@ -127,7 +127,7 @@ describe('clarityTrend', () => {
         every15min(72, (h) => (h > stepHoursAgo ? 3 : 60)),
         now,
       )
-      expect(trend).toMatchObject({ label: 'staining', basis: 'step', rain: null })
+      expect(trend).toMatchObject({ label: 'staining', basis: 'event', rain: null })
       expect(trend.secchiNowM).toBeCloseTo(secchiFromTurbidity(60), 6)
       expect(trend.peakAt).not.toBeNull()
       // Whether it stains further depends on rain to come: no estimate is made.
@@ -165,7 +165,7 @@ describe('clarityTrend', () => {
       secchiM: secchi(h),
     }))
     const trend = clarityTrend(samples, now)
-    expect(trend).toMatchObject({ label: 'clearing', basis: 'step', nextClass: 'lightly-stained' })
+    expect(trend).toMatchObject({ label: 'clearing', basis: 'event', nextClass: 'lightly-stained' })
     expect(trend.ratePerDay).toBeCloseTo(rate, 3)
     // Secchi now 0.25 × 1.3^(30/24) = 0.348 m; to 0.6 m at 30 % a day: ln(0.6/0.348)/ln(1.3) = 2.08 days.
     const days = Math.log(0.6 / (0.25 * Math.exp((rate * 30) / 24))) / rate
