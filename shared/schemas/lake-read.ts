@@ -48,6 +48,41 @@ export const LakeShoreline = z.union([
 export const LakeShape = z.object({ shoreline: LakeShoreline })
 export type LakeShape = z.infer<typeof LakeShape>
 
+/** The clarity trend (`clarityTrend` in shared/conditions/clarity.ts); rain in mm, Secchi in metres. */
+export const ClarityTrendView = z.object({
+  slopePerDay: z.number(),
+  label: z.enum(['clearing', 'steady', 'staining']),
+  basis: z.enum(['event', 'day', 'drift']),
+  ratePerDay: z.number(),
+  secchiNowM: z.number(),
+  secchiDayAgoM: z.number().nullable(),
+  peakAt: Instant.nullable(),
+  rain: z.object({ mm: z.number(), since: Instant, until: Instant }).nullable(),
+  daysToNextClass: z.number().nullable(),
+  nextClassAt: Instant.nullable(),
+  nextClass: z.enum(CLARITY_CLASSES).nullable(),
+  reason: z.string(),
+})
+export type ClarityTrendView = z.infer<typeof ClarityTrendView>
+
+const LocalDate = z.iso.date()
+
+/**
+ * The seasonal phase (`SeasonalPhaseResult` in shared/conditions/season.ts): the lake's stored
+ * state with the 5-day mean (°C) and 7-day trend (°C a day) of the last day judged, and a reason.
+ */
+export const PhaseView = z.object({
+  phase: z.enum(SEASONAL_PHASES),
+  since: LocalDate,
+  pending: z.enum(SEASONAL_PHASES).nullable(),
+  pendingDays: z.number().int().min(0),
+  lastDay: LocalDate,
+  meanC: z.number(),
+  trendCPerDay: z.number(),
+  reason: z.string(),
+})
+export type PhaseView = z.infer<typeof PhaseView>
+
 /** The Lake read: everything the water strip, wind, sky and caution band show. SI units throughout. */
 export const LakeRead = z.object({
   lake: LakeSummary,
@@ -59,13 +94,7 @@ export const LakeRead = z.object({
     source: z.enum(['secchi', 'turbidity']),
     class: z.enum(CLARITY_CLASSES),
     tsi: z.number(),
-    trend: z
-      .object({
-        slopePerDay: z.number(),
-        label: z.enum(['clearing', 'steady', 'staining']),
-        daysToNextClass: z.number().nullable(),
-      })
-      .nullable(),
+    trend: ClarityTrendView.nullable(),
   }).nullable(),
   level: Reading.extend({ gaugeM: z.number(), vsMedian30dM: z.number().nullable() }).nullable(),
   windNow: WindHour.nullable(),
@@ -82,7 +111,7 @@ export const LakeRead = z.object({
     moonIllumination: z.number(),
     moonPhase: z.string(),
   }),
-  phase: z.object({ phase: z.enum(SEASONAL_PHASES), reason: z.string() }).nullable(),
+  phase: PhaseView.nullable(),
   /** In the strongest wind from now to 12 h ahead. */
   openWaterWaveM: z.number().nullable(),
   /** Judged on the worst hour from now to 12 h ahead. */

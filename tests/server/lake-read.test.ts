@@ -1,13 +1,13 @@
-import { eq } from 'drizzle-orm'
+import { and, eq, gte } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { LakeRead, LakeShape } from '../../shared/schemas/lake-read'
 import { LakeSeries } from '../../shared/schemas/lake-series'
 import { LakePage } from '../../shared/schemas/lakes'
-import { lakes } from '../../server/db/schema/index'
+import { lakePhases, lakes, weatherHours } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
-import { backfillReadings } from '../../server/features/ingest/readings.ingest'
+import { backfillReadings, ingestReadings } from '../../server/features/ingest/readings.ingest'
 import { ingestWeather } from '../../server/features/ingest/weather.ingest'
 import { signedInAgent, testApp } from '../helpers/app'
 import { createTestDb } from '../helpers/db'
@@ -53,7 +53,10 @@ describe('GET /api/lakes/:slug/read', () => {
     expect(read.windNow).not.toBeNull()
     expect(read.windNext12h.length).toBeGreaterThanOrEqual(11)
     expect(read.pressure?.label).toBeTruthy()
-    expect(read.phase?.reason).toMatch(/5-day mean/)
+    // The phase carries its numbers as fields, judged on the last whole day.
+    expect(read.phase).toMatchObject({ pending: null })
+    expect(read.phase!.meanC).toBeCloseTo(read.waterTemp!.valueC, -1)
+    expect(read.phase!.reason).not.toMatch(/°/)
     expect(read.cautions.at(-1)!.kind).toBe('authority')
   })
 
@@ -194,5 +197,107 @@ describe('GET /api/lakes/:slug/series', () => {
     expect(month.waterC.slice(0, 24 * 9).every((v) => v === null)).toBe(true)
     const bad = await angler.get('/api/lakes/quillmere/series').query({ days: 9 }).expect(400)
     expect(bad.body.error.fields.days).toMatch(/7 or 30/)
+  })
+})
+
+describe('the seasonal phase as stored state', () => {
+  // Its own world at a fixed date in August, when the water at Quillmere (about 35° N) is in summer.
+  let world: Awaited<ReturnType<typeof createTestDb>>
+  let summerFeed: TestFeed
+  let lakeId: string
+  const stored = async () =>
+    (await world.db.select().from(lakePhases).where(eq(lakePhases.lakeId, lakeId)))[0]!
+  /** A day later at the feed: its readings and weather ingested, then the refresh the jobs run. */
+  const nextDay = () => atFeed(new Date(summerFeed.now().getTime() + 86_400_000))
+  async function atFeed(now: Date) {
+    summerFeed.setNow(now)
+    await ingestReadings(ingestDeps(world.db, summerFeed), { lakeId })
+    await ingestWeather(ingestDeps(world.db, summerFeed))
+    await conditionsFor(world.db).refreshAll(summerFeed.now())
+  }
+
+  beforeAll(async () => {
+    world = await createTestDb()
+    await seedDemo(world.db)
+    summerFeed = await startTestFeed('2026-08-10T17:00:00Z')
+    const [lake] = await world.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    lakeId = lake!.id
+    await backfillReadings(ingestDeps(world.db, summerFeed), lakeId, 20)
+    await ingestWeather(ingestDeps(world.db, summerFeed))
+    await conditionsFor(world.db).refreshAll(summerFeed.now())
+  })
+  afterAll(async () => {
+    await summerFeed.close()
+    await world.drop()
+  })
+
+  it('persists across refreshes on consecutive days, carried on rather than re-derived (from memory: a phase is a state through the year)', async () => {
+    const app = testApp(world.db)
+    const angler = await signedInAgent(app, world.db, 'season@example.test')
+    const first = await stored()
+    // Judged up to yesterday at the lake (Central time), the last whole day.
+    expect(first).toMatchObject({ phase: 'summer', lastDay: '2026-08-09', pendingPhase: null })
+
+    // Were the phase worked out afresh from the last month, it would begin inside that month.
+    await world.db
+      .update(lakePhases)
+      .set({ since: '2026-05-30' })
+      .where(eq(lakePhases.lakeId, lakeId))
+
+    await nextDay()
+    const second = await stored()
+    expect(second).toMatchObject({ phase: 'summer', since: '2026-05-30', lastDay: '2026-08-10' })
+    const read = LakeRead.parse((await angler.get('/api/lakes/quillmere/read').expect(200)).body)
+    expect(read.phase).toMatchObject({
+      phase: 'summer',
+      since: '2026-05-30',
+      lastDay: '2026-08-10',
+    })
+    expect(read.phase!.meanC).toBe(second.meanC)
+
+    // A second refresh the same day judges nothing again.
+    await conditionsFor(world.db).refreshAll(summerFeed.now())
+    expect(await stored()).toEqual(second)
+
+    await nextDay()
+    await nextDay()
+    expect(await stored()).toMatchObject({
+      phase: 'summer',
+      since: '2026-05-30',
+      lastDay: '2026-08-12',
+    })
+  })
+
+  it('names the rain that stained the water, then reads clearing with when it reaches the next class (from memory: rain stains a lake, which clears over days)', async () => {
+    // The clock goes on from the test above. The feed's next rain at Quillmere falls from about
+    // 14:00 UTC on 15 August for six hours.
+    await atFeed(new Date('2026-08-16T04:00:00Z'))
+    const app = testApp(world.db)
+    const angler = await signedInAgent(app, world.db, 'rain@example.test')
+    const wet = LakeRead.parse((await angler.get('/api/lakes/quillmere/read').expect(200)).body)
+    const rainRows = await world.db
+      .select()
+      .from(weatherHours)
+      .where(
+        and(
+          eq(weatherHours.lakeId, lakeId),
+          eq(weatherHours.kind, 'observed'),
+          gte(weatherHours.at, new Date('2026-08-15T00:00:00Z')),
+        ),
+      )
+    const stored = rainRows.reduce((sum, r) => sum + r.precipitationMm, 0)
+    expect(stored).toBeGreaterThan(5)
+    expect(wet.clarity!.trend).toMatchObject({ label: 'staining', basis: 'event' })
+    expect(wet.clarity!.trend!.rain!.mm).toBeCloseTo(stored, 6)
+    expect(wet.clarity!.trend!.rain!.since.slice(0, 10)).toBe('2026-08-15')
+
+    await atFeed(new Date('2026-08-17T16:00:00Z'))
+    const clearing = LakeRead.parse(
+      (await angler.get('/api/lakes/quillmere/read').expect(200)).body,
+    ).clarity!.trend!
+    expect(clearing).toMatchObject({ label: 'clearing', basis: 'event' })
+    expect(clearing.rain!.mm).toBeCloseTo(stored, 6)
+    expect(Date.parse(clearing.nextClassAt!)).toBeGreaterThan(Date.parse('2026-08-17T16:00:00Z'))
+    expect(clearing.nextClass).not.toBeNull()
   })
 })

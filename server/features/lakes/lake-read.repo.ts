@@ -1,7 +1,8 @@
-import { and, asc, eq, gt, gte, inArray, lte, sql } from 'drizzle-orm'
+import { and, asc, eq, gt, gte, inArray, lt, lte, sql } from 'drizzle-orm'
+import type { PhaseState } from '../../../shared/conditions/season'
 import type { Parameter } from '../../../shared/readings'
 import type { Db } from '../../db/index'
-import { lakes, readings, stations, weatherHours } from '../../db/schema/index'
+import { lakePhases, lakes, readings, stations, weatherHours } from '../../db/schema/index'
 
 export function lakeReadRepo(db: Db) {
   return {
@@ -43,6 +44,59 @@ export function lakeReadRepo(db: Db) {
           ),
         )
         .orderBy(asc(weatherHours.at)),
+    /** Observed rain at a lake, hour by hour, after `from` up to `to` (for the clarity trend). */
+    rainfall: (lakeId: string, from: Date, to: Date) =>
+      db
+        .select({ at: weatherHours.at, mm: weatherHours.precipitationMm })
+        .from(weatherHours)
+        .where(
+          and(
+            eq(weatherHours.lakeId, lakeId),
+            eq(weatherHours.kind, 'observed'),
+            gt(weatherHours.at, from),
+            lte(weatherHours.at, to),
+          ),
+        )
+        .orderBy(asc(weatherHours.at)),
+    /** The lake's stored seasonal phase state, or undefined before its first phase. */
+    async phaseState(lakeId: string): Promise<PhaseState | undefined> {
+      const [row] = await db.select().from(lakePhases).where(eq(lakePhases.lakeId, lakeId))
+      return (
+        row && {
+          phase: row.phase,
+          since: row.since,
+          pending: row.pendingPhase,
+          pendingDays: row.pendingDays,
+          lastDay: row.lastDay,
+          meanC: row.meanC,
+          trendCPerDay: row.trendCPerDay,
+        }
+      )
+    },
+    /**
+     * Stores the phase state; a state judged up to an earlier day than the stored one (a slower
+     * refresh finishing after a faster one) does not overwrite it. `replace` lets a restarted state
+     * (a month without readings) overwrite whatever is stored.
+     */
+    async savePhaseState(lakeId: string, state: PhaseState, replace = false) {
+      const row = {
+        phase: state.phase,
+        since: state.since,
+        pendingPhase: state.pending,
+        pendingDays: state.pendingDays,
+        lastDay: state.lastDay,
+        meanC: state.meanC,
+        trendCPerDay: state.trendCPerDay,
+      }
+      await db
+        .insert(lakePhases)
+        .values({ lakeId, ...row })
+        .onConflictDoUpdate({
+          target: lakePhases.lakeId,
+          set: row,
+          setWhere: replace ? undefined : lt(lakePhases.lastDay, state.lastDay),
+        })
+    },
     /** Hourly means of a station's readings and of a lake's observed weather since `since`. */
     async hourly(stationId: string | null, lakeId: string, since: Date) {
       const readingsByHour = stationId

@@ -6,7 +6,14 @@ import {
 } from '../../../shared/conditions/clarity'
 import { openWaterWaveM } from '../../../shared/conditions/exposure'
 import { cautions, verdictOf, worstOf } from '../../../shared/conditions/safety'
-import { seasonalPhase } from '../../../shared/conditions/season'
+import {
+  advancePhase,
+  phaseView,
+  seasonalPhase,
+  STALE_STATE_DAYS,
+  startPhase,
+  type SeasonalPhaseResult,
+} from '../../../shared/conditions/season'
 import { skyDay } from '../../../shared/conditions/sky'
 import { median, theilSen } from '../../../shared/conditions/trend'
 import { pressureTendency } from '../../../shared/conditions/weather'
@@ -97,6 +104,43 @@ export function flagsHoldUntil(read: LakeRead, judgedAt = new Date(read.asOf)): 
 }
 
 export function lakeReadService(repo: LakeReadRepo) {
+  /**
+   * The lake's seasonal phase at `now`: its stored state advanced over the whole days since it was
+   * last judged, and stored again. A lake without a state (or with one a month old) starts from
+   * its history. Only past days are judged, each once: a day's mean is final when the day is over.
+   */
+  async function currentPhase(
+    lake: LakeRow,
+    temps: Point[],
+    now: Date,
+  ): Promise<SeasonalPhaseResult | null> {
+    const today = localDate(now, lake.timeZone)
+    const means = dailyMeans(
+      temps.filter((p) => localDate(p.at, lake.timeZone) < today),
+      lake.timeZone,
+    )
+    const input = means && {
+      dailyMeanWaterC: means.days,
+      lastDay: means.lastDay,
+      latitude: lake.centerLat,
+    }
+    const stored = await repo.phaseState(lake.id)
+    const fresh = (day: string) => addDays(day, STALE_STATE_DAYS) >= (means?.lastDay ?? today)
+    if (stored && input && stored.lastDay > input.lastDay) {
+      // A read for a moment before the stored state (a recomputation of the past): not stored.
+      return input.dailyMeanWaterC.length >= 14 ? seasonalPhase(input) : null
+    }
+    if (stored && fresh(stored.lastDay)) {
+      const advanced = input ? (unlessTooFew(() => advancePhase(stored, input)) ?? stored) : stored
+      if (advanced.lastDay !== stored.lastDay) await repo.savePhaseState(lake.id, advanced)
+      return phaseView(advanced, lake.centerLat)
+    }
+    if (!input || input.dailyMeanWaterC.length < 14) return null
+    const started = startPhase(input)
+    await repo.savePhaseState(lake.id, started, true)
+    return phaseView(started, lake.centerLat)
+  }
+
   return {
     /** Hourly series for the charts: gauge means per hour (Secchi estimated from turbidity) and observed weather. */
     async series(slug: string, days: number, now = new Date()): Promise<LakeSeries> {
@@ -176,7 +220,11 @@ export function lakeReadService(repo: LakeReadRepo) {
         at: iso(p.at),
         secchiM: secchiFromTurbidity(p.value),
       }))
-      const trend = unlessTooFew(() => clarityTrend(estimates, iso(now)))
+      // Rain over the trend's 72 h and the day before it, to name the cause of a staining.
+      const rain = (await repo.rainfall(lake.id, new Date(now.getTime() - 4 * DAY), now)).map(
+        (r) => ({ at: iso(r.at), mm: r.mm }),
+      )
+      const trend = unlessTooFew(() => clarityTrend(estimates, iso(now), rain))
       const clarity = clarityPoint
         ? {
             at: iso(clarityPoint.at),
@@ -224,15 +272,7 @@ export function lakeReadService(repo: LakeReadRepo) {
       )
       const pressure = latest && tendency ? { hPa: latest.pressureHpa, ...tendency } : null
 
-      const means = dailyMeans(temps, lake.timeZone)
-      const phase =
-        means && means.days.length >= 14
-          ? seasonalPhase({
-              dailyMeanWaterC: means.days,
-              lastDay: means.lastDay,
-              latitude: lake.centerLat,
-            })
-          : null
+      const phase = await currentPhase(lake, temps, now)
 
       const next12 = forecast.map(hour)
       // Safety looks at the worst hour from now to 12 h ahead: the wind, and the waves it raises.

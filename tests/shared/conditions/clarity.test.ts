@@ -85,10 +85,13 @@ describe('clarityTrend', () => {
   it('calls flat water steady and ignores readings older than 72 h', () => {
     const samples = [1, 10, 20, 40, 60].map((h) => ({ at: at(h), secchiM: 1.5 }))
     samples.push({ at: at(100), secchiM: 0.2 })
-    expect(clarityTrend(samples, now)).toEqual({
+    expect(clarityTrend(samples, now)).toMatchObject({
       slopePerDay: 0,
       label: 'steady',
+      basis: 'drift',
       daysToNextClass: null,
+      nextClassAt: null,
+      rain: null,
     })
   })
 
@@ -100,6 +103,109 @@ describe('clarityTrend', () => {
     const trend = clarityTrend(samples, now)
     expect(trend.label).toBe('staining')
     expect(trend.slopePerDay).toBeCloseTo(-0.3, 6)
+  })
+
+  // Readings every 15 minutes, as the gauges send them: turbidity in FNU at each hour ago.
+  const every15min = (hours: number, fnu: (hoursAgo: number) => number) =>
+    Array.from({ length: hours * 4 + 1 }, (_, i) => i / 4).map((h) => ({
+      at: at(h),
+      secchiM: secchiFromTurbidity(fnu(h)),
+    }))
+  /** Rain at `startHoursAgo`, 6 h long, that loads the water over 6 h and clears with a 2.5-day time constant. */
+  const rainEvent =
+    (base: number, startHoursAgo: number, peakFnu = 60) =>
+    (h: number) => {
+      const age = startHoursAgo - h
+      return age < 0 ? base : base + peakFnu * Math.min(1, age / 6) * Math.exp(-age / 60)
+    }
+
+  // Secchi estimates by the USGS Oregon WSC regression: 3 FNU is 1.68 m (clear), 60 FNU 0.25 m (muddy).
+  it.each([6, 12, 20, 30])(
+    'water that went from 3 to 60 FNU %d h ago reads staining, not steady (USGS Oregon WSC regression; common practice: rain stains the water)',
+    (stepHoursAgo) => {
+      const trend = clarityTrend(
+        every15min(72, (h) => (h > stepHoursAgo ? 3 : 60)),
+        now,
+      )
+      expect(trend).toMatchObject({ label: 'staining', basis: 'event', rain: null })
+      expect(trend.secchiNowM).toBeCloseTo(secchiFromTurbidity(60), 6)
+      expect(trend.peakAt).not.toBeNull()
+      // Whether it stains further depends on rain to come: no estimate is made.
+      expect(trend.nextClassAt).toBeNull()
+    },
+  )
+
+  it('reads the staining within hours of the rain starting (common practice: rain stains the water within hours)', () => {
+    expect(clarityTrend(every15min(72, rainEvent(3, 3)), now).label).not.toBe('staining')
+    expect(clarityTrend(every15min(72, rainEvent(3, 6)), now).label).toBe('staining')
+  })
+
+  it.each([
+    ['two hours ago', 2],
+    ['in the latest reading', 0],
+    ['yesterday', 20],
+  ])(
+    'a single spike reading %s does not make a trend (from memory: a lone reading is sensor noise)',
+    (_, spikeHoursAgo) => {
+      const samples = every15min(72, (h) => (h === spikeHoursAgo ? 60 : 3))
+      expect(clarityTrend(samples, now)).toMatchObject({ label: 'steady', nextClassAt: null })
+      // A spike of clear water in stained water, the same.
+      const clearSpike = every15min(72, (h) => (h === spikeHoursAgo ? 0.5 : 40))
+      expect(clarityTrend(clearSpike, now).label).toBe('steady')
+    },
+  )
+
+  it('after the rain the water reads clearing with an estimate of when it reaches the next class (computed from the formula)', () => {
+    // Muddy 0.25 m since a step 40 h ago, clearing 30 % a day for the last 30 h.
+    const rate = Math.log(1.3)
+    const secchi = (h: number) =>
+      h > 40 ? 1.7 : h > 30 ? 0.25 : 0.25 * Math.exp((rate * (30 - h)) / 24)
+    const samples = Array.from({ length: 289 }, (_, i) => i / 4).map((h) => ({
+      at: at(h),
+      secchiM: secchi(h),
+    }))
+    const trend = clarityTrend(samples, now)
+    expect(trend).toMatchObject({ label: 'clearing', basis: 'event', nextClass: 'lightly-stained' })
+    expect(trend.ratePerDay).toBeCloseTo(rate, 3)
+    // Secchi now 0.25 × 1.3^(30/24) = 0.348 m; to 0.6 m at 30 % a day: ln(0.6/0.348)/ln(1.3) = 2.08 days.
+    const days = Math.log(0.6 / (0.25 * Math.exp((rate * 30) / 24))) / rate
+    expect(trend.daysToNextClass).toBeCloseTo(days, 2)
+    expect(Date.parse(trend.nextClassAt!)).toBeCloseTo(Date.parse(now) + days * 86_400_000, -5)
+  })
+
+  it('turns from staining to clearing as a rain event passes (common practice: rain stains, then it clears over days)', () => {
+    const labels = [6, 12, 24, 36, 48, 60].map(
+      (h) => clarityTrend(every15min(72, rainEvent(3, h)), now).label,
+    )
+    expect(labels.slice(0, 2)).toEqual(['staining', 'staining'])
+    expect(labels.slice(2)).toEqual(['clearing', 'clearing', 'clearing', 'clearing'])
+    const after = clarityTrend(every15min(72, rainEvent(3, 36)), now)
+    expect(after.nextClassAt).not.toBeNull()
+    expect(Date.parse(after.nextClassAt!)).toBeGreaterThan(Date.parse(now))
+  })
+
+  it('staining after 36 mm of rain yesterday names the rain (from memory: rain on the lake and its banks stains it)', () => {
+    // Six hours of 6 mm from 22 h ago; the water steps from 3 to 60 FNU 20 h ago.
+    const rain = Array.from({ length: 48 }, (_, i) => ({
+      at: at(i),
+      mm: i >= 17 && i <= 22 ? 6 : 0,
+    }))
+    const trend = clarityTrend(
+      every15min(72, (h) => (h > 20 ? 3 : 60)),
+      now,
+      rain,
+    )
+    expect(trend.label).toBe('staining')
+    expect(trend.rain).toEqual({ mm: 36, since: at(22), until: at(17) })
+    expect(trend.reason).toMatch(/rain/)
+    // Without rain at the lake the staining is not blamed on it.
+    const dry = clarityTrend(
+      every15min(72, (h) => (h > 20 ? 3 : 60)),
+      now,
+      [],
+    )
+    expect(dry.rain).toBeNull()
+    expect(dry.reason).toMatch(/no rain/)
   })
 
   it('throws a typed error for an empty or too short series', () => {
