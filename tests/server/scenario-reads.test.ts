@@ -194,3 +194,22 @@ describeScenario('early-winter-warm-spell', (get) => {
     expect((await get().plan(0)).plan!.phase).toBe(read.phase!.phase)
   })
 })
+
+describeScenario('rain-event', (get) => {
+  const { facts } = SCENARIOS['rain-event']
+
+  it('reads the water as staining the morning after the rain, and names the rain (USGS Oregon WSC Secchi estimate; common practice)', async () => {
+    const trend = (await get().read()).clarity!.trend!
+    expect(trend.label).toBe('staining')
+    expect(trend.rain!.mm).toBeCloseTo(Number(facts.rainTotalMm), 0)
+  })
+
+  it('turns to clearing over the next days, with when the water reaches the next class', async () => {
+    const w = get()
+    await w.moveTo(2)
+    const trend = (await w.read()).clarity!.trend!
+    expect(trend.label).toBe('clearing')
+    expect(trend.nextClass).not.toBeNull()
+    expect(Date.parse(trend.nextClassAt!)).toBeGreaterThan(w.feed.now().getTime())
+  })
+})
