@@ -161,6 +161,66 @@ const MID_COLORS_WHY = 'Lightly stained to clear water: natural baitfish and cra
 const VERY_CLEAR_COLORS_WHY =
   'Very clear water: fish get a good look, so natural, translucent colours.'
 
+const rule = (r: Omit<TackleRule, 'source'>): TackleRule => ({ ...r, source: 'common practice' })
+
+/** A family's colours in lightly stained to clear water, and in very clear water (common practice). */
+function clarityColours(
+  family: LureFamily,
+  prefix: string,
+  mid: string[],
+  clearest: string[],
+): TackleRule[] {
+  return [
+    rule({
+      id: `${prefix}-colors-clear`,
+      family,
+      when: midClarity,
+      set: { colors: mid },
+      why: MID_COLORS_WHY,
+    }),
+    rule({
+      id: `${prefix}-colors-very-clear`,
+      family,
+      when: veryClear,
+      set: { colors: clearest },
+      why: VERY_CLEAR_COLORS_WHY,
+    }),
+  ]
+}
+
+/**
+ * After a cold front (common practice): a family fished slower and tight to cover (`near`), or
+ * along the bottom on points and breaks where there is no cover (`open`); `fit` where it then
+ * suits the day better.
+ */
+function afterColdFront(
+  family: LureFamily,
+  prefix: string,
+  how: { near: string; open?: string; fit?: number },
+): TackleRule[] {
+  const rows = [
+    rule({
+      id: `${prefix}-cold-front`,
+      family,
+      when: coldFront,
+      ...(how.fit !== undefined && { fit: how.fit }),
+      set: { retrieve: how.near },
+      why: COLD_FRONT_WHY,
+    }),
+  ]
+  if (how.open)
+    rows.push(
+      rule({
+        id: `${prefix}-cold-front-open`,
+        family,
+        when: (x) => coldFront(x) && openOnly(x),
+        set: { retrieve: how.open },
+        why: COLD_FRONT_OPEN_WHY,
+      }),
+    )
+  return rows
+}
+
 export const TACKLE_RULES: TackleRule[] = [
   // Spinnerbait (blade bait)
   {
@@ -313,22 +373,10 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'The retrieve is steady only when slow-rolling deep along the bottom.',
     source: 'common practice',
   },
-  {
-    id: 'blade-cold-front',
-    family: 'spinnerbait',
-    when: coldFront,
-    set: { retrieve: 'slow-roll it tight to cover, letting it bump and fall beside it' },
-    why: COLD_FRONT_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'blade-cold-front-open',
-    family: 'spinnerbait',
-    when: (x) => coldFront(x) && openOnly(x),
-    set: { retrieve: 'slow-roll it along the bottom on points and breaks' },
-    why: COLD_FRONT_OPEN_WHY,
-    source: 'common practice',
-  },
+  ...afterColdFront('spinnerbait', 'blade', {
+    near: 'slow-roll it tight to cover, letting it bump and fall beside it',
+    open: 'slow-roll it along the bottom on points and breaks',
+  }),
 
   // Squarebill crankbait
   {
@@ -352,22 +400,12 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'Bright chartreuse with a dark back shows in dirty water.',
     source: 'common practice',
   },
-  {
-    id: 'squarebill-colors-clear',
-    family: 'squarebill crankbait',
-    when: midClarity,
-    set: { colors: ['shad', 'crawfish'] },
-    why: MID_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'squarebill-colors-very-clear',
-    family: 'squarebill crankbait',
-    when: veryClear,
-    set: { colors: ['translucent shad', 'natural craw'] },
-    why: VERY_CLEAR_COLORS_WHY,
-    source: 'common practice',
-  },
+  ...clarityColours(
+    'squarebill crankbait',
+    'squarebill',
+    ['shad', 'crawfish'],
+    ['translucent shad', 'natural craw'],
+  ),
   {
     id: 'squarebill-too-deep',
     family: 'squarebill crankbait',
@@ -392,14 +430,9 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'A squarebill needs wood, rock or docks to deflect off.',
     source: 'common practice',
   },
-  {
-    id: 'squarebill-cold-front',
-    family: 'squarebill crankbait',
-    when: coldFront,
-    set: { retrieve: 'slow: crawl it into cover and pause longer after each contact' },
-    why: COLD_FRONT_WHY,
-    source: 'common practice',
-  },
+  ...afterColdFront('squarebill crankbait', 'squarebill', {
+    near: 'slow: crawl it into cover and pause longer after each contact',
+  }),
 
   // Lipless crankbait
   {
@@ -431,38 +464,16 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'Red and crawfish tones are a stained-water standby in spring; chartreuse shows in dirty water.',
     source: 'common practice',
   },
-  {
-    id: 'lipless-colors-clear',
-    family: 'lipless crankbait',
-    when: midClarity,
-    set: { colors: ['chrome shad', 'gold'] },
-    why: MID_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'lipless-colors-very-clear',
-    family: 'lipless crankbait',
-    when: veryClear,
-    set: { colors: ['translucent shad', 'natural shad'] },
-    why: VERY_CLEAR_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'lipless-cold-front',
-    family: 'lipless crankbait',
-    when: coldFront,
-    set: { retrieve: 'slow: lift it and let it fall on a slack line by the grass edge' },
-    why: COLD_FRONT_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'lipless-cold-front-open',
-    family: 'lipless crankbait',
-    when: (x) => coldFront(x) && openOnly(x),
-    set: { retrieve: 'slow: lift it and let it fall along the bottom on flats and breaks' },
-    why: COLD_FRONT_OPEN_WHY,
-    source: 'common practice',
-  },
+  ...clarityColours(
+    'lipless crankbait',
+    'lipless',
+    ['chrome shad', 'gold'],
+    ['translucent shad', 'natural shad'],
+  ),
+  ...afterColdFront('lipless crankbait', 'lipless', {
+    near: 'slow: lift it and let it fall on a slack line by the grass edge',
+    open: 'slow: lift it and let it fall along the bottom on flats and breaks',
+  }),
 
   // Jerkbait
   {
@@ -489,38 +500,16 @@ export const TACKLE_RULES: TackleRule[] = [
     why: DIRTY_COLORS_WHY,
     source: 'common practice',
   },
-  {
-    id: 'jerkbait-colors-clear',
-    family: 'jerkbait',
-    when: midClarity,
-    set: { colors: ['chrome shad', 'pearl'] },
-    why: MID_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'jerkbait-colors-very-clear',
-    family: 'jerkbait',
-    when: veryClear,
-    set: { colors: ['ghost shad', 'translucent minnow'] },
-    why: VERY_CLEAR_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'jerkbait-cold-front',
-    family: 'jerkbait',
-    when: coldFront,
-    set: { retrieve: 'slow: one twitch, then pause ten seconds and more, close to cover' },
-    why: COLD_FRONT_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'jerkbait-cold-front-open',
-    family: 'jerkbait',
-    when: (x) => coldFront(x) && openOnly(x),
-    set: { retrieve: 'slow: one twitch, then pause ten seconds and more over points and breaks' },
-    why: COLD_FRONT_OPEN_WHY,
-    source: 'common practice',
-  },
+  ...clarityColours(
+    'jerkbait',
+    'jerkbait',
+    ['chrome shad', 'pearl'],
+    ['ghost shad', 'translucent minnow'],
+  ),
+  ...afterColdFront('jerkbait', 'jerkbait', {
+    near: 'slow: one twitch, then pause ten seconds and more, close to cover',
+    open: 'slow: one twitch, then pause ten seconds and more over points and breaks',
+  }),
 
   // Jig
   {
@@ -555,39 +544,12 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'Black and blue make the strongest silhouette in dirty water.',
     source: 'common practice',
   },
-  {
-    id: 'jig-colors-clear',
-    family: 'jig',
-    when: midClarity,
-    set: { colors: ['green pumpkin', 'brown'] },
-    why: MID_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'jig-colors-very-clear',
-    family: 'jig',
-    when: veryClear,
-    set: { colors: ['watermelon', 'natural brown'] },
-    why: VERY_CLEAR_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'jig-cold-front',
-    family: 'jig',
-    when: coldFront,
+  ...clarityColours('jig', 'jig', ['green pumpkin', 'brown'], ['watermelon', 'natural brown']),
+  ...afterColdFront('jig', 'jig', {
+    near: 'slow: pitch it tight to cover, let it sit, then small hops',
+    open: 'slow: drag it along the bottom on points and breaks and let it sit',
     fit: 1.5,
-    set: { retrieve: 'slow: pitch it tight to cover, let it sit, then small hops' },
-    why: COLD_FRONT_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'jig-cold-front-open',
-    family: 'jig',
-    when: (x) => coldFront(x) && openOnly(x),
-    set: { retrieve: 'slow: drag it along the bottom on points and breaks and let it sit' },
-    why: COLD_FRONT_OPEN_WHY,
-    source: 'common practice',
-  },
+  }),
 
   // Soft-plastic worm
   {
@@ -622,39 +584,17 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'Dark colours show best in dirty water.',
     source: 'common practice',
   },
-  {
-    id: 'worm-colors-clear',
-    family: 'soft-plastic worm',
-    when: midClarity,
-    set: { colors: ['green pumpkin', 'watermelon red'] },
-    why: MID_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'worm-colors-very-clear',
-    family: 'soft-plastic worm',
-    when: veryClear,
-    set: { colors: ['watermelon', 'translucent green'] },
-    why: VERY_CLEAR_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'worm-cold-front',
-    family: 'soft-plastic worm',
-    when: coldFront,
+  ...clarityColours(
+    'soft-plastic worm',
+    'worm',
+    ['green pumpkin', 'watermelon red'],
+    ['watermelon', 'translucent green'],
+  ),
+  ...afterColdFront('soft-plastic worm', 'worm', {
+    near: 'dead slow: let it sit tight to cover between small lifts',
+    open: 'dead slow: drag it along the bottom on points and breaks and let it sit',
     fit: 1.5,
-    set: { retrieve: 'dead slow: let it sit tight to cover between small lifts' },
-    why: COLD_FRONT_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'worm-cold-front-open',
-    family: 'soft-plastic worm',
-    when: (x) => coldFront(x) && openOnly(x),
-    set: { retrieve: 'dead slow: drag it along the bottom on points and breaks and let it sit' },
-    why: COLD_FRONT_OPEN_WHY,
-    source: 'common practice',
-  },
+  }),
 
   // Topwater
   {
@@ -689,22 +629,7 @@ export const TACKLE_RULES: TackleRule[] = [
     why: 'A dark topwater silhouettes against the sky in dirty water.',
     source: 'common practice',
   },
-  {
-    id: 'topwater-colors-clear',
-    family: 'topwater',
-    when: midClarity,
-    set: { colors: ['bone', 'shad'] },
-    why: MID_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'topwater-colors-very-clear',
-    family: 'topwater',
-    when: veryClear,
-    set: { colors: ['clear', 'translucent shad'] },
-    why: VERY_CLEAR_COLORS_WHY,
-    source: 'common practice',
-  },
+  ...clarityColours('topwater', 'topwater', ['bone', 'shad'], ['clear', 'translucent shad']),
   {
     id: 'topwater-cold-front',
     family: 'topwater',
@@ -747,38 +672,16 @@ export const TACKLE_RULES: TackleRule[] = [
     why: DIRTY_COLORS_WHY,
     source: 'common practice',
   },
-  {
-    id: 'swimbait-colors-clear',
-    family: 'swimbait',
-    when: midClarity,
-    set: { colors: ['natural shad', 'pearl'] },
-    why: MID_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'swimbait-colors-very-clear',
-    family: 'swimbait',
-    when: veryClear,
-    set: { colors: ['translucent shad', 'ghost'] },
-    why: VERY_CLEAR_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'swimbait-cold-front',
-    family: 'swimbait',
-    when: coldFront,
-    set: { retrieve: 'slow: crawl it tight past cover, near the bottom' },
-    why: COLD_FRONT_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'swimbait-cold-front-open',
-    family: 'swimbait',
-    when: (x) => coldFront(x) && openOnly(x),
-    set: { retrieve: 'slow: crawl it near the bottom along breaks and points' },
-    why: COLD_FRONT_OPEN_WHY,
-    source: 'common practice',
-  },
+  ...clarityColours(
+    'swimbait',
+    'swimbait',
+    ['natural shad', 'pearl'],
+    ['translucent shad', 'ghost'],
+  ),
+  ...afterColdFront('swimbait', 'swimbait', {
+    near: 'slow: crawl it tight past cover, near the bottom',
+    open: 'slow: crawl it near the bottom along breaks and points',
+  }),
 
   // Bladed jig
   {
@@ -814,28 +717,13 @@ export const TACKLE_RULES: TackleRule[] = [
     why: DIRTY_COLORS_WHY,
     source: 'common practice',
   },
-  {
-    id: 'bladed-jig-colors-clear',
-    family: 'bladed jig',
-    when: midClarity,
-    set: { colors: ['white', 'shad'] },
-    why: MID_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'bladed-jig-colors-very-clear',
-    family: 'bladed jig',
-    when: veryClear,
-    set: { colors: ['translucent shad', 'natural shad'] },
-    why: VERY_CLEAR_COLORS_WHY,
-    source: 'common practice',
-  },
-  {
-    id: 'bladed-jig-cold-front',
-    family: 'bladed jig',
-    when: coldFront,
-    set: { retrieve: 'slow: crawl it along the grass tops and pause at the edges' },
-    why: COLD_FRONT_WHY,
-    source: 'common practice',
-  },
+  ...clarityColours(
+    'bladed jig',
+    'bladed-jig',
+    ['white', 'shad'],
+    ['translucent shad', 'natural shad'],
+  ),
+  ...afterColdFront('bladed jig', 'bladed-jig', {
+    near: 'slow: crawl it along the grass tops and pause at the edges',
+  }),
 ]
