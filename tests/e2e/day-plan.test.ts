@@ -1,6 +1,9 @@
 import { join } from 'node:path'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { VERDICT_LABELS } from '../../shared/conditions/safety'
+import { DEFAULT_SETTINGS, makeFormat } from '../../shared/format'
+import type { DayPlanResponse } from '../../shared/schemas/day-plan'
 import { expectAccessible } from '../helpers/axe'
 import { artifactsDir } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
@@ -62,8 +65,26 @@ describe("the angler's day in Chromium", () => {
     await expect.poll(() => firstWindow.count()).toBeGreaterThan(0)
     await expect.poll(() => page.locator('.tackle-call').count()).toBeGreaterThan(0)
     await expect
-      .poll(() => page.getByRole('region', { name: 'Safety cautions' }).first().innerText())
+      .poll(() => page.getByRole('region', { name: 'About these cautions' }).innerText())
       .toMatch(/boating law/)
+    // Every window shows its verdict and each of its cautions as the API has them, once.
+    const date = page.url().split('/').at(-1)!
+    const answer = (await (
+      await page.request.get(`${base}/api/lakes/quillmere/plan/${date}`)
+    ).json()) as DayPlanResponse
+    const f = makeFormat(DEFAULT_SETTINGS)
+    let compared = 0
+    for (const w of answer.plan!.windows.filter((x) => x.weather)) {
+      const section = page.locator('section.plan-window', { has: page.locator(`#window-${w.id}`) })
+      const text = await section.innerText()
+      expect(text).toContain(VERDICT_LABELS[f.verdict(w.cautions).verdict])
+      for (const c of w.cautions.filter((x) => x.kind !== 'authority')) {
+        const message = f.caution(c).message
+        expect(text.split(message).length - 1, message).toBe(1)
+        compared++
+      }
+    }
+    expect(compared).toBeGreaterThan(0)
     await expectAccessible(page, 'Day plan')
     await page.screenshot({ path: join(artifactsDir, 'day-plan-phone.png'), fullPage: true })
 
