@@ -154,17 +154,18 @@ function summarise(
   return {
     windFromDeg: meanDirection(hours),
     windMs: avg((h) => h.windMs),
-    gustMs: worst.gustMs!,
+    gustMs: worst.gustMs,
     sky: skyFromCloud(avg((h) => h.cloudCoverPct)),
     lowLight,
     airC: avg((h) => h.airC),
-    thunderstormProbabilityPct: worst.thunderstormProbabilityPct!,
+    thunderstormProbabilityPct: worst.thunderstormProbabilityPct,
     relativeHumidityPct: avg((h) => h.relativeHumidityPct),
     peak: {
       windFromDeg: strongest.windFromDeg,
       windMs: strongest.windMs,
-      gustMs: worst.gustMs!,
-      thunderstormProbabilityPct: worst.thunderstormProbabilityPct!,
+      gustMs: worst.gustMs,
+      thunderstormProbabilityPct: worst.thunderstormProbabilityPct,
+      // Defined: a window has hours.
       heatIndexC: worst.heatIndexC!,
       windChillC: worst.windChillC ?? null,
     },

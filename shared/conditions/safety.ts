@@ -278,7 +278,9 @@ export interface CautionHour {
 }
 
 /** The worst of some hours for the cautions: a day is judged by its worst hour for safety. */
-export function worstOf(hours: CautionHour[]): CautionInput {
+export function worstOf(
+  hours: CautionHour[],
+): CautionInput & { gustMs: number; thunderstormProbabilityPct: number } {
   const chills = hours.flatMap((h) => {
     const wc = windChillC(h.airC, h.windMs)
     return wc === null ? [] : [wc]
