@@ -30,6 +30,7 @@ import { tripsService } from './features/guides/trips.service'
 import { lakesDeskRepo } from './features/desk/lakes-desk.repo'
 import { lakesDeskRoutes } from './features/desk/lakes-desk.routes'
 import { lakesDeskService } from './features/desk/lakes-desk.service'
+import { outlineChecker } from './features/desk/outline-check'
 import type { MailContext } from './features/mail/mailer'
 import { quarantineRepo } from './features/quarantine/quarantine.repo'
 import { quarantineRoutes } from './features/quarantine/quarantine.routes'
@@ -76,6 +77,8 @@ export interface AppDeps {
    * memory until something they were made from changes. Without them, from the database each time.
    */
   changes?: Changes
+  /** How long an uploaded outline may take to check, in its worker thread; 20 s unless set. */
+  outlineCheckMs?: number
   /** Sign-in, sign-up and verification-mail attempts per window per client address. */
   authRateLimit?: { windowMs: number; limit: number }
 }
@@ -171,7 +174,12 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(quarantineRoutes(quarantineService(quarantineRepo(deps.db))))
   api.use(
     lakesDeskRoutes(
-      lakesDeskService({ db: deps.db, repo: lakesDeskRepo(deps.db), log: deps.logger }),
+      lakesDeskService({
+        db: deps.db,
+        repo: lakesDeskRepo(deps.db),
+        log: deps.logger,
+        checkOutline: outlineChecker({ timeLimitMs: deps.outlineCheckMs ?? 20_000 }),
+      }),
     ),
   )
   api.use(auditRoutes(auditRepo(deps.db)))

@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm'
+import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Polygon, Position } from '../../shared/geo/types'
 import { RecomputeStatus, ShorelinePreview } from '../../shared/schemas/desk'
@@ -7,6 +8,7 @@ import { banks, lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { signedInAgent, testApp } from '../helpers/app'
 import { createTestDb } from '../helpers/db'
+import { diagonalStrips } from '../shared/geo/fixtures'
 
 let ctx: Awaited<ReturnType<typeof createTestDb>>
 let shoreline: Polygon
@@ -107,6 +109,44 @@ describe('outline uploads', () => {
     const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
     expect(lake!.shoreline).toEqual(shoreline)
     await admin.get('/api/admin/lakes/quillmere/recompute').expect(404)
+  })
+})
+
+describe('heavy outlines', () => {
+  it('checks 50,000 vertices of diagonal strips off the request thread: other requests go on', async () => {
+    const app = testApp(ctx.db)
+    const admin = await signedInAgent(app, ctx.db, 'strips@desk.test', 'admin')
+    const order: string[] = []
+    const preview = admin
+      .post('/api/admin/lakes/shoreline-preview')
+      .attach('file', file(feature(diagonalStrips(50_000))), 'strips.geojson')
+      .then((res) => {
+        order.push('preview')
+        return res
+      })
+    await new Promise((r) => setTimeout(r, 100))
+    const started = performance.now()
+    await request(app).get('/api/health').expect(200)
+    order.push('health')
+    expect(performance.now() - started).toBeLessThan(300)
+    const res = await preview
+    expect(res.status).toBe(200)
+    expect(ShorelinePreview.parse(res.body).stats.vertices).toBe(50_000)
+    expect(order).toEqual(['health', 'preview'])
+  }, 20_000)
+
+  it('stops a check that runs past its time limit with a 503 that says so', async () => {
+    const admin = await signedInAgent(
+      testApp(ctx.db, { outlineCheckMs: 1 }),
+      ctx.db,
+      'slow@desk.test',
+      'admin',
+    )
+    const res = await admin
+      .post('/api/admin/lakes/shoreline-preview')
+      .attach('file', file(feature(shoreline)), 'lake.geojson')
+      .expect(503)
+    expect(res.body.error.code).toBe('outline_check_timeout')
   })
 })
 
