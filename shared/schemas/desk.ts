@@ -1,19 +1,12 @@
 import { z } from 'zod'
 import { isTimeZone } from '../time'
 import { LakeShoreline } from './lake-read'
+import { PlainText } from './text'
 
 /** What an admin may edit of a lake (the desk's Lakes screen); the outline is replaced apart. */
 export const LakeEditInput = z.object({
-  name: z
-    .string()
-    .trim()
-    .min(1, 'Give the lake a name.')
-    .max(80, 'Keep the name under 80 characters.'),
-  region: z
-    .string()
-    .trim()
-    .min(1, 'Give the region.')
-    .max(80, 'Keep the region under 80 characters.'),
+  name: PlainText().min(1, 'Give the lake a name.').max(80, 'Keep the name under 80 characters.'),
+  region: PlainText().min(1, 'Give the region.').max(80, 'Keep the region under 80 characters.'),
   timeZone: z.string().refine(isTimeZone, 'Not a time zone we know.'),
   normalPoolM: z.coerce
     .number({ error: 'Give the normal pool elevation in metres.' })
