@@ -150,6 +150,34 @@ describe('heavy outlines', () => {
   })
 })
 
+describe('malformed uploads', () => {
+  it('answers a multipart body cut short, a bad part header or no boundary with a 400', async () => {
+    const app = testApp(ctx.db)
+    const admin = await signedInAgent(app, ctx.db, 'multipart@desk.test', 'admin')
+    const guide = await signedInAgent(app, ctx.db, 'multipart@guide.test', 'guide')
+    const boundary = 'XyZ'
+    const bodies = (file: string) => [
+      `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${file}"\r\n\r\n{"type"`,
+      `--${boundary}\r\nContent-Disposition form-data\r\n\r\nx\r\n--${boundary}--\r\n`,
+    ]
+    for (const [agent, path, file] of [
+      [admin, '/api/admin/lakes/shoreline-preview', 'a.geojson'],
+      [guide, '/api/guide/clients/import', 'a.csv'],
+    ] as const) {
+      for (const body of bodies(file)) {
+        const res = await agent
+          .post(path)
+          .set('Content-Type', `multipart/form-data; boundary=${boundary}`)
+          .send(body)
+        expect(res.status, `${path}: ${body.slice(0, 40)}`).toBe(400)
+        expect(res.body.error.code).toBe('bad_upload')
+      }
+      const res = await agent.post(path).set('Content-Type', 'multipart/form-data').send('x')
+      expect(res.status, `${path}: no boundary`).toBe(400)
+    }
+  })
+})
+
 describe('lakes on the desk', () => {
   it('replaces an outline, recomputes every bank on the lake as a job, and flags banks left off the shore', async () => {
     const app = testApp(ctx.db)
