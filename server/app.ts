@@ -88,7 +88,11 @@ export function createApp(deps: AppDeps): express.Express {
   app.disable('x-powered-by')
 
   const linkKey = tokenKey(deps.sessionSecret)
-  const auth = authService(authRepo(deps.db), linkKey, deps.changes)
+  const auth = authService(authRepo(deps.db), linkKey, {
+    mail: deps.mail,
+    log: deps.logger,
+    changes: deps.changes,
+  })
   const limits = deps.authRateLimit ?? { windowMs: 15 * 60_000, limit: 20 }
   const limiter = rateLimit({
     ...limits,

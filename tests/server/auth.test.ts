@@ -2,27 +2,50 @@ import { Writable } from 'node:stream'
 import { count, eq } from 'drizzle-orm'
 import { pino } from 'pino'
 import request from 'supertest'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { users } from '../../server/db/schema/index'
 import { SESSION_COOKIE } from '../../server/features/auth/auth.tokens'
 import { createTestDb } from '../helpers/db'
-import { PASSWORD, signedInAgent, testApp } from '../helpers/app'
+import { createUser, PASSWORD, signedInAgent, testApp } from '../helpers/app'
+import { linkToken, startTestMail, TEST_ORIGIN, type TestMail } from '../helpers/mail'
 
 let ctx: Awaited<ReturnType<typeof createTestDb>>
 let app: ReturnType<typeof testApp>
+let mail: TestMail
 const logLines: string[] = []
 
 beforeAll(async () => {
   ctx = await createTestDb()
+  mail = await startTestMail()
   const sink = new Writable({
     write(chunk, _enc, done) {
       logLines.push(String(chunk))
       done()
     },
   })
-  app = testApp(ctx.db, { logger: pino({ level: 'info' }, sink) })
+  app = testApp(ctx.db, { logger: pino({ level: 'info' }, sink), mail: mail.mail })
 })
-afterAll(() => ctx.drop())
+afterAll(async () => {
+  await mail.close()
+  await ctx.drop()
+})
+
+/** The message the stand-in caught for `to` with a subject matching `subject`, once it comes. */
+async function mailTo(to: string, subject: RegExp) {
+  return vi.waitFor(() => {
+    const found = mail.smtp.messages().find((m) => m.to.includes(to) && subject.test(m.subject))
+    if (!found) throw new Error(`no mail to ${to} yet`)
+    return found
+  })
+}
+
+/** Signs up through the API and the mailed link; the confirm answer carries the session. */
+async function signUpByMail(email: string, password = PASSWORD) {
+  await request(app).post('/api/auth/signup').send({ email, password }).expect(202)
+  const message = await mailTo(email.trim().toLowerCase(), /finish your Chopline account/)
+  const token = linkToken(message.text, `${TEST_ORIGIN}/welcome`)
+  return request(app).post('/api/auth/signup/confirm').send({ token })
+}
 
 function sessionCookie(res: request.Response): string {
   const raw = ([] as string[]).concat(res.headers['set-cookie'] ?? [])
@@ -33,10 +56,8 @@ function sessionCookie(res: request.Response): string {
 
 describe('sign-up, sign-in, sign-out', () => {
   it('round-trips a session through an httpOnly, SameSite=Lax cookie', async () => {
-    const signup = await request(app)
-      .post('/api/auth/signup')
-      .send({ email: '  Casey@Example.TEST ', password: PASSWORD })
-      .expect(201)
+    const signup = await signUpByMail('  Casey@Example.TEST ')
+    expect(signup.status).toBe(201)
     expect(signup.body.user).toMatchObject({ email: 'casey@example.test', role: 'angler' })
     expect(Object.keys(signup.body.user).sort()).toEqual(['createdAt', 'email', 'id', 'role'])
     const cookie = sessionCookie(signup)
@@ -61,10 +82,7 @@ describe('sign-up, sign-in, sign-out', () => {
   })
 
   it('answers an unknown e-mail and a wrong password the same way', async () => {
-    await request(app)
-      .post('/api/auth/signup')
-      .send({ email: 'jo@example.test', password: PASSWORD })
-      .expect(201)
+    await createUser(ctx.db, 'jo@example.test')
     const wrong = await request(app)
       .post('/api/auth/signin')
       .send({ email: 'jo@example.test', password: 'not the password' })
@@ -77,16 +95,52 @@ describe('sign-up, sign-in, sign-out', () => {
     expect(wrong.body.error.code).toBe('invalid_credentials')
   })
 
-  it('refuses a second account for the same e-mail with a field message', async () => {
+  it('answers sign-up the same whether the address has an account, and tells only its mailbox', async () => {
+    await createUser(ctx.db, 'dup@example.test')
+    const taken = await request(app)
+      .post('/api/auth/signup')
+      .send({ email: 'DUP@example.test', password: 'a different password' })
+      .expect(202)
+    const fresh = await request(app)
+      .post('/api/auth/signup')
+      .send({ email: 'new@example.test', password: 'a different password' })
+      .expect(202)
+    expect(Object.keys(taken.body)).toEqual(Object.keys(fresh.body))
+    expect(taken.headers['set-cookie']).toBeUndefined()
+    expect(fresh.headers['set-cookie']).toBeUndefined()
+    // No account exists until the link is opened; the owner of the taken address is told.
+    expect(await ctx.db.$count(users, eq(users.email, 'new@example.test'))).toBe(0)
+    const notice = await mailTo('dup@example.test', /already have a Chopline account/)
+    expect(notice.text).toContain(`${TEST_ORIGIN}/signin`)
+    expect(notice.text).not.toContain('/welcome')
+    // The existing password still works; the one typed at sign-up does not.
     await request(app)
-      .post('/api/auth/signup')
+      .post('/api/auth/signin')
+      .send({ email: 'dup@example.test', password: 'a different password' })
+      .expect(401)
+    await request(app)
+      .post('/api/auth/signin')
       .send({ email: 'dup@example.test', password: PASSWORD })
-      .expect(201)
-    const res = await request(app)
-      .post('/api/auth/signup')
-      .send({ email: 'DUP@example.test', password: PASSWORD })
-      .expect(409)
-    expect(res.body.error.fields.email).toMatch(/already exists/)
+      .expect(200)
+  })
+
+  it('makes the account from the mailed link once, with the address confirmed', async () => {
+    const first = await signUpByMail('once@example.test')
+    expect(first.status).toBe(201)
+    const [row] = await ctx.db.select().from(users).where(eq(users.email, 'once@example.test'))
+    expect(row!.emailVerifiedAt).not.toBeNull()
+    const message = await mailTo('once@example.test', /finish your Chopline account/)
+    const token = linkToken(message.text, `${TEST_ORIGIN}/welcome`)
+    // The hash travels sealed: the link holds no readable trace of it.
+    expect(token).not.toContain(row!.passwordHash)
+    expect(Buffer.from(token.split('.')[0]!, 'base64url').toString()).toContain('A256GCM')
+    const again = await request(app).post('/api/auth/signup/confirm').send({ token }).expect(409)
+    expect(again.body.error.code).toBe('already_confirmed')
+    const forged = await request(app)
+      .post('/api/auth/signup/confirm')
+      .send({ token: `${token.slice(0, -6)}AAAAAA` })
+      .expect(400)
+    expect(forged.body.error.code).toBe('link_invalid')
   })
 
   it('rejects a forged token', async () => {
@@ -177,9 +231,7 @@ describe('defences', () => {
   })
 
   it('never writes a password, hash or session token to the log', async () => {
-    const res = await request(app)
-      .post('/api/auth/signup')
-      .send({ email: 'log@example.test', password: PASSWORD })
+    const res = await signUpByMail('log@example.test')
     const token = sessionCookie(res).split(';')[0]!.split('=')[1]!
     await request(app).get('/api/me').set('Cookie', `${SESSION_COOKIE}=${token}`).expect(200)
     const [row] = await ctx.db.select().from(users).where(eq(users.email, 'log@example.test'))

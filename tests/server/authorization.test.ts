@@ -35,6 +35,7 @@ const bankOwner = { ...guideOwns, angler: 404 } as const
 const MATRIX: Record<string, Record<Who, Expect>> = {
   'GET /health': anyone,
   'POST /auth/signup': anyone,
+  'POST /auth/signup/confirm': anyone,
   'POST /auth/signin': anyone,
   'POST /auth/signout': anyone,
   'GET /me': signedIn,
@@ -165,10 +166,7 @@ describe('the authorization matrix', () => {
       const trip = (await agents.guide.post('/api/guide/trips').send(tripBody).expect(201)).body
         .id as string
       const share = (
-        await agents.guide
-          .post(`/api/guide/trips/${trip}/shares`)
-          .send({ expiresOn })
-          .expect(201)
+        await agents.guide.post(`/api/guide/trips/${trip}/shares`).send({ expiresOn }).expect(201)
       ).body.items[0]
       const token = new URL(share.url).pathname.split('/').pop()!
 

@@ -5,7 +5,12 @@ import {
   type RequestHandler,
   type Response,
 } from 'express'
-import { PasswordChangeInput, SignInInput, SignUpInput } from '../../../shared/schemas/auth'
+import {
+  PasswordChangeInput,
+  SignInInput,
+  SignUpConfirmInput,
+  SignUpInput,
+} from '../../../shared/schemas/auth'
 import { currentUser, requireSignIn } from '../../http/access'
 import { input, validate } from '../../http/validate'
 import type { AuthService, IssuedSession } from './auth.service'
@@ -32,8 +37,18 @@ export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
   const router = Router()
 
   router.post('/auth/signup', opts.limiter, validate({ body: SignUpInput }), async (req, res) => {
-    respondWithSession(res, 201, await auth.signUp(input(SignUpInput, req.body)))
+    res.status(202).json(await auth.signUp(input(SignUpInput, req.body)))
   })
+
+  router.post(
+    '/auth/signup/confirm',
+    opts.limiter,
+    validate({ body: SignUpConfirmInput }),
+    async (req, res) => {
+      const { token } = input(SignUpConfirmInput, req.body)
+      respondWithSession(res, 201, await auth.confirmSignUp(token))
+    },
+  )
 
   router.post('/auth/signin', opts.limiter, validate({ body: SignInInput }), async (req, res) => {
     respondWithSession(res, 200, await auth.signIn(input(SignInInput, req.body)))
