@@ -4,6 +4,7 @@ import { pino } from 'pino'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { users } from '../../server/db/schema/index'
+import { allowedOrigins, loadEnv } from '../../server/env'
 import { SESSION_COOKIE } from '../../server/features/auth/auth.tokens'
 import { createTestDb } from '../helpers/db'
 import { createUser, PASSWORD, signedInAgent, testApp } from '../helpers/app'
@@ -215,6 +216,25 @@ describe('defences', () => {
     expect(res.body.error.code).toBe('cross_origin')
   })
 
+  it('without APP_ORIGIN, takes where the server listens as ours, never the Host a request brings', async () => {
+    const dev = testApp(ctx.db, {
+      appOrigin: allowedOrigins(loadEnv({ HOST: '127.0.0.1', PORT: '3000' })),
+    })
+    const signIn = (origin: string, host = '127.0.0.1:3000') =>
+      request(dev)
+        .post('/api/auth/signin')
+        .set('Host', host)
+        .set('Origin', origin)
+        .send({ email: 'jo@example.test', password: 'wrong' })
+    // A rebinding page: its own name, resolved to this machine.
+    expect((await signIn('http://rebound.example:3000', 'rebound.example:3000')).status).toBe(403)
+    expect((await signIn('http://localhost:3000')).status).toBe(401)
+    expect((await signIn('http://127.0.0.1:3000')).status).toBe(401)
+    expect(allowedOrigins(loadEnv({ APP_ORIGIN: 'https://chopline.example/' }))).toEqual([
+      'https://chopline.example',
+    ])
+  })
+
   it('rate-limits sign-in with 429', async () => {
     const limited = testApp(ctx.db, { authRateLimit: { windowMs: 60_000, limit: 3 } })
     for (let i = 0; i < 3; i++) {
@@ -229,6 +249,67 @@ describe('defences', () => {
       .expect(429)
     expect(res.body.error.code).toBe('rate_limited')
   })
+
+  it('counts only failed sign-ins, per account and per address, each route apart', async () => {
+    const limited = testApp(ctx.db, {
+      authRateLimit: { windowMs: 60_000, limit: 3 },
+      authRateLimitPerAddress: { windowMs: 60_000, limit: 6 },
+    })
+    await createUser(ctx.db, 'busy@example.test')
+    await createUser(ctx.db, 'target@example.test')
+    const signIn = (email: string, password: string) =>
+      request(limited).post('/api/auth/signin').send({ email, password })
+    // A busy office: good sign-ins from one address never lock anyone out.
+    for (let i = 0; i < 10; i++)
+      expect((await signIn('busy@example.test', PASSWORD)).status).toBe(200)
+    // Three wrong passwords lock that account, not the next one at the same address.
+    for (let i = 0; i < 3; i++)
+      expect((await signIn('target@example.test', 'wrong')).status).toBe(401)
+    expect((await signIn('target@example.test', PASSWORD)).status).toBe(429)
+    expect((await signIn('busy@example.test', PASSWORD)).status).toBe(200)
+    // Sign-up keeps its own count.
+    await request(limited)
+      .post('/api/auth/signup')
+      .send({ email: 'target@example.test', password: PASSWORD })
+      .expect(202)
+    // Guessing across accounts from one address meets the address's limit.
+    for (let i = 0; i < 3; i++)
+      expect((await signIn(`spray${i}@example.test`, 'wrong')).status).toBe(401)
+    expect((await signIn('spray9@example.test', 'wrong')).status).toBe(429)
+  }, 30_000)
+
+  it('keys the address on X-Forwarded-For only behind a trusted proxy (TRUST_PROXY)', async () => {
+    const limits = {
+      authRateLimit: { windowMs: 60_000, limit: 1 },
+      authRateLimitPerAddress: { windowMs: 60_000, limit: 1 },
+    }
+    const wrong = (app: ReturnType<typeof testApp>, i: number, from: string) =>
+      request(app)
+        .post('/api/auth/signin')
+        .set('X-Forwarded-For', from)
+        .send({ email: `proxy${i}@example.test`, password: 'wrong' })
+    const direct = testApp(ctx.db, limits)
+    expect((await wrong(direct, 1, '203.0.113.1')).status).toBe(401)
+    // Not behind a proxy: the header is anyone's to write, so it changes nothing.
+    expect((await wrong(direct, 2, '203.0.113.2')).status).toBe(429)
+    const proxied = testApp(ctx.db, { ...limits, trustProxy: 1 })
+    expect((await wrong(proxied, 3, '203.0.113.3')).status).toBe(401)
+    expect((await wrong(proxied, 4, '203.0.113.4')).status).toBe(401)
+    expect((await wrong(proxied, 5, '203.0.113.4')).status).toBe(429)
+  })
+
+  it('limits wrong current passwords on a password change, per account', async () => {
+    const limited = testApp(ctx.db, { authRateLimit: { windowMs: 60_000, limit: 3 } })
+    const agent = await signedInAgent(limited, ctx.db, 'guess@example.test')
+    const other = await signedInAgent(limited, ctx.db, 'bystander@example.test')
+    const change = (a: typeof agent, currentPassword: string) =>
+      a.post('/api/me/password').send({ currentPassword, newPassword: 'a brand new password' })
+    for (let i = 0; i < 3; i++) expect((await change(agent, `guess ${i}`)).status).toBe(400)
+    const blocked = await change(agent, PASSWORD)
+    expect(blocked.status).toBe(429)
+    expect(blocked.body.error.code).toBe('rate_limited')
+    expect((await change(other, 'wrong')).status).toBe(400)
+  }, 20_000)
 
   it('never writes a password, hash or session token to the log', async () => {
     const res = await signUpByMail('log@example.test')

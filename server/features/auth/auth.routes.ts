@@ -13,13 +13,14 @@ import {
 } from '../../../shared/schemas/auth'
 import { currentUser, requireSignIn } from '../../http/access'
 import { input, validate } from '../../http/validate'
+import type { AuthRateLimits } from '../../http/rate-limits'
 import type { AuthService, IssuedSession } from './auth.service'
 import { SESSION_COOKIE } from './auth.tokens'
 
 export interface AuthRouteOptions {
   secureCookies: boolean
-  /** express-rate-limit middleware for sign-in and sign-up. */
-  limiter: RequestHandler
+  /** express-rate-limit middleware, per route (`authRateLimits`). */
+  limits: Pick<AuthRateLimits, 'signIn' | 'signUp' | 'signUpConfirm' | 'passwordChange'>
 }
 
 export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
@@ -36,13 +37,18 @@ export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
 
   const router = Router()
 
-  router.post('/auth/signup', opts.limiter, validate({ body: SignUpInput }), async (req, res) => {
-    res.status(202).json(await auth.signUp(input(SignUpInput, req.body)))
-  })
+  router.post(
+    '/auth/signup',
+    opts.limits.signUp,
+    validate({ body: SignUpInput }),
+    async (req, res) => {
+      res.status(202).json(await auth.signUp(input(SignUpInput, req.body)))
+    },
+  )
 
   router.post(
     '/auth/signup/confirm',
-    opts.limiter,
+    opts.limits.signUpConfirm,
     validate({ body: SignUpConfirmInput }),
     async (req, res) => {
       const { token } = input(SignUpConfirmInput, req.body)
@@ -50,9 +56,14 @@ export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
     },
   )
 
-  router.post('/auth/signin', opts.limiter, validate({ body: SignInInput }), async (req, res) => {
-    respondWithSession(res, 200, await auth.signIn(input(SignInInput, req.body)))
-  })
+  router.post(
+    '/auth/signin',
+    opts.limits.signIn,
+    validate({ body: SignInInput }),
+    async (req, res) => {
+      respondWithSession(res, 200, await auth.signIn(input(SignInInput, req.body)))
+    },
+  )
 
   router.post('/auth/signout', async (req, res) => {
     if (req.auth) await auth.signOut(req.auth.sessionId)
@@ -67,6 +78,7 @@ export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
   router.post(
     '/me/password',
     requireSignIn,
+    opts.limits.passwordChange,
     validate({ body: PasswordChangeInput }),
     async (req, res) => {
       const body = input(PasswordChangeInput, req.body)
