@@ -126,7 +126,12 @@ export const ShareInput = z.object({
   expiresOn: z.iso.date('Give the date as YYYY-MM-DD.'),
 })
 export const ShareParams = IdParams.extend({ shareId: z.uuid('Not a link of this trip.') })
+/** Clients one send may mail a link to. */
+export const SHARE_MAX_CLIENTS = 50
 export const ShareSendInput = z.object({
-  clientIds: z.array(z.uuid('Not one of your clients.')).min(1, 'Choose at least one client.'),
+  clientIds: z
+    .array(z.uuid('Not one of your clients.'))
+    .min(1, 'Choose at least one client.')
+    .max(SHARE_MAX_CLIENTS, `Send to at most ${SHARE_MAX_CLIENTS} clients at a time.`),
 })
 export const ShareToken = z.object({ token: z.string().min(16).max(2000) })

@@ -337,9 +337,21 @@ describe('bounds on what a guide types', () => {
         .expect(400)
       expect(res.body.error.fields.expiresOn, expiresOn).toMatch(/at most a year/)
     }
-    await guide
-      .post(`/api/guide/trips/${saved.id}/shares`)
-      .send({ expiresOn: addDays(today, 300) })
-      .expect(201)
+    const [share] = (
+      await guide
+        .post(`/api/guide/trips/${saved.id}/shares`)
+        .send({ expiresOn: addDays(today, 300) })
+        .expect(201)
+    ).body.items
+    // One send mails at most 50 clients.
+    const many = Array.from(
+      { length: 51 },
+      (_, i) => `00000000-0000-4000-8000-${String(i).padStart(12, '0')}`,
+    )
+    const res = await guide
+      .post(`/api/guide/trips/${saved.id}/shares/${share.id}/send`)
+      .send({ clientIds: many })
+      .expect(400)
+    expect(res.body.error.fields.clientIds).toMatch(/at most 50/)
   })
 })

@@ -270,3 +270,25 @@ describe('lakes on the desk', () => {
     expect(log.items.slice(0, 2).map((e) => e.action)).toEqual(['lake.edit', 'lake.create'])
   })
 })
+
+describe('junk the desk stores no more', () => {
+  it('answers a normal pool of null, blank, true or a list with a field message, and stores nothing', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'junk@desk.test', 'admin')
+    const [before] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    const lake = { name: before!.name, region: before!.region, timeZone: before!.timeZone }
+    for (const normalPoolM of [null, '', '  ', true, [5], 'abc']) {
+      const res = await admin.put('/api/admin/lakes/quillmere').send({ ...lake, normalPoolM })
+      expect(res.status, JSON.stringify(normalPoolM)).toBe(400)
+      expect(res.body.error.fields.normalPoolM).toMatch(/normal pool/i)
+    }
+    const [after] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    expect(after!.normalPoolM).toBe(before!.normalPoolM)
+    // A form field's text still counts as the number it spells.
+    await admin
+      .put('/api/admin/lakes/quillmere')
+      .send({ ...lake, normalPoolM: ' 151.5 ' })
+      .expect(200)
+    const [edited] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    expect(edited!.normalPoolM).toBe(151.5)
+  })
+})
