@@ -2,7 +2,6 @@ import { existsSync } from 'node:fs'
 import compression from 'compression'
 import cookieParser from 'cookie-parser'
 import express, { type RequestHandler } from 'express'
-import { rateLimit } from 'express-rate-limit'
 import helmet from 'helmet'
 import type { Changes } from './db/changes'
 import type { Db } from './db/index'
@@ -30,6 +29,7 @@ import { tripsService } from './features/guides/trips.service'
 import { lakesDeskRepo } from './features/desk/lakes-desk.repo'
 import { lakesDeskRoutes } from './features/desk/lakes-desk.routes'
 import { lakesDeskService } from './features/desk/lakes-desk.service'
+import { outlineChecker } from './features/desk/outline-check'
 import type { MailContext } from './features/mail/mailer'
 import { quarantineRepo } from './features/quarantine/quarantine.repo'
 import { quarantineRoutes } from './features/quarantine/quarantine.routes'
@@ -48,9 +48,10 @@ import { stationsService } from './features/stations/stations.service'
 import { usersRepo } from './features/users/users.repo'
 import { usersRoutes } from './features/users/users.routes'
 import { usersService } from './features/users/users.service'
-import { errorHandler, HttpError, notFound } from './http/errors'
+import { errorHandler, notFound } from './http/errors'
 import { sameOrigin } from './http/origin'
 import { pageRoutes } from './http/pages'
+import { authRateLimits, type RateLimit } from './http/rate-limits'
 import { requestLog } from './http/request-log'
 import type { Logger } from './logger'
 
@@ -60,7 +61,8 @@ export interface AppDeps {
   sessionSecret: string
   /** Secure cookies everywhere but local development and tests over plain HTTP. */
   secureCookies: boolean
-  appOrigin?: string
+  /** Where state-changing requests may come from (see `sameOrigin`). */
+  appOrigin?: string | string[]
   /** The built client (vite build output); served with an SPA fallback when present. */
   staticDir?: string
   /** Vite's dev middleware, for `npm run dev`. */
@@ -76,29 +78,33 @@ export interface AppDeps {
    * memory until something they were made from changes. Without them, from the database each time.
    */
   changes?: Changes
-  /** Sign-in, sign-up and verification-mail attempts per window per client address. */
-  authRateLimit?: { windowMs: number; limit: number }
+  /** How long an uploaded outline may take to check, in its worker thread; 20 s unless set. */
+  outlineCheckMs?: number
+  /**
+   * Attempts per window on each of sign-in, sign-up, confirmation mail and password change, per
+   * account; per address, `authRateLimitPerAddress` (five times as many unless set).
+   */
+  authRateLimit?: RateLimit
+  authRateLimitPerAddress?: RateLimit
+  /** Express's `trust proxy`: which proxies in front may name the client's address (TRUST_PROXY). */
+  trustProxy?: boolean | number | string
 }
 
 export function createApp(deps: AppDeps): express.Express {
   const app = express()
   app.disable('x-powered-by')
+  if (deps.trustProxy !== undefined) app.set('trust proxy', deps.trustProxy)
 
   const linkKey = tokenKey(deps.sessionSecret)
-  const auth = authService(authRepo(deps.db), linkKey, deps.changes)
-  const limits = deps.authRateLimit ?? { windowMs: 15 * 60_000, limit: 20 }
-  const limiter = rateLimit({
-    ...limits,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: () => {
-      throw new HttpError(
-        429,
-        'rate_limited',
-        'Too many attempts. Wait a few minutes and try again.',
-      )
-    },
+  const auth = authService(authRepo(deps.db), linkKey, {
+    mail: deps.mail,
+    log: deps.logger,
+    changes: deps.changes,
   })
+  const limits = authRateLimits(
+    deps.authRateLimit ?? { windowMs: 15 * 60_000, limit: 10 },
+    deps.authRateLimitPerAddress,
+  )
 
   const conditions = conditionsFor(deps.db, deps.changes)
   const settings = settingsService(settingsRepo(deps.db))
@@ -131,7 +137,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(sameOrigin(deps.appOrigin))
   api.use(sessionMiddleware(auth))
   api.use(healthRoutes(deps.db))
-  api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limiter }))
+  api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limits }))
   api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
   api.use(lakesRoutes(lakesService(lakesRepo(deps.db)), lakeReadService(lakeReadRepo(deps.db))))
   api.use(conditionsRoutes(conditions))
@@ -154,7 +160,7 @@ export function createApp(deps: AppDeps): express.Express {
         mail: deps.mail,
         linkKey,
       }),
-      { limiter, mailbox: deps.mailbox },
+      { limiter: limits.verification, mailbox: deps.mailbox },
     ),
   )
   api.use(
@@ -171,7 +177,12 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(quarantineRoutes(quarantineService(quarantineRepo(deps.db))))
   api.use(
     lakesDeskRoutes(
-      lakesDeskService({ db: deps.db, repo: lakesDeskRepo(deps.db), log: deps.logger }),
+      lakesDeskService({
+        db: deps.db,
+        repo: lakesDeskRepo(deps.db),
+        log: deps.logger,
+        checkOutline: outlineChecker({ timeLimitMs: deps.outlineCheckMs ?? 20_000 }),
+      }),
     ),
   )
   api.use(auditRoutes(auditRepo(deps.db)))

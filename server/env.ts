@@ -10,6 +10,22 @@ const Env = z.object({
   SESSION_SECRET: z.string().min(32, 'SESSION_SECRET must be at least 32 characters').optional(),
   /** The public origin, e.g. https://chopline.example; state-changing requests must come from it. */
   APP_ORIGIN: z.url().optional(),
+  /**
+   * Behind a load balancer or reverse proxy: which proxies may name the client's address in
+   * X-Forwarded-For, as Express's `trust proxy` takes it: a number of hops (1 for one balancer) or
+   * a comma-separated list of addresses and subnets (`10.0.0.0/8`, `loopback`). Unset, nothing in
+   * front is trusted: the address the rate limits key on is the connection's.
+   */
+  TRUST_PROXY: z
+    .string()
+    .trim()
+    .regex(
+      /^(\d{1,2}|[\w.:/,\s-]+)$/,
+      'TRUST_PROXY is a number of hops or a list of addresses and subnets',
+    )
+    .refine((v) => !/^(true|false)$/i.test(v), 'TRUST_PROXY is a number of hops, not true/false')
+    .transform((v) => (/^\d+$/.test(v) ? Number(v) : v))
+    .optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** The gauge-and-weather feed; when unset, npm start and npm run dev run the local fake. */
   FEED_URL: z.url().optional(),
@@ -39,4 +55,16 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
 /** The origin links in e-mail point at: APP_ORIGIN, or where the local server listens. */
 export function publicOrigin(env: Env): string {
   return env.APP_ORIGIN ?? `http://${env.HOST}:${env.PORT}`
+}
+
+/**
+ * The origins a state-changing request may come from: APP_ORIGIN, or where the local server
+ * listens (by name and by loopback address when it listens on loopback), never the Host header a
+ * request brings, which a rebinding page controls.
+ */
+export function allowedOrigins(env: Env): string[] {
+  if (env.APP_ORIGIN) return [new URL(env.APP_ORIGIN).origin]
+  const loopback = ['127.0.0.1', 'localhost', '::1', '[::1]'].includes(env.HOST)
+  const hosts = loopback ? ['127.0.0.1', 'localhost', '[::1]'] : [env.HOST]
+  return hosts.map((host) => `http://${host}:${env.PORT}`)
 }

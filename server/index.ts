@@ -83,6 +83,7 @@ async function main() {
     sessionSecret: SESSION_SECRET,
     secureCookies: env.NODE_ENV === 'production',
     appOrigin: APP_ORIGIN,
+    trustProxy: env.TRUST_PROXY,
     staticDir: clientDir,
     feedUrl: FEED_URL,
     mail,

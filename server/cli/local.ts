@@ -14,7 +14,7 @@ import { startFeed } from '../fakes/feed/index'
 import { backfillReadings } from '../features/ingest/readings.ingest'
 import { ingestRepo } from '../features/ingest/ingest.repo'
 import type { Logger } from '../logger'
-import { loadEnv, publicOrigin, type Env } from '../env'
+import { allowedOrigins, loadEnv, publicOrigin, type Env } from '../env'
 import { startMailServer } from '../fakes/mail/index'
 import { smtpMailer } from '../features/mail/mailer'
 import { runSendBriefs } from '../../jobs/send-briefs'
@@ -121,7 +121,8 @@ export async function serveLocal(
       port: env.PORT,
       sessionSecret: stack.sessionSecret,
       secureCookies: false,
-      appOrigin: env.APP_ORIGIN,
+      appOrigin: allowedOrigins(env),
+      trustProxy: env.TRUST_PROXY,
       feedUrl: services.feedUrl,
       mail: services.mail,
       mailbox: services.mailbox,

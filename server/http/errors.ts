@@ -34,6 +34,56 @@ export const notFound: RequestHandler = (req, res) => {
   res.status(404).json(body('not_found', `No route for ${req.method} ${req.path}.`))
 }
 
+/** PostgreSQL's codes for text it cannot store (NUL, a broken encoding): the request's fault. */
+const UNSTORABLE_TEXT = new Set(['22021', '22P05'])
+
+type ErrorLike = {
+  name?: unknown
+  message?: unknown
+  stack?: unknown
+  code?: unknown
+  query?: unknown
+  params?: unknown
+  cause?: unknown
+}
+const isObject = (v: unknown): v is ErrorLike => typeof v === 'object' && v !== null
+
+/** Text in double quotes, where PostgreSQL puts the values it could not take. */
+const quoted = (message: unknown) => String(message ?? '').replace(/"[^"]*"/g, '"[redacted]"')
+
+/**
+ * An unexpected error as it may be logged: type, code, the SQL with its placeholders but never its
+ * parameters, and only the stack's frames (a failed query's message holds the values, which may
+ * be a client's e-mail or notes). PostgreSQL's own detail, which repeats values, is left out.
+ */
+export function loggableError(err: unknown, depth = 0): Record<string, unknown> {
+  if (!isObject(err)) return { type: typeof err }
+  const query = typeof err.query === 'string'
+  const stack =
+    typeof err.stack === 'string'
+      ? err.stack
+          .split('\n')
+          .filter((line) => line.startsWith('    at '))
+          .join('\n')
+      : undefined
+  const pg = typeof err.code === 'string' && /^[0-9A-Z]{5}$/.test(err.code)
+  return {
+    type: typeof err.name === 'string' ? err.name : 'Error',
+    ...(typeof err.code === 'string' ? { code: err.code } : {}),
+    message: query ? 'Failed query' : pg ? quoted(err.message) : String(err.message ?? ''),
+    ...(query ? { query: err.query } : {}),
+    ...(stack ? { stack } : {}),
+    ...(isObject(err.cause) && depth < 3 ? { cause: loggableError(err.cause, depth + 1) } : {}),
+  }
+}
+
+/** The PostgreSQL error code behind an error, through a failed query's cause. */
+function pgCode(err: unknown): string | undefined {
+  for (let e = err, i = 0; isObject(e) && i < 4; e = e.cause, i++)
+    if (typeof e.code === 'string' && /^[0-9A-Z]{5}$/.test(e.code)) return e.code
+  return undefined
+}
+
 // Express recognises an error handler by its four parameters.
 export const errorHandler =
   (logger: Logger): ErrorRequestHandler =>
@@ -60,7 +110,12 @@ export const errorHandler =
       res.status(status).json(body('bad_request', 'The request could not be read.'))
       return
     }
-    logger.error({ err, requestId: req.id }, 'unexpected error')
+    if (UNSTORABLE_TEXT.has(pgCode(err) ?? '')) {
+      logger.warn({ err: loggableError(err), requestId: req.id }, 'text the database refused')
+      res.status(400).json(body('invalid_text', 'Some text holds characters we cannot store.'))
+      return
+    }
+    logger.error({ err: loggableError(err), requestId: req.id }, 'unexpected error')
     res
       .status(500)
       .json(body('internal', `Something went wrong on our side (request ${String(req.id)}).`))

@@ -5,16 +5,19 @@ const SAFE = new Set(['GET', 'HEAD', 'OPTIONS'])
 
 /**
  * CSRF defence for cookie sessions (OWASP's "verifying origin with standard headers"):
- * a state-changing request that names an Origin or Referer must name ours.
+ * a state-changing request that names an Origin or Referer must name one of ours.
  * Browsers always send one of them on cross-site requests; clients without either are not browsers.
+ * Without `appOrigins` (tests only: `npm start`, `npm run dev` and production always name them)
+ * the request's own Host is taken as ours.
  */
-export function sameOrigin(appOrigin: string | undefined): RequestHandler {
+export function sameOrigin(appOrigins: string | string[] | undefined): RequestHandler {
+  const allowed = appOrigins === undefined ? undefined : new Set([appOrigins].flat())
   return (req, _res, next) => {
     if (SAFE.has(req.method)) return next()
     const claimed = req.get('origin') ?? refererOrigin(req.get('referer'))
     if (claimed === undefined) return next()
-    const expected = appOrigin ?? `${req.protocol}://${req.get('host')}`
-    if (claimed !== expected) {
+    const ours = allowed ?? new Set([`${req.protocol}://${req.get('host')}`])
+    if (!ours.has(claimed)) {
       throw new HttpError(
         403,
         'cross_origin',

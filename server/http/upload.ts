@@ -48,7 +48,14 @@ export function singleUpload(opts: { maxBytes: number; extensions: string[] }): 
           }),
         )
       }
-      if (err) return next(err)
+      if (err instanceof HttpError) return next(err)
+      // busboy's own: a body cut short, a bad part header, no boundary. The sender's fault.
+      if (err)
+        return next(
+          new HttpError(400, 'bad_upload', 'The upload could not be read; send the file again.', {
+            file: 'The upload could not be read; send the file again.',
+          }),
+        )
       if (!req.file)
         return next(
           new HttpError(400, 'bad_upload', 'Choose a file to upload.', {

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { pageOf, PageQuery } from './paging'
+import { PlainText } from './text'
 
 /** One admin action in the audit log: who, what, when, and the row before and after. */
 export const AuditEntry = z.object({
@@ -16,6 +17,6 @@ export type AuditEntry = z.infer<typeof AuditEntry>
 export const AuditPage = pageOf(AuditEntry)
 export type AuditPage = z.infer<typeof AuditPage>
 export const AuditQuery = PageQuery.extend({
-  action: z.string().trim().max(60).optional(),
+  action: PlainText().max(60).optional(),
 })
 export type AuditQuery = z.infer<typeof AuditQuery>

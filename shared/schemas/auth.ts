@@ -22,6 +22,16 @@ const NewPassword = z
 export const SignUpInput = z.object({ email: Email, password: NewPassword })
 export type SignUpInput = z.infer<typeof SignUpInput>
 
+/** What sign-up answers, whether or not the address has an account: where the mail went. */
+export const SignUpSent = z.object({ sentTo: z.string() })
+export type SignUpSent = z.infer<typeof SignUpSent>
+
+/** The token of the link a sign-up mails, which makes the account. */
+export const SignUpConfirmInput = z.object({
+  token: z.string({ error: 'The link is incomplete.' }).min(16).max(4000),
+})
+export type SignUpConfirmInput = z.infer<typeof SignUpConfirmInput>
+
 export const SignInInput = z.object({
   email: Email,
   password: z.string({ error: 'Enter your password.' }).min(1, { error: 'Enter your password.' }),

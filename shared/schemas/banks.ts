@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { COVERS } from '../conditions/tackle-rules'
 import { LakeSlugParams } from './lake-read'
+import { PlainText } from './text'
 
 export const BANK_SLOPES = ['flat', 'gradual', 'steep', 'drop-off'] as const
 
@@ -14,9 +15,7 @@ const Position = z.tuple([
 
 /** What an angler says about a bank; the server snaps the points to the shore and adds exposure. */
 export const BankInput = z.object({
-  name: z
-    .string()
-    .trim()
+  name: PlainText()
     .min(1, 'Give the bank a name.')
     .max(60, 'Keep the name under 60 characters.')
     .regex(/^[^<>]*$/, 'Leave out < and >.'),
@@ -35,7 +34,7 @@ export const BankInput = z.object({
     .nullable()
     .default(null),
   slope: z.enum(BANK_SLOPES).nullable().default(null),
-  notes: z.string().trim().max(1000, 'Keep notes under 1,000 characters.').default(''),
+  notes: PlainText({ lines: true }).max(1000, 'Keep notes under 1,000 characters.').default(''),
 })
 export type BankInput = z.infer<typeof BankInput>
 

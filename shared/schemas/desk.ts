@@ -1,24 +1,21 @@
 import { z } from 'zod'
 import { isTimeZone } from '../time'
 import { LakeShoreline } from './lake-read'
+import { PlainText } from './text'
 
 /** What an admin may edit of a lake (the desk's Lakes screen); the outline is replaced apart. */
 export const LakeEditInput = z.object({
-  name: z
-    .string()
-    .trim()
-    .min(1, 'Give the lake a name.')
-    .max(80, 'Keep the name under 80 characters.'),
-  region: z
-    .string()
-    .trim()
-    .min(1, 'Give the region.')
-    .max(80, 'Keep the region under 80 characters.'),
+  name: PlainText().min(1, 'Give the lake a name.').max(80, 'Keep the name under 80 characters.'),
+  region: PlainText().min(1, 'Give the region.').max(80, 'Keep the region under 80 characters.'),
   timeZone: z.string().refine(isTimeZone, 'Not a time zone we know.'),
-  normalPoolM: z.coerce
-    .number({ error: 'Give the normal pool elevation in metres.' })
-    .min(-500, 'Normal pool is between -500 and 9,000 m.')
-    .max(9000, 'Normal pool is between -500 and 9,000 m.'),
+  // A number, or a number as a form field sends it; null, '' or true are not 0.
+  normalPoolM: z.preprocess(
+    (v) => (typeof v === 'string' && v.trim() !== '' ? Number(v) : v),
+    z
+      .number({ error: 'Give the normal pool elevation in metres.' })
+      .min(-500, 'Normal pool is between -500 and 9,000 m.')
+      .max(9000, 'Normal pool is between -500 and 9,000 m.'),
+  ),
 })
 export type LakeEditInput = z.infer<typeof LakeEditInput>
 export const LakeCreateInput = LakeEditInput.extend({

@@ -2,26 +2,21 @@ import { z } from 'zod'
 import { Email } from './auth'
 import { DayPlanResponse } from './day-plan'
 import { CautionView } from './lake-read'
+import { PlainText } from './text'
 
 const Text = (max: number, what: string) =>
-  z
-    .string()
-    .trim()
+  PlainText({ lines: true })
     .max(max, `Keep ${what} under ${max.toLocaleString('en-US')} characters.`)
     .default('')
 
 /** A guide's client, as typed in a form or read from a CSV row. */
 export const ClientInput = z.object({
-  name: z
-    .string({ error: 'Give a name.' })
-    .trim()
+  name: PlainText({ error: 'Give a name.' })
     .min(1, 'Give a name.')
     .max(80, 'Keep the name under 80 characters.')
     .regex(/^[^<>]*$/, 'Leave out < and >.'),
   email: Email,
-  phone: z
-    .string()
-    .trim()
+  phone: PlainText()
     .max(30, 'Keep the phone number under 30 characters.')
     .regex(/^[0-9+()\-.\s]*$/, 'Digits, spaces and + - ( ) . only.')
     .default(''),
@@ -56,9 +51,7 @@ export type ClientImportReport = z.infer<typeof ClientImportReport>
 export const TripInput = z.object({
   lakeSlug: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Choose a lake.'),
   date: z.iso.date('Give the date as YYYY-MM-DD.'),
-  meetingPoint: z
-    .string()
-    .trim()
+  meetingPoint: PlainText()
     .min(1, 'Say where to meet.')
     .max(120, 'Keep the meeting point under 120 characters.'),
   meetingTime: z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'Give a time as HH:MM.'),
@@ -133,7 +126,12 @@ export const ShareInput = z.object({
   expiresOn: z.iso.date('Give the date as YYYY-MM-DD.'),
 })
 export const ShareParams = IdParams.extend({ shareId: z.uuid('Not a link of this trip.') })
+/** Clients one send may mail a link to. */
+export const SHARE_MAX_CLIENTS = 50
 export const ShareSendInput = z.object({
-  clientIds: z.array(z.uuid('Not one of your clients.')).min(1, 'Choose at least one client.'),
+  clientIds: z
+    .array(z.uuid('Not one of your clients.'))
+    .min(1, 'Choose at least one client.')
+    .max(SHARE_MAX_CLIENTS, `Send to at most ${SHARE_MAX_CLIENTS} clients at a time.`),
 })
 export const ShareToken = z.object({ token: z.string().min(16).max(2000) })

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { CLARITY_CLASSES } from '../conditions/clarity'
 import { pageOf, PageQuery } from './paging'
+import { PlainText } from './text'
 
 export const LakeSummary = z.object({
   id: z.uuid(),
@@ -14,7 +15,7 @@ export const LakeSummary = z.object({
 })
 export type LakeSummary = z.infer<typeof LakeSummary>
 
-export const LakeListQuery = PageQuery.extend({ q: z.string().trim().max(100).optional() })
+export const LakeListQuery = PageQuery.extend({ q: PlainText().max(100).optional() })
 export type LakeListQuery = z.infer<typeof LakeListQuery>
 
 /** A row of the Lakes screen: the lake, whether I follow it, and today's one-line read. */

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { PARAMETER_KEYS } from '../readings'
+import { PlainText } from './text'
 
 export const StationState = z.enum(['ok', 'stale', 'failing'])
 export type StationState = z.infer<typeof StationState>
@@ -34,9 +35,7 @@ export type StationList = z.infer<typeof StationList>
 
 /** A station as an admin creates or edits it; setting `active` false deactivates it. */
 export const StationInput = z.object({
-  name: z
-    .string()
-    .trim()
+  name: PlainText()
     .min(1, 'Give the station a name.')
     .max(80, 'Keep the name under 80 characters.'),
   lakeSlug: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Choose a lake.'),

@@ -1,9 +1,10 @@
 import { z } from 'zod'
 import { Role, User } from './auth'
 import { pageOf, PageQuery } from './paging'
+import { PlainText } from './text'
 
 export const UserListQuery = PageQuery.extend({
-  q: z.string().trim().max(254).optional(),
+  q: PlainText().max(254).optional(),
   role: Role.optional(),
 })
 export type UserListQuery = z.infer<typeof UserListQuery>

@@ -90,6 +90,13 @@ const router = createRouter({
       meta: { role: 'admin', title: 'Users' },
     },
     {
+      path: '/welcome',
+      name: 'welcome',
+      component: () => import('@/views/MailLinkView.vue'),
+      props: { action: 'welcome' },
+      meta: { title: 'Finish your account' },
+    },
+    {
       path: '/verify-email',
       name: 'verify-email',
       component: () => import('@/views/MailLinkView.vue'),

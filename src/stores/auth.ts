@@ -34,8 +34,14 @@ export const useAuthStore = defineStore('auth', () => {
     user.value = (await authApi.signIn(input)).user
   }
 
+  /** Mails a link that makes the account (or tells the address it has one); signs no one in. */
   async function signUp(input: SignUpInput) {
-    user.value = (await authApi.signUp(input)).user
+    return (await authApi.signUp(input)).sentTo
+  }
+
+  /** Opens the mailed link: the account is made and signed in. */
+  async function confirmSignUp(token: string) {
+    user.value = (await authApi.confirmSignUp(token)).user
   }
 
   async function signOut() {
@@ -43,7 +49,7 @@ export const useAuthStore = defineStore('auth', () => {
     user.value = null
   }
 
-  return { user, checked, signedIn, can, load, adopt, signIn, signUp, signOut }
+  return { user, checked, signedIn, can, load, adopt, signIn, signUp, confirmSignUp, signOut }
 })
 
 if (import.meta.hot) import.meta.hot.accept(acceptHMRUpdate(useAuthStore, import.meta.hot))

@@ -4,6 +4,7 @@ const benches: Record<string, () => Promise<unknown>> = {
   dashboard: () => import('./dashboard'),
   exposure: () => import('./exposure'),
   ingest: () => import('./ingest'),
+  outline: () => import('./outline'),
 }
 
 const name = process.argv[2]

@@ -12,7 +12,7 @@ import { seedDemo } from '../../server/db/seed/index'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
 import { ingestWeather } from '../../server/features/ingest/weather.ingest'
-import { PASSWORD, testApp } from '../helpers/app'
+import { createUser, PASSWORD, testApp } from '../helpers/app'
 import { createTestDb } from '../helpers/db'
 import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
 
@@ -57,10 +57,11 @@ afterAll(async () => {
 
 /** A new angler signed up through the first instance; the session cookie to send. */
 async function signIn(email: string) {
+  await createUser(ctx.db, email)
   const res = await request(appOne)
-    .post('/api/auth/signup')
+    .post('/api/auth/signin')
     .send({ email, password: PASSWORD })
-    .expect(201)
+    .expect(200)
   return res.headers['set-cookie']![0]!.split(';')[0]!
 }
 

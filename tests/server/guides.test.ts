@@ -306,3 +306,52 @@ describe('trips and share links', () => {
       .expect(404)
   })
 })
+
+describe('bounds on what a guide types', () => {
+  it('keeps trip dates within two years and share links within a year, with field messages', async () => {
+    const guide = await signedInAgent(app(), ctx.db, 'bounds@guides.test', 'guide')
+    const trip = {
+      lakeSlug: 'quillmere',
+      meetingPoint: 'North ramp',
+      meetingTime: '05:45',
+    }
+    for (const date of ['0001-01-01', '9999-12-31', addDays(today, 800), addDays(today, -800)]) {
+      const res = await guide
+        .post('/api/guide/trips')
+        .send({ ...trip, date })
+        .expect(400)
+      expect(res.body.error.fields.date, date).toMatch(/within two years/)
+    }
+    const saved = TripView.parse(
+      (
+        await guide
+          .post('/api/guide/trips')
+          .send({ ...trip, date: addDays(today, 600) })
+          .expect(201)
+      ).body,
+    )
+    for (const expiresOn of ['9998-12-31', '9999-12-31', addDays(today, 400)]) {
+      const res = await guide
+        .post(`/api/guide/trips/${saved.id}/shares`)
+        .send({ expiresOn })
+        .expect(400)
+      expect(res.body.error.fields.expiresOn, expiresOn).toMatch(/at most a year/)
+    }
+    const [share] = (
+      await guide
+        .post(`/api/guide/trips/${saved.id}/shares`)
+        .send({ expiresOn: addDays(today, 300) })
+        .expect(201)
+    ).body.items
+    // One send mails at most 50 clients.
+    const many = Array.from(
+      { length: 51 },
+      (_, i) => `00000000-0000-4000-8000-${String(i).padStart(12, '0')}`,
+    )
+    const res = await guide
+      .post(`/api/guide/trips/${saved.id}/shares/${share.id}/send`)
+      .send({ clientIds: many })
+      .expect(400)
+    expect(res.body.error.fields.clientIds).toMatch(/at most 50/)
+  })
+})

@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm'
+import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Polygon, Position } from '../../shared/geo/types'
 import { RecomputeStatus, ShorelinePreview } from '../../shared/schemas/desk'
@@ -7,6 +8,7 @@ import { banks, lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { signedInAgent, testApp } from '../helpers/app'
 import { createTestDb } from '../helpers/db'
+import { diagonalStrips } from '../shared/geo/fixtures'
 
 let ctx: Awaited<ReturnType<typeof createTestDb>>
 let shoreline: Polygon
@@ -110,6 +112,72 @@ describe('outline uploads', () => {
   })
 })
 
+describe('heavy outlines', () => {
+  it('checks 50,000 vertices of diagonal strips off the request thread: other requests go on', async () => {
+    const app = testApp(ctx.db)
+    const admin = await signedInAgent(app, ctx.db, 'strips@desk.test', 'admin')
+    const order: string[] = []
+    const preview = admin
+      .post('/api/admin/lakes/shoreline-preview')
+      .attach('file', file(feature(diagonalStrips(50_000))), 'strips.geojson')
+      .then((res) => {
+        order.push('preview')
+        return res
+      })
+    await new Promise((r) => setTimeout(r, 100))
+    const started = performance.now()
+    await request(app).get('/api/health').expect(200)
+    order.push('health')
+    expect(performance.now() - started).toBeLessThan(300)
+    const res = await preview
+    expect(res.status).toBe(200)
+    expect(ShorelinePreview.parse(res.body).stats.vertices).toBe(50_000)
+    expect(order).toEqual(['health', 'preview'])
+  }, 20_000)
+
+  it('stops a check that runs past its time limit with a 503 that says so', async () => {
+    const admin = await signedInAgent(
+      testApp(ctx.db, { outlineCheckMs: 1 }),
+      ctx.db,
+      'slow@desk.test',
+      'admin',
+    )
+    const res = await admin
+      .post('/api/admin/lakes/shoreline-preview')
+      .attach('file', file(feature(shoreline)), 'lake.geojson')
+      .expect(503)
+    expect(res.body.error.code).toBe('outline_check_timeout')
+  })
+})
+
+describe('malformed uploads', () => {
+  it('answers a multipart body cut short, a bad part header or no boundary with a 400', async () => {
+    const app = testApp(ctx.db)
+    const admin = await signedInAgent(app, ctx.db, 'multipart@desk.test', 'admin')
+    const guide = await signedInAgent(app, ctx.db, 'multipart@guide.test', 'guide')
+    const boundary = 'XyZ'
+    const bodies = (file: string) => [
+      `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${file}"\r\n\r\n{"type"`,
+      `--${boundary}\r\nContent-Disposition form-data\r\n\r\nx\r\n--${boundary}--\r\n`,
+    ]
+    for (const [agent, path, file] of [
+      [admin, '/api/admin/lakes/shoreline-preview', 'a.geojson'],
+      [guide, '/api/guide/clients/import', 'a.csv'],
+    ] as const) {
+      for (const body of bodies(file)) {
+        const res = await agent
+          .post(path)
+          .set('Content-Type', `multipart/form-data; boundary=${boundary}`)
+          .send(body)
+        expect(res.status, `${path}: ${body.slice(0, 40)}`).toBe(400)
+        expect(res.body.error.code).toBe('bad_upload')
+      }
+      const res = await agent.post(path).set('Content-Type', 'multipart/form-data').send('x')
+      expect(res.status, `${path}: no boundary`).toBe(400)
+    }
+  })
+})
+
 describe('lakes on the desk', () => {
   it('replaces an outline, recomputes every bank on the lake as a job, and flags banks left off the shore', async () => {
     const app = testApp(ctx.db)
@@ -200,5 +268,27 @@ describe('lakes on the desk', () => {
       .expect(404)
     const log = AuditPage.parse((await admin.get('/api/admin/audit').expect(200)).body)
     expect(log.items.slice(0, 2).map((e) => e.action)).toEqual(['lake.edit', 'lake.create'])
+  })
+})
+
+describe('junk the desk stores no more', () => {
+  it('answers a normal pool of null, blank, true or a list with a field message, and stores nothing', async () => {
+    const admin = await signedInAgent(testApp(ctx.db), ctx.db, 'junk@desk.test', 'admin')
+    const [before] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    const lake = { name: before!.name, region: before!.region, timeZone: before!.timeZone }
+    for (const normalPoolM of [null, '', '  ', true, [5], 'abc']) {
+      const res = await admin.put('/api/admin/lakes/quillmere').send({ ...lake, normalPoolM })
+      expect(res.status, JSON.stringify(normalPoolM)).toBe(400)
+      expect(res.body.error.fields.normalPoolM).toMatch(/normal pool/i)
+    }
+    const [after] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    expect(after!.normalPoolM).toBe(before!.normalPoolM)
+    // A form field's text still counts as the number it spells.
+    await admin
+      .put('/api/admin/lakes/quillmere')
+      .send({ ...lake, normalPoolM: ' 151.5 ' })
+      .expect(200)
+    const [edited] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'quillmere'))
+    expect(edited!.normalPoolM).toBe(151.5)
   })
 })

@@ -35,10 +35,10 @@ export function authRepo(db: Db) {
       return row
     },
     /** Inserts unless the e-mail is taken; returns undefined when it is. */
-    async insertUser(email: string, passwordHash: string) {
+    async insertUser(email: string, passwordHash: string, emailVerifiedAt: Date | null = null) {
       const [row] = await db
         .insert(users)
-        .values({ email, passwordHash })
+        .values({ email, passwordHash, emailVerifiedAt })
         .onConflictDoNothing({ target: users.email })
         .returning(publicUserColumns)
       return row

@@ -5,16 +5,22 @@ import {
   type RequestHandler,
   type Response,
 } from 'express'
-import { PasswordChangeInput, SignInInput, SignUpInput } from '../../../shared/schemas/auth'
+import {
+  PasswordChangeInput,
+  SignInInput,
+  SignUpConfirmInput,
+  SignUpInput,
+} from '../../../shared/schemas/auth'
 import { currentUser, requireSignIn } from '../../http/access'
 import { input, validate } from '../../http/validate'
+import type { AuthRateLimits } from '../../http/rate-limits'
 import type { AuthService, IssuedSession } from './auth.service'
 import { SESSION_COOKIE } from './auth.tokens'
 
 export interface AuthRouteOptions {
   secureCookies: boolean
-  /** express-rate-limit middleware for sign-in and sign-up. */
-  limiter: RequestHandler
+  /** express-rate-limit middleware, per route (`authRateLimits`). */
+  limits: Pick<AuthRateLimits, 'signIn' | 'signUp' | 'signUpConfirm' | 'passwordChange'>
 }
 
 export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
@@ -31,13 +37,33 @@ export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
 
   const router = Router()
 
-  router.post('/auth/signup', opts.limiter, validate({ body: SignUpInput }), async (req, res) => {
-    respondWithSession(res, 201, await auth.signUp(input(SignUpInput, req.body)))
-  })
+  router.post(
+    '/auth/signup',
+    opts.limits.signUp,
+    validate({ body: SignUpInput }),
+    async (req, res) => {
+      res.status(202).json(await auth.signUp(input(SignUpInput, req.body)))
+    },
+  )
 
-  router.post('/auth/signin', opts.limiter, validate({ body: SignInInput }), async (req, res) => {
-    respondWithSession(res, 200, await auth.signIn(input(SignInInput, req.body)))
-  })
+  router.post(
+    '/auth/signup/confirm',
+    opts.limits.signUpConfirm,
+    validate({ body: SignUpConfirmInput }),
+    async (req, res) => {
+      const { token } = input(SignUpConfirmInput, req.body)
+      respondWithSession(res, 201, await auth.confirmSignUp(token))
+    },
+  )
+
+  router.post(
+    '/auth/signin',
+    opts.limits.signIn,
+    validate({ body: SignInInput }),
+    async (req, res) => {
+      respondWithSession(res, 200, await auth.signIn(input(SignInInput, req.body)))
+    },
+  )
 
   router.post('/auth/signout', async (req, res) => {
     if (req.auth) await auth.signOut(req.auth.sessionId)
@@ -52,6 +78,7 @@ export function authRoutes(auth: AuthService, opts: AuthRouteOptions): Router {
   router.post(
     '/me/password',
     requireSignIn,
+    opts.limits.passwordChange,
     validate({ body: PasswordChangeInput }),
     async (req, res) => {
       const body = input(PasswordChangeInput, req.body)

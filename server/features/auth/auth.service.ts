@@ -6,11 +6,16 @@ import type {
   User,
 } from '../../../shared/schemas/auth'
 import { NoticedCache, type Changes } from '../../db/changes'
-import { HttpError } from '../../http/errors'
+import { HttpError, loggableError } from '../../http/errors'
+import type { Logger } from '../../logger'
+import type { MailContext } from '../mail/mailer'
+import { mailTemplate } from '../mail/render'
 import type { users } from '../../db/schema/index'
 import type { AuthRepo } from './auth.repo'
 import { decoyPasswordHash, hashPassword, verifyPassword } from './passwords'
 import {
+  openSignUp,
+  sealSignUp,
   SESSION_DAYS,
   signSessionToken,
   type SessionClaims,
@@ -22,6 +27,10 @@ type UserRow = Pick<typeof users.$inferSelect, 'id' | 'email' | 'role' | 'create
 
 export function toUser(row: UserRow): User {
   return { id: row.id, email: row.email, role: row.role, createdAt: row.createdAt.toISOString() }
+}
+
+export interface SignUpAnswer {
+  sentTo: string
 }
 
 export interface IssuedSession {
@@ -36,7 +45,22 @@ const INVALID_CREDENTIALS = new HttpError(
   'E-mail or password is incorrect.',
 )
 
-export function authService(repo: AuthRepo, key: TokenKey, changes?: Changes) {
+/** How long a sign-up link works. */
+export const SIGN_UP_HOURS = 24
+
+const renderSignUp = mailTemplate<{ subject: string; email: string; url: string; hours: number }>(
+  'signup',
+)
+const renderExisting = mailTemplate<{ subject: string; email: string; url: string }>(
+  'signup-existing',
+)
+
+export function authService(
+  repo: AuthRepo,
+  key: TokenKey,
+  opts: { mail: MailContext; log: Logger; changes?: Changes },
+) {
+  const { changes, mail } = opts
   // A token's signature is checked once per process and remembered until the token expires.
   const verified = new LRUCache<string, SessionClaims & { expiresAt: number }>({ max: 10_000 })
   // So is the session's user, until a change notice about the session or any user: signing out
@@ -54,13 +78,63 @@ export function authService(repo: AuthRepo, key: TokenKey, changes?: Changes) {
   }
 
   return {
-    async signUp(input: SignUpInput): Promise<IssuedSession> {
-      const row = await repo.insertUser(input.email, await hashPassword(input.password))
-      if (!row) {
-        throw new HttpError(409, 'email_taken', 'An account with this e-mail already exists.', {
-          email: 'An account with this e-mail already exists. Sign in instead.',
+    /**
+     * Answers the same whether the address has an account or not, and tells only its mailbox:
+     * a link that creates the account and signs in, or word that it has one already. The hash is
+     * made either way and the mail goes out after the answer, so timing tells no more than words.
+     */
+    async signUp(input: SignUpInput): Promise<SignUpAnswer> {
+      const [existing, passwordHash] = await Promise.all([
+        repo.findByEmail(input.email),
+        hashPassword(input.password),
+      ])
+      const email = input.email
+      const send = async () => {
+        if (existing) {
+          await mail.mailer.send({
+            to: email,
+            ...renderExisting({
+              subject: 'You already have a Chopline account',
+              email,
+              url: `${mail.origin}/signin`,
+            }),
+          })
+          return
+        }
+        const expiresAt = new Date(Date.now() + SIGN_UP_HOURS * 3_600_000)
+        const token = await sealSignUp(key, { email, passwordHash }, expiresAt)
+        await mail.mailer.send({
+          to: email,
+          ...renderSignUp({
+            subject: 'Confirm your address to finish your Chopline account',
+            email,
+            url: `${mail.origin}/welcome?token=${token}`,
+            hours: SIGN_UP_HOURS,
+          }),
         })
       }
+      void send().catch((err: unknown) =>
+        opts.log.warn({ err: loggableError(err) }, 'sign-up mail not sent'),
+      )
+      return { sentTo: email }
+    },
+
+    /** Opens a sign-up link: the account is made, its address confirmed, and a session begins. */
+    async confirmSignUp(token: string): Promise<IssuedSession> {
+      const pending = await openSignUp(key, token)
+      if (!pending)
+        throw new HttpError(
+          400,
+          'link_invalid',
+          'This link is not valid or has expired. Sign up again for a new one.',
+        )
+      const row = await repo.insertUser(pending.email, pending.passwordHash, new Date())
+      if (!row)
+        throw new HttpError(
+          409,
+          'already_confirmed',
+          'This address already has an account: sign in with its password.',
+        )
       return issue(toUser(row))
     },
 

@@ -1,5 +1,5 @@
-import { createSecretKey, type KeyObject } from 'node:crypto'
-import { jwtVerify, SignJWT } from 'jose'
+import { createSecretKey, hkdfSync, type KeyObject } from 'node:crypto'
+import { EncryptJWT, jwtDecrypt, jwtVerify, SignJWT } from 'jose'
 
 export const SESSION_COOKIE = 'chopline_session'
 export const SESSION_DAYS = 30
@@ -76,6 +76,49 @@ export async function verifyLinkToken(
     const { payload } = await jwtVerify(token, key, { algorithms: ['HS256'], audience: purpose })
     if (typeof payload.sub !== 'string') return null
     return { subject: payload.sub, claims: payload }
+  } catch {
+    return null
+  }
+}
+
+/** A sign-up waiting for its address to be confirmed: what the account will be made of. */
+export interface PendingSignUp {
+  email: string
+  passwordHash: string
+}
+
+// A key of its own for sealed sign-ups, derived from the signing key (RFC 5869 HKDF).
+const sealKeys = new WeakMap<TokenKey, KeyObject>()
+function sealKey(key: TokenKey): KeyObject {
+  let sealed = sealKeys.get(key)
+  if (!sealed) {
+    const bytes = hkdfSync('sha256', key.export(), new Uint8Array(0), 'chopline sign-up', 32)
+    sealed = createSecretKey(Buffer.from(bytes))
+    sealKeys.set(key, sealed)
+  }
+  return sealed
+}
+
+/**
+ * The token of a sign-up link: the address and the password's hash, encrypted (JWE, A256GCM), so
+ * no account exists until the link is opened and the hash is readable by no one on the way.
+ */
+export async function sealSignUp(key: TokenKey, pending: PendingSignUp, expiresAt: Date) {
+  return new EncryptJWT({ h: pending.passwordHash })
+    .setProtectedHeader({ alg: 'dir', enc: 'A256GCM' })
+    .setAudience('sign-up')
+    .setSubject(pending.email)
+    .setIssuedAt()
+    .setExpirationTime(expiresAt)
+    .encrypt(sealKey(key))
+}
+
+/** The sign-up a link's token seals; null if forged, expired or not a sign-up. */
+export async function openSignUp(key: TokenKey, token: string): Promise<PendingSignUp | null> {
+  try {
+    const { payload } = await jwtDecrypt(token, sealKey(key), { audience: 'sign-up' })
+    if (typeof payload.sub !== 'string' || typeof payload.h !== 'string') return null
+    return { email: payload.sub, passwordHash: payload.h }
   } catch {
     return null
   }

@@ -15,8 +15,8 @@ const text = (req: { file?: Express.Multer.File }) => req.file!.buffer.toString(
 export function lakesDeskRoutes(lakes: LakesDeskService): Router {
   const router = Router()
   router.use('/admin/lakes', requireRole('admin'))
-  router.post('/admin/lakes/shoreline-preview', geojson, (req, res) => {
-    res.json(lakes.preview(text(req)))
+  router.post('/admin/lakes/shoreline-preview', geojson, async (req, res) => {
+    res.json(await lakes.preview(text(req)))
   })
   router.post('/admin/lakes', geojson, validate({ body: LakeCreateInput }), async (req, res) => {
     res

@@ -3,7 +3,6 @@ import { DomainError } from '../../../shared/errors'
 import { shoreIndex } from '../../../shared/geo/fetch'
 import { lakeCenter } from '../../../shared/geo/polygon'
 import type { LakeGeometry } from '../../../shared/geo/types'
-import { assertPlausibleShoreline } from '../../../shared/geo/validate'
 import type { User } from '../../../shared/schemas/auth'
 import type {
   LakeCreateInput,
@@ -11,7 +10,6 @@ import type {
   RecomputeStatus,
   ShorelinePreview,
 } from '../../../shared/schemas/desk'
-import { LakeShoreline } from '../../../shared/schemas/lake-read'
 import { isoOrNull } from '../../../shared/time'
 import type { Db } from '../../db/index'
 import { HttpError } from '../../http/errors'
@@ -20,55 +18,21 @@ import { audit } from '../audit/audit.repo'
 import { SNAP_M } from '../banks/banks.service'
 import { conditionsFor } from '../conditions/conditions.service'
 import type { LakesDeskRepo } from './lakes-desk.repo'
+import type { CheckOutline } from './outline-check'
 
 type Actor = Pick<User, 'id' | 'email'>
-
-const badFile = (message: string) => new HttpError(400, 'bad_geojson', message, { file: message })
-
-/** The geometry of an uploaded GeoJSON file: a Polygon or MultiPolygon, bare or in one Feature. */
-function geometryOf(text: string): LakeGeometry {
-  let doc: unknown
-  try {
-    doc = JSON.parse(text)
-  } catch {
-    throw badFile('The file is not JSON.')
-  }
-  const d = doc as { type?: string; geometry?: unknown; features?: { geometry?: unknown }[] }
-  const geometry =
-    d?.type === 'Feature'
-      ? d.geometry
-      : d?.type === 'FeatureCollection'
-        ? d.features?.length === 1
-          ? d.features[0]!.geometry
-          : undefined
-        : doc
-  if (d?.type === 'FeatureCollection' && d.features?.length !== 1)
-    throw badFile('Upload one lake: a FeatureCollection with exactly one feature.')
-  const parsed = LakeShoreline.safeParse(geometry)
-  if (!parsed.success)
-    throw badFile('The file holds no Polygon or MultiPolygon with [longitude, latitude] positions.')
-  return parsed.data
-}
 
 /** The gauge desk's lakes: metadata, new outlines (checked, previewed, then saved), and the bank recompute. */
 export function lakesDeskService(deps: {
   db: Db
   repo: LakesDeskRepo
   log: Logger
+  /** Checks an uploaded outline off the request thread (`outlineChecker`). */
+  checkOutline: CheckOutline
   now?: () => Date
 }) {
   const { repo } = deps
   const now = () => deps.now?.() ?? new Date()
-
-  function checked(text: string): ShorelinePreview & { shoreline: LakeGeometry } {
-    const shoreline = geometryOf(text)
-    try {
-      return { shoreline, stats: assertPlausibleShoreline(shoreline) }
-    } catch (err) {
-      if (err instanceof DomainError) throw badFile(err.message)
-      throw err
-    }
-  }
 
   async function lakeOf(slug: string) {
     const lake = await repo.bySlug(slug)
@@ -134,10 +98,13 @@ export function lakesDeskService(deps: {
 
   return {
     /** Checks an uploaded outline and returns it to draw, saving nothing. */
-    preview: (text: string): ShorelinePreview => checked(text),
+    preview: async (text: string): Promise<ShorelinePreview> => {
+      const { shoreline, stats } = await deps.checkOutline(text)
+      return { shoreline, stats }
+    },
 
     async create(actor: Actor, input: LakeCreateInput, text: string) {
-      const { shoreline, stats } = checked(text)
+      const { shoreline, stats } = await deps.checkOutline(text)
       const lake = await repo.create({
         ...input,
         shoreline,
@@ -181,7 +148,7 @@ export function lakesDeskService(deps: {
     /** Replaces the outline, then recomputes the lake's banks in the background. */
     async replaceShoreline(actor: Actor, slug: string, text: string): Promise<RecomputeStatus> {
       const lake = await lakeOf(slug)
-      const { shoreline, stats } = checked(text)
+      const { shoreline, stats } = await deps.checkOutline(text)
       await repo.replaceShoreline(lake.id, shoreline, stats.areaKm2, lakeCenter(shoreline))
       await audit(deps.db, actor, {
         action: 'lake.shoreline',

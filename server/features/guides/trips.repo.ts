@@ -50,8 +50,13 @@ export function tripsRepo(db: Db) {
       return row
     },
 
-    lakeId: async (slug: string) =>
-      (await db.select({ id: lakes.id }).from(lakes).where(eq(lakes.slug, slug)))[0]?.id,
+    lake: async (slug: string) =>
+      (
+        await db
+          .select({ id: lakes.id, timeZone: lakes.timeZone })
+          .from(lakes)
+          .where(eq(lakes.slug, slug))
+      )[0],
 
     /** Of `ids`, the guide's banks on the lake, with the stored tables the plan ranks. */
     ownedBanks: (guideId: string, lakeId: string, ids: string[]) =>

@@ -18,6 +18,13 @@ import type { TripsRepo } from './trips.repo'
 type TripRow = NonNullable<Awaited<ReturnType<TripsRepo['get']>>>
 
 const notFound = () => new HttpError(404, 'not_found', 'No such trip.')
+const fieldError = (field: string, message: string) =>
+  new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
+
+/** A trip is planned, or kept, within this many days of today at its lake. */
+export const TRIP_DAYS_AWAY = 2 * 366
+/** A share link lasts at most this many days. */
+export const SHARE_MAX_DAYS = 366
 
 const renderShare = mailTemplate<{
   subject: string
@@ -113,11 +120,12 @@ export function tripsService(deps: {
 
   /** The lake and banks of a trip as typed, checked: the banks must be the guide's, on that lake. */
   async function values(guideId: string, input: TripInput) {
-    const lakeId = await repo.lakeId(input.lakeSlug)
-    if (!lakeId)
-      throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
-        lakeSlug: 'No such lake.',
-      })
+    const lake = await repo.lake(input.lakeSlug)
+    if (!lake) throw fieldError('lakeSlug', 'No such lake.')
+    const today = localDate(now(), lake.timeZone)
+    if (input.date < addDays(today, -TRIP_DAYS_AWAY) || input.date > addDays(today, TRIP_DAYS_AWAY))
+      throw fieldError('date', 'Choose a day within two years of today.')
+    const lakeId = lake.id
     const found = await repo.ownedBanks(guideId, lakeId, input.bankIds)
     if (found.length !== input.bankIds.length)
       throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
@@ -159,10 +167,10 @@ export function tripsService(deps: {
     /** A new link for the trip, good through the end of `expiresOn` at the lake. */
     async share(guideId: string, id: string, expiresOn: string): Promise<ShareView[]> {
       const trip = await owned(guideId, id)
-      if (expiresOn < localDate(now(), trip.timeZone))
-        throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
-          expiresOn: 'Choose a day from today on.',
-        })
+      const today = localDate(now(), trip.timeZone)
+      if (expiresOn < today) throw fieldError('expiresOn', 'Choose a day from today on.')
+      if (expiresOn > addDays(today, SHARE_MAX_DAYS))
+        throw fieldError('expiresOn', 'A link lasts at most a year: choose an earlier day.')
       await repo.createShare(trip.id, localDayBounds(expiresOn, trip.timeZone)[1])
       return shareViews(trip.id)
     },

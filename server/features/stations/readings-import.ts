@@ -5,6 +5,7 @@ import type { Db } from '../../db/index'
 import { HttpError } from '../../http/errors'
 import { ingestRepo, type DatastreamRow, type PageCommit } from '../ingest/ingest.repo'
 import { validatePage } from '../ingest/validate-page'
+import { isPlainText } from '../../../shared/schemas/text'
 
 type Row = ReadingsImportReport['rows'][number]
 
@@ -69,6 +70,8 @@ export async function importReadingsCsv(
       reason: null,
     }
     rows.push(row)
+    if (!Object.values(raw).every((cell) => isPlainText(String(cell ?? ''))))
+      return (row.reason = 'Leave out control characters and direction marks.')
     const ds = streams.get(row.parameter)
     if (!PARAMETER_KEYS.includes(row.parameter as Parameter))
       return (row.reason = `Unknown parameter; use one of ${PARAMETER_KEYS.join(', ')}.`)

@@ -65,3 +65,24 @@ export const distanceToMeridian = (from: Position, azimuth: number, lon: number)
 
 export const distanceToParallel = (from: Position, azimuth: number, lat: number) =>
   distanceUntil(from, azimuth, ([, y]) => (y - lat) * (from[1] - lat) <= 0)
+
+/**
+ * The worst outline we know for a box index: a comb of `vertices / 4` thin strips laid diagonally,
+ * so that every long edge's bounding box overlaps every other's. A valid lake of about 20 km.
+ */
+export function diagonalStrips(vertices: number, [lon0, lat0]: Position = [-88.1, 35]): Polygon {
+  const teeth = Math.floor(vertices / 4)
+  const w = 0.5 / teeth
+  const uv: [number, number][] = []
+  for (let k = 0; k < teeth; k++)
+    uv.push([k * w, 0.02], [k * w, 1], [k * w + w / 2, 1], [k * w + w / 2, 0.02])
+  // The last tooth's foot comes down to the base line, which runs back to the first.
+  uv[uv.length - 1] = [uv[uv.length - 1]![0], 0]
+  uv[0] = [0, 0]
+  const size = 0.15
+  const ring: Position[] = uv.map(([u, v]) => [
+    lon0 + ((u - v) * size) / Math.SQRT2,
+    lat0 + ((u + v) * size) / Math.SQRT2,
+  ])
+  return { type: 'Polygon', coordinates: [[...ring, ring[0]!]] }
+}

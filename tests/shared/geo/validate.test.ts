@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest'
 import { DomainError } from '../../../shared/errors'
-import { assertPlausibleShoreline } from '../../../shared/geo/validate'
+import { SHORELINE_LIMITS, assertPlausibleShoreline } from '../../../shared/geo/validate'
 import type { Polygon, Position } from '../../../shared/geo/types'
 import { DEMO_LAKES, demoShoreline } from '../../../server/db/seed/demo-lakes'
-import { box, densified } from './fixtures'
+import { box, densified, diagonalStrips } from './fixtures'
 
 const poly = (...rings: Position[][]): Polygon => ({ type: 'Polygon', coordinates: rings })
 const closed = (ring: Position[]) => [...ring, ring[0]!]
@@ -50,5 +50,21 @@ describe('assertPlausibleShoreline', () => {
     expect(message(poly(shore.map(([lon, lat]) => [lon, lat + 60] as Position)))).toMatch(/WGS84/)
     expect(message(poly(densified(box(-88.1, 35, 0.0001, 0.0001))))).toMatch(/km²/)
     expect(message(poly(densified(box(-100, 30, 20, 10))))).toMatch(/km from its centre/)
+  })
+
+  it('checks 50,000 vertices of thin diagonal strips, every edge box overlapping the rest, in under 2 s', () => {
+    const lake = diagonalStrips(SHORELINE_LIMITS.maxVertices)
+    const start = performance.now()
+    expect(assertPlausibleShoreline(lake).vertices).toBe(SHORELINE_LIMITS.maxVertices)
+    expect(performance.now() - start).toBeLessThan(2000)
+    // One vertex nudged across the next strip still gets caught.
+    const ring = lake.coordinates[0]!
+    const [lon, lat] = ring[20_001]!
+    const crossed = ring.map((p, i) => (i === 20_001 ? ([lon + 0.001, lat] as Position) : p))
+    expect(message(poly(crossed))).toMatch(/crosses or touches itself/)
+  })
+
+  it('refuses more vertices than the cap before any geometry', () => {
+    expect(message(diagonalStrips(SHORELINE_LIMITS.maxVertices + 4))).toMatch(/simplify it/)
   })
 })
