@@ -9,7 +9,7 @@ import { lakeDay, type ForecastHour } from '../../shared/conditions/day-plan'
 import { exposureTable } from '../../shared/conditions/exposure'
 import type { Bank } from '../../shared/conditions/ranking'
 import type { Polygon, Position } from '../../shared/geo/types'
-import type { BriefSettings } from '../../shared/schemas/brief'
+import type { BriefUnits } from '../../shared/schemas/brief'
 import { composeBrief, renderBrief, type BriefLake } from '../../server/features/brief/compose'
 import { sampleRead } from '../helpers/lake-read-fixture'
 import { describeScenario } from '../helpers/scenario'
@@ -94,7 +94,7 @@ const read = sampleRead({
   center: [-88.05, 35.025],
 })
 
-const US: BriefSettings['units'] = { temperature: 'F', length: 'ft', speed: 'mph', clock: '12h' }
+const US: BriefUnits = { temperature: 'F', length: 'ft', speed: 'mph', clock: '12h' }
 const lake = (over: Partial<BriefLake> = {}): BriefLake => ({
   slug: 'boxwater',
   name: 'Boxwater Reservoir',
@@ -235,7 +235,7 @@ describe('composeBrief and renderBrief', () => {
   })
 })
 
-const METRIC: BriefSettings['units'] = { temperature: 'C', length: 'm', speed: 'kmh', clock: '24h' }
+const METRIC: BriefUnits = { temperature: 'C', length: 'm', speed: 'kmh', clock: '24h' }
 
 /** The text between one heading line and the next blank line of a brief's plain-text part. */
 function windowText(text: string, label: string): string {

@@ -17,7 +17,7 @@ import { CLARITY_LABELS } from '../../../shared/conditions/clarity'
 import { PHASE_LABELS } from '../../../shared/conditions/season'
 import type { TackleCall } from '../../../shared/conditions/tackle'
 import { makeFormat, type Format } from '../../../shared/format'
-import type { BriefSettings } from '../../../shared/schemas/brief'
+import type { BriefUnits } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { dateLabel } from '../../../shared/time'
 import { mailTemplate } from '../mail/render'
@@ -36,7 +36,7 @@ export interface BriefLake {
 export interface BriefInput {
   /** The subscriber's local date the brief is for. */
   date: string
-  units: BriefSettings['units']
+  units: BriefUnits
   lakes: BriefLake[]
   /** The app's public origin, for links. */
   origin: string
