@@ -7,17 +7,22 @@ import type {
   TripList,
   TripView,
 } from '../../../shared/schemas/guides'
-import { addDays, dateLabel, isoOrNull, localDate, localDayBounds } from '../../../shared/time'
+import { dateLabel, isoOrNull, localDate, localDayBounds } from '../../../shared/time'
 import { HttpError } from '../../http/errors'
 import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import { mailTemplate } from '../mail/render'
 import type { ClientsRepo } from './clients.repo'
+import type { ProfileRepo } from './profile.repo'
 import type { TripsRepo } from './trips.repo'
 
 type TripRow = NonNullable<Awaited<ReturnType<TripsRepo['get']>>>
 
 const notFound = () => new HttpError(404, 'not_found', 'No such trip.')
+
+/** The day chosen for a link: it ends at the start of the next day at the lake. */
+const lastDay = (expiresAt: Date, timeZone: string) =>
+  localDate(new Date(expiresAt.getTime() - 1), timeZone)
 
 const renderShare = mailTemplate<{
   subject: string
@@ -27,11 +32,15 @@ const renderShare = mailTemplate<{
   meetingTime: string
   url: string
   expires: string
+  /** The guide's name and contact from their profile; null without one. */
+  guide: string | null
+  contact: string | null
 }>('trip-share')
 
 export function tripsService(deps: {
   repo: TripsRepo
   clients: ClientsRepo
+  profiles: ProfileRepo
   mail: MailContext
   linkKey: TokenKey
   now?: () => Date
@@ -45,11 +54,15 @@ export function tripsService(deps: {
     return trip
   }
 
-  /** The trip as its client sees it: the cached day for its date with the trip's banks ranked. */
-  async function shared(trip: TripRow): Promise<SharedTrip> {
-    const [banks, cached] = await Promise.all([
+  /**
+   * The trip as its client sees it: the cached day for its date with the trip's banks ranked, who
+   * guides it, and (opened by a link) the last day the link works.
+   */
+  async function shared(trip: TripRow, link?: { expiresAt: Date }): Promise<SharedTrip> {
+    const [banks, cached, guide] = await Promise.all([
       repo.tripBanks(trip.id),
       repo.day(trip.lakeId, trip.date),
+      deps.profiles.get(trip.guideId),
     ])
     const plan = cached
       ? planForBanks(
@@ -71,13 +84,15 @@ export function tripsService(deps: {
         : 'The forecast does not reach this day yet; the plan appears here when it does.',
       cautions: plan?.cautions ?? [AUTHORITY_CAUTION],
       computedAt: isoOrNull(cached?.computedAt),
+      guide,
+      linkEndsOn: link ? lastDay(link.expiresAt, trip.timeZone) : null,
     }
   }
 
   const shareUrl = async (shareId: string) =>
     `${mail.origin}/trip/${await signLinkToken(linkKey, { purpose: 'trip-share', subject: shareId })}`
 
-  async function shareViews(tripId: string): Promise<ShareView[]> {
+  async function shareViews(tripId: string, timeZone: string): Promise<ShareView[]> {
     const shares = await repo.shares(tripId)
     const sends = await repo.sends(shares.map((s) => s.id))
     return Promise.all(
@@ -85,6 +100,7 @@ export function tripsService(deps: {
         id: s.id,
         url: await shareUrl(s.id),
         expiresAt: s.expiresAt.toISOString(),
+        expiresOn: lastDay(s.expiresAt, timeZone),
         revokedAt: isoOrNull(s.revokedAt),
         createdAt: s.createdAt.toISOString(),
         sends: sends
@@ -102,7 +118,7 @@ export function tripsService(deps: {
 
   async function view(guideId: string, id: string): Promise<TripView> {
     const trip = await owned(guideId, id)
-    const [client, shares] = await Promise.all([shared(trip), shareViews(trip.id)])
+    const [client, shares] = await Promise.all([shared(trip), shareViews(trip.id, trip.timeZone)])
     return {
       ...client,
       id: trip.id,
@@ -164,13 +180,13 @@ export function tripsService(deps: {
           expiresOn: 'Choose a day from today on.',
         })
       await repo.createShare(trip.id, localDayBounds(expiresOn, trip.timeZone)[1])
-      return shareViews(trip.id)
+      return shareViews(trip.id, trip.timeZone)
     },
     async revoke(guideId: string, id: string, shareId: string): Promise<ShareView[]> {
       const trip = await owned(guideId, id)
       if (!(await repo.revokeShare(trip.id, shareId, now())))
         throw new HttpError(404, 'not_found', 'No such link on this trip.')
-      return shareViews(trip.id)
+      return shareViews(trip.id, trip.timeZone)
     },
 
     /** E-mails a link to chosen clients of the guide; each send is recorded, sent or failed. */
@@ -192,14 +208,18 @@ export function tripsService(deps: {
           clientIds: 'Choose from your own clients.',
         })
       const url = await shareUrl(link.id)
+      const guide = await deps.profiles.get(guideId)
+      const contact = guide && [guide.phone, guide.email].filter(Boolean).join(' or ')
       const message = renderShare({
+        guide: guide?.name ?? null,
+        contact: contact || null,
         subject: `Your fishing trip on ${trip.lakeName}, ${dateLabel(trip.date)}`,
         lake: trip.lakeName,
         day: dateLabel(trip.date, 'long'),
         meetingPoint: trip.meetingPoint,
         meetingTime: trip.meetingTime.slice(0, 5),
         url,
-        expires: dateLabel(addDays(link.expiresAt.toISOString().slice(0, 10), -1), 'long'),
+        expires: dateLabel(lastDay(link.expiresAt, trip.timeZone), 'long'),
       })
       const outcomes = await Promise.all(
         chosen.map(async (c) => {
@@ -224,7 +244,7 @@ export function tripsService(deps: {
           sentAt: now(),
         })),
       )
-      return shareViews(trip.id)
+      return shareViews(trip.id, trip.timeZone)
     },
 
     /** What a share link opens: 404 for a link that is not ours, 410 once it is revoked or expired. */
@@ -242,7 +262,7 @@ export function tripsService(deps: {
         )
       const trip = await repo.get(share.tripId, null)
       if (!trip) throw new HttpError(410, 'link_revoked', 'This trip has been cancelled.')
-      return shared(trip)
+      return shared(trip, share)
     },
   }
 }
