@@ -81,7 +81,9 @@ export function tripsService(deps: {
       plan,
       unavailable: plan
         ? null
-        : 'The forecast does not reach this day yet; the plan appears here when it does.',
+        : trip.date < localDate(now(), trip.timeZone)
+          ? 'This day has passed, and no plan was kept for it.'
+          : 'The forecast does not reach this day yet; the plan appears here when it does.',
       cautions: plan?.cautions ?? [AUTHORITY_CAUTION],
       computedAt: isoOrNull(cached?.computedAt),
       guide,
