@@ -24,6 +24,8 @@ import { healthRoutes } from './features/health/health.routes'
 import { clientsRepo } from './features/guides/clients.repo'
 import { clientsService } from './features/guides/clients.service'
 import { guidesRoutes } from './features/guides/guides.routes'
+import { profileRepo } from './features/guides/profile.repo'
+import { profileService } from './features/guides/profile.service'
 import { tripsRepo } from './features/guides/trips.repo'
 import { tripsService } from './features/guides/trips.service'
 import { lakesDeskRepo } from './features/desk/lakes-desk.repo'
@@ -171,7 +173,9 @@ export function createApp(deps: AppDeps): express.Express {
         clients: clientsRepo(deps.db),
         mail: deps.mail,
         linkKey,
+        profiles: profileRepo(deps.db),
       }),
+      profileService(profileRepo(deps.db)),
     ),
   )
   api.use(quarantineRoutes(quarantineService(quarantineRepo(deps.db))))

@@ -1,5 +1,6 @@
 import { compassName } from './conditions/exposure'
 import { cautionWords, verdictOf, type CautionUnits } from './conditions/safety'
+import { quantitiesIn } from './quantities'
 import type { Settings } from './schemas/settings'
 import { dateTimeFormat } from './time'
 import { cToF, ftToM, mToFt, msToKmh, msToKnots, msToMph } from './units'
@@ -68,6 +69,8 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     /** The verdict of some cautions, its reasons in these units. */
     verdict: (cautions: Parameters<typeof cautionWords>[0][]) =>
       verdictOf(cautions.map((c) => ({ ...c, ...cautionWords(c, cautionUnits) }))),
+    /** The quantities in a rule's wording (tackle reasons, sizes) in these units. */
+    quantities: (text: string) => quantitiesIn(text, s),
     from: (deg: number) => `from ${compassName(deg)}`,
     time: (iso: string | null, timeZone: string) =>
       iso

@@ -112,3 +112,12 @@ export function isTimeZone(timeZone: string): boolean {
     return false
   }
 }
+
+/** The zone's short name on a local date, as clocks there read it ("CDT", "GMT+10"). */
+export function zoneAbbreviation(date: string, timeZone: string): string {
+  const [y, m, d] = assertDate(date)
+  const parts = dateTimeFormat({ timeZone, timeZoneName: 'short' }).formatToParts(
+    new Date(Date.UTC(y, m - 1, d, 12)),
+  )
+  return parts.find((p) => p.type === 'timeZoneName')?.value ?? timeZone
+}

@@ -8,7 +8,7 @@ import { startScheduler } from '../../jobs/scheduler'
 import { runIngestReadings } from '../../jobs/ingest-readings'
 import { runIngestWeather } from '../../jobs/ingest-weather'
 import { readings } from '../db/schema/index'
-import { DEMO_PASSWORD, DEMO_USERS, seedDemo } from '../db/seed/index'
+import { DEMO_PASSWORD, DEMO_USERS, seedDemo, seedDemoLife } from '../db/seed/index'
 import { DEMO_FEED_SEED, DEMO_STATIONS } from '../db/seed/demo-stations'
 import { startFeed } from '../fakes/feed/index'
 import { backfillReadings } from '../features/ingest/readings.ingest'
@@ -95,6 +95,8 @@ async function prepareLocalStack(env: Env, logger: Logger): Promise<LocalStack> 
   const db = createDb(url, { log: logger })
   await migrateDb(db)
   await seedDemo(db)
+  // Banks, clients and trips, so each screen shows its main job on first open.
+  await seedDemoLife(db)
   return { db, cluster, sessionSecret: env.SESSION_SECRET ?? localSecret('session-secret', 48) }
 }
 

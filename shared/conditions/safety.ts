@@ -311,6 +311,9 @@ export const VERDICT_LABELS: Record<Verdict, string> = {
   'no-go': 'No-go: do not launch',
 }
 
+/** The verdict's shape, so it never rests on colour alone: a tick, a bang, a cross. */
+export const VERDICT_SHAPES: Record<Verdict, string> = { go: '✓', caution: '!', 'no-go': '✕' }
+
 /**
  * Go, caution or no-go from the cautions: any danger is a no-go, any warning a caution; the
  * reasons are the cautions at the deciding level (or, on a go, the lesser cautions to keep in mind).

@@ -4,6 +4,15 @@ import type { SeasonalPhase } from './season'
 
 export const COVERS = ['wood', 'sparse-grass', 'dense-grass', 'rock', 'docks', 'open'] as const
 export type Cover = (typeof COVERS)[number]
+/** Cover in words, for reasons a person reads. */
+export const COVER_WORDS: Record<Cover, string> = {
+  wood: 'wood',
+  'sparse-grass': 'sparse grass',
+  'dense-grass': 'dense grass',
+  rock: 'rock',
+  docks: 'docks',
+  open: 'open bank',
+}
 
 export type LureFamily =
   | 'spinnerbait'

@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { isTimeZone } from '../time'
-import { Settings } from './settings'
+import type { Settings } from './settings'
 
 /** ISO weekdays, Monday = 1 … Sunday = 7 (as PostgreSQL's `isodow`). */
 export const WEEKDAYS = [
@@ -30,17 +30,27 @@ export const BriefSettings = z.object({
     .string({ error: 'Choose a time zone.' })
     .max(64)
     .refine(isTimeZone, 'Not a time zone we know.'),
-  units: Settings.pick({ temperature: true, length: true, speed: true, clock: true }),
+  /**
+   * The followed lakes that go in the brief, by slug; left out, the choice stays as it was (a
+   * newly followed lake goes in). Units are the account's, one setting for screens and brief.
+   */
+  lakes: z
+    .array(z.string().regex(/^[a-z0-9-]{1,60}$/, 'Not a lake.'), { error: 'Choose the lakes.' })
+    .max(200, 'Choose at most 200 lakes.')
+    .refine((slugs) => new Set(slugs).size === slugs.length, 'Each lake once.')
+    .optional(),
 })
 export type BriefSettings = z.infer<typeof BriefSettings>
+/** The units a brief is written in: the account's display settings. */
+export type BriefUnits = Omit<Settings, 'homeLakeSlug'>
 
 /** The Settings screen's brief section: saved settings (null before the first save) and status. */
 export const BriefSettingsView = z.object({
   settings: BriefSettings.nullable(),
   email: z.string(),
   emailVerified: z.boolean(),
-  /** The lakes the brief covers: the ones this angler follows. */
-  lakes: z.array(z.object({ slug: z.string(), name: z.string() })),
+  /** The lakes this angler follows, and whether each goes in the brief. */
+  lakes: z.array(z.object({ slug: z.string(), name: z.string(), inBrief: z.boolean() })),
 })
 export type BriefSettingsView = z.infer<typeof BriefSettingsView>
 

@@ -24,6 +24,22 @@ export const ClientInput = z.object({
 })
 export type ClientInput = z.infer<typeof ClientInput>
 
+/** How a guide appears to clients on a shared trip: a name, and a phone or an address or both. */
+export const GuideProfile = z.object({
+  name: z
+    .string({ error: 'Give the name your clients know you by.' })
+    .trim()
+    .min(1, 'Give the name your clients know you by.')
+    .max(80, 'Keep the name under 80 characters.')
+    .regex(/^[^<>]*$/, 'Leave out < and >.'),
+  phone: ClientInput.shape.phone,
+  email: z.union([z.literal(''), Email]).default(''),
+})
+export type GuideProfile = z.infer<typeof GuideProfile>
+/** The guide's profile; null until they first save it. */
+export const GuideProfileView = z.object({ profile: GuideProfile.nullable() })
+export type GuideProfileView = z.infer<typeof GuideProfileView>
+
 export const ClientView = ClientInput.extend({ id: z.uuid(), updatedAt: z.iso.datetime() })
 export type ClientView = z.infer<typeof ClientView>
 export const ClientList = z.object({ items: z.array(ClientView) })
@@ -93,6 +109,10 @@ export const SharedTrip = z.object({
   /** Cautions of the day's windows, most serious first, ending with the deferral to local authority. */
   cautions: z.array(CautionView),
   computedAt: z.iso.datetime().nullable(),
+  /** Who guides the trip and how to reach them; null until the guide fills in their profile. */
+  guide: GuideProfile.nullable(),
+  /** Through which day, at the lake, the link opened works; null on the guide's own page. */
+  linkEndsOn: z.iso.date().nullable(),
 })
 export type SharedTrip = z.infer<typeof SharedTrip>
 
@@ -107,6 +127,8 @@ export const ShareView = z.object({
   id: z.uuid(),
   url: z.string(),
   expiresAt: z.iso.datetime(),
+  /** The day chosen: the link works through its end at the lake. */
+  expiresOn: z.iso.date(),
   revokedAt: z.iso.datetime().nullable(),
   createdAt: z.iso.datetime(),
   sends: z.array(ShareSendView),

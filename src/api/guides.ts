@@ -7,6 +7,8 @@ import type {
   TripList,
   TripView,
   ClientInput,
+  GuideProfile,
+  GuideProfileView,
   TripInput,
 } from '@shared/schemas/guides'
 import { apiCommand, apiRequest, upload } from './http'
@@ -45,4 +47,10 @@ export const tripsApi = {
       body: { clientIds },
     }),
   shared: (token: string) => apiRequest<SharedTrip>(`/shared/trips/${encodeURIComponent(token)}`),
+}
+
+export const profileApi = {
+  get: () => apiRequest<GuideProfileView>('/guide/profile'),
+  save: (body: GuideProfile) =>
+    apiRequest<GuideProfileView>('/guide/profile', { method: 'PUT', body }),
 }

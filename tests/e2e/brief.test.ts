@@ -68,7 +68,11 @@ describe('the morning brief in Chromium', () => {
     await page.getByRole('link', { name: 'Brief settings' }).click()
     await brief.getByText('confirmed', { exact: true }).waitFor()
     await brief.getByRole('checkbox', { name: 'Sun' }).uncheck({ force: true })
-    await brief.getByRole('radio', { name: '°C' }).check({ force: true })
+    // The followed lake goes in the brief; the brief is written in the account's units.
+    expect(await brief.getByRole('checkbox', { name: 'Quillmere Reservoir' }).isChecked()).toBe(
+      true,
+    )
+    await brief.getByText('Written in your units (°F, feet, mph, 12-hour clock)').waitFor()
     await brief.getByRole('button', { name: 'Save brief' }).click()
     await page
       .getByText('Morning brief saved.')
@@ -82,7 +86,7 @@ describe('the morning brief in Chromium', () => {
       .select()
       .from(briefSettings)
       .where(eq(briefSettings.userId, user!.id))
-    expect(saved).toMatchObject({ enabled: true, days: [1, 2, 3, 4, 5, 6], temperature: 'C' })
+    expect(saved).toMatchObject({ enabled: true, days: [1, 2, 3, 4, 5, 6] })
     expect(saved!.sendTime).toBe('05:00:00')
     await page.screenshot({ path: join(artifactsDir, 'brief-settings-phone.png'), fullPage: true })
     await page.close()

@@ -28,6 +28,14 @@ describe('a guide shares a trip in Chromium', () => {
 
     await page.getByRole('link', { name: 'Trips' }).click()
     await page.getByText('No trips yet').waitFor()
+    // The name and contact clients see on every shared trip.
+    await page.getByLabel('Your name, as clients see it').fill('Jory Wend')
+    await page.getByLabel('Phone for clients').fill('+1 555 0142')
+    await page
+      .getByRole('region', { name: 'You, on shared trips' })
+      .getByRole('button', { name: 'Save' })
+      .click()
+    await page.getByText('Saved: your trips show this name and contact.').waitFor()
     await page.locator('.n-base-selection', { hasText: 'Choose a lake' }).click()
     await page.locator('.n-base-select-option', { hasText: 'Quillmere Reservoir' }).click()
     await page.getByLabel('Meeting point').fill('North ramp')
@@ -60,6 +68,12 @@ describe('a guide shares a trip in Chromium', () => {
       await client.getByRole('heading', { name: 'Your trip on Quillmere Reservoir' }).waitFor()
       await client.getByText('North ramp').waitFor()
       await client.getByText(/Follow local authorities/).waitFor()
+      await client.getByText('Jory Wend · +1 555 0142').waitFor()
+      // The link ends on the day chosen (the day after the trip by default), at the lake.
+      expect(await client.locator('.link-ends').innerText()).toMatch(
+        /^This link works through \w+day, \w+ \d+, to midnight at the lake \(C[DS]T\)\.$/,
+      )
+      await client.getByText(/The day:/).waitFor()
       expect(await client.content()).not.toContain('guide@chopline.test')
       await expectAccessible(client, 'Shared trip')
       await client.screenshot({ path: join(artifactsDir, 'shared-trip-phone.png'), fullPage: true })
@@ -70,6 +84,14 @@ describe('a guide shares a trip in Chromium', () => {
       // Printed, the trip fits one US Letter page.
       const pdf = (await client.pdf({ format: 'Letter' })).toString('latin1')
       expect(pdf.match(/\/Type\s*\/Page[^s]/g)).toHaveLength(1)
+      // On paper each fishing window keeps its open tackle call; the folded ones leave no row.
+      const printed = await client.evaluate<{ open: boolean; shown: boolean }[]>(`
+        [...document.querySelectorAll('.tackle-call')].map((li) => ({
+          open: li.querySelector('details').open,
+          shown: li.offsetHeight > 0,
+        }))`)
+      expect(printed.some((call) => call.open)).toBe(true)
+      for (const call of printed) expect(call.shown).toBe(call.open)
       await client.emulateMedia({ media: 'screen' })
 
       await page.getByRole('button', { name: 'Revoke link' }).click()

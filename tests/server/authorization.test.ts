@@ -70,6 +70,8 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'GET /admin/brief-deliveries': admins,
   'GET /admin/mailbox': admins,
   'GET /admin/mailbox/:id': admins,
+  'GET /guide/profile': guides,
+  'PUT /guide/profile': guides,
   'GET /guide/clients': guides,
   'POST /guide/clients': guides,
   'POST /guide/clients/import': guides,
@@ -191,6 +193,7 @@ describe('the authorization matrix', () => {
       /** Valid bodies where a route checks ownership after the body: otherwise validation answers first. */
       const bodies: Record<string, object> = {
         'PUT /lakes/:slug/banks/:id': bankBody,
+        'PUT /guide/profile': { name: 'Matrix Guide', phone: '', email: '' },
         'PUT /guide/clients/:id': clientBody,
         'PUT /guide/trips/:id': tripBody,
         'POST /guide/trips/:id/shares': { expiresOn },

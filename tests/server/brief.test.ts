@@ -18,6 +18,7 @@ import {
   lakes,
   subscriptions,
   users,
+  userSettings,
 } from '../../server/db/schema/index'
 import { signLinkToken, tokenKey } from '../../server/features/auth/auth.tokens'
 import { sendBriefs, type BriefPolicy } from '../../server/features/brief/send-briefs'
@@ -40,7 +41,6 @@ const SETTINGS: BriefSettings = {
   sendTime: '05:00',
   days: [1, 2, 3, 4, 5, 6, 7],
   timeZone: 'America/Chicago',
-  units: { temperature: 'F', length: 'ft', speed: 'mph', clock: '12h' },
 }
 
 const app = () => testApp(ctx.db, { mail: mail.mail, mailbox: mail.smtp })
@@ -64,7 +64,6 @@ async function subscriber(
     sendTime: s.sendTime,
     days: s.days,
     timeZone: s.timeZone,
-    ...s.units,
   })
   for (const slug of lakeSlugs) {
     const [lake] = await ctx.db.select().from(lakes).where(eq(lakes.slug, slug))
@@ -129,6 +128,43 @@ describe('brief settings', () => {
       settings: { sendTime: '06:15', days: [6, 7], timeZone: 'America/Chicago' },
       lakes: [{ slug: 'quillmere' }],
     })
+  })
+
+  it('puts only the chosen followed lakes in the brief, and refuses a lake not followed', async () => {
+    const me = await signedInAgent(app(), ctx.db, 'chooser@example.test')
+    await me.put('/api/lakes/quillmere/subscription').expect(204)
+    await me.put('/api/lakes/vessandra/subscription').expect(204)
+    const before = BriefSettingsView.parse((await me.get('/api/me/brief').expect(200)).body)
+    // A newly followed lake goes in the brief.
+    expect(before.lakes.map((l) => [l.slug, l.inBrief])).toEqual([
+      ['vessandra', true],
+      ['quillmere', true],
+    ])
+    const saved = BriefSettingsView.parse(
+      (
+        await me
+          .put('/api/me/brief')
+          .send({ ...SETTINGS, lakes: ['vessandra'] })
+          .expect(200)
+      ).body,
+    )
+    expect(saved.settings!.lakes).toEqual(['vessandra'])
+    expect(saved.lakes.map((l) => [l.slug, l.inBrief])).toEqual([
+      ['vessandra', true],
+      ['quillmere', false],
+    ])
+    // Saved without a choice, the choice stands.
+    await me
+      .put('/api/me/brief')
+      .send({ ...SETTINGS, sendTime: '06:00' })
+      .expect(200)
+    expect((await me.get('/api/me/brief').expect(200)).body.settings.lakes).toEqual(['vessandra'])
+    const bad = await me
+      .put('/api/me/brief')
+      .send({ ...SETTINGS, lakes: ['vessandra', 'no-such-lake'] })
+      .expect(400)
+    expect(bad.body.error.fields).toEqual({ lakes: 'Choose from the lakes you follow.' })
+    expect((await me.get('/api/me/brief').expect(200)).body.settings.lakes).toEqual(['vessandra'])
   })
 
   it('answers bad values with a message per field and saves nothing', async () => {
@@ -228,6 +264,27 @@ describe('the send job', () => {
     expect(inbox('due@example.test')).toHaveLength(1)
   })
 
+  it('covers only the lakes chosen for the brief, in the account’s units', async () => {
+    const user = await subscriber('metric@example.test', {}, ['quillmere', 'vessandra'])
+    await ctx.db
+      .insert(userSettings)
+      .values({ userId: user.id, temperature: 'C', length: 'm', speed: 'kmh', clock: '24h' })
+    const [vessandra] = await ctx.db.select().from(lakes).where(eq(lakes.slug, 'vessandra'))
+    await ctx.db
+      .update(subscriptions)
+      .set({ inBrief: false })
+      .where(eq(subscriptions.lakeId, vessandra!.id))
+    const today = localDate(feed.now(), 'America/Chicago')
+    expect(await run(chicago(today, '05:10'))).toMatchObject({ sent: 1 })
+    const [message] = inbox('metric@example.test')
+    expect(message!.subject).toMatch(/: Quillmere Reservoir$/)
+    expect(message!.text).toContain('== Quillmere Reservoir ==')
+    expect(message!.text).not.toContain('Vessandra')
+    expect(message!.text).toMatch(/^Water \d+\.\d °C/m)
+    expect(message!.text).toMatch(/wind \d+ km\/h from/)
+    expect(message!.text).not.toMatch(/°F|mph|\d ft\b|AM|PM/)
+  })
+
   it('sends nothing to unverified, switched-off, not-today or not-yet subscribers', async () => {
     const today = localDate(feed.now(), 'America/Chicago')
     const at = chicago(today, '07:00')
@@ -238,6 +295,11 @@ describe('the send job', () => {
     await subscriber('notoday@example.test', { days: [(isoDow % 7) + 1] })
     await subscriber('later@example.test', { sendTime: '08:00' })
     await subscriber('nolakes@example.test', {}, [])
+    const none = await subscriber('noneinbrief@example.test')
+    await ctx.db
+      .update(subscriptions)
+      .set({ inBrief: false })
+      .where(eq(subscriptions.userId, none.id))
     expect(await run(at)).toMatchObject({ claimed: 0, sent: 0 })
     expect(mail.smtp.messages()).toHaveLength(0)
     expect(await run(chicago(today, '08:00'))).toMatchObject({ sent: 1 })

@@ -1,7 +1,29 @@
-import { describe, expect, it } from 'vitest'
+import { eq } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { inWaterXy, lakeAreaM2, lakeProjection } from '../../shared/geo/polygon'
 import type { Position } from '../../shared/geo/types'
+import { addDays, localDate } from '../../shared/time'
+import {
+  banks,
+  clients,
+  guideProfiles,
+  lakes,
+  subscriptions,
+  users,
+} from '../../server/db/schema/index'
+import { DEMO_GUIDE_PROFILE } from '../../server/db/seed/demo-life'
 import { DEMO_LAKES, demoShoreline } from '../../server/db/seed/demo-lakes'
+import { seedDemo, seedDemoLife } from '../../server/db/seed/index'
+import { tokenKey } from '../../server/features/auth/auth.tokens'
+import { clientsRepo } from '../../server/features/guides/clients.repo'
+import { profileRepo } from '../../server/features/guides/profile.repo'
+import { tripsRepo } from '../../server/features/guides/trips.repo'
+import { tripsService } from '../../server/features/guides/trips.service'
+import type { MailContext } from '../../server/features/mail/mailer'
+import { createTestDb } from '../helpers/db'
+
+/** A fixed clock for the seeded trips: mid-morning in the demo lakes' zone. */
+const NOW = new Date('2026-05-12T15:00:00Z')
 
 type Seg = [Position, Position]
 
@@ -43,3 +65,77 @@ describe.each(DEMO_LAKES.map((shape) => [shape.name, shape] as const))(
     })
   },
 )
+
+describe('the lived-in demo (npm start)', () => {
+  let ctx: Awaited<ReturnType<typeof createTestDb>>
+  beforeAll(async () => {
+    ctx = await createTestDb()
+    await seedDemo(ctx.db)
+    await seedDemoLife(ctx.db, NOW)
+    // Re-runnable: a second start adds nothing.
+    await seedDemo(ctx.db)
+    await seedDemoLife(ctx.db, NOW)
+  }, 60_000)
+  afterAll(() => ctx?.drop())
+
+  const userId = async (email: string) =>
+    (await ctx.db.select().from(users).where(eq(users.email, email)))[0]!.id
+
+  it('gives the demo angler several banks on every demo lake, snapped, facing every way, with varied cover and depth', async () => {
+    const angler = await userId('angler@chopline.test')
+    const rows = await ctx.db
+      .select({ lake: lakes.slug, bank: banks })
+      .from(banks)
+      .innerJoin(lakes, eq(lakes.id, banks.lakeId))
+      .where(eq(banks.userId, angler))
+    for (const shape of DEMO_LAKES) {
+      const mine = rows.filter((r) => r.lake === shape.slug).map((r) => r.bank)
+      expect(mine.length, shape.slug).toBeGreaterThanOrEqual(4)
+      expect(new Set(mine.map((b) => b.name)).size).toBe(mine.length)
+      // Each stored with its exposure table, none detached, facing at least four ways.
+      for (const b of mine) expect(b.exposure.rows).toHaveLength(16)
+      expect(mine.every((b) => b.detachedAt === null)).toBe(true)
+      const facings = new Set(mine.map((b) => Math.round(b.exposure.facingDeg / 90) % 4))
+      expect(facings.size).toBeGreaterThanOrEqual(3)
+      expect(new Set(mine.flatMap((b) => b.cover)).size).toBeGreaterThanOrEqual(4)
+      expect(new Set(mine.map((b) => b.depthM)).size).toBeGreaterThanOrEqual(3)
+    }
+    // The angler follows every demo lake; the brief covers the first unless more are picked.
+    const follows = await ctx.db
+      .select()
+      .from(subscriptions)
+      .where(eq(subscriptions.userId, angler))
+    expect(follows).toHaveLength(DEMO_LAKES.length)
+    expect(follows.filter((f) => f.inBrief)).toHaveLength(1)
+  })
+
+  it('gives the demo guide a profile, clients, an upcoming trip shared by link and a past one', async () => {
+    const guide = await userId('guide@chopline.test')
+    const [profile] = await ctx.db
+      .select()
+      .from(guideProfiles)
+      .where(eq(guideProfiles.userId, guide))
+    expect(profile!.name).toBe(DEMO_GUIDE_PROFILE.name)
+    expect(await ctx.db.select().from(clients).where(eq(clients.guideId, guide))).toHaveLength(3)
+    const service = tripsService({
+      repo: tripsRepo(ctx.db),
+      clients: clientsRepo(ctx.db),
+      profiles: profileRepo(ctx.db),
+      mail: { origin: 'http://app.test' } as MailContext,
+      linkKey: tokenKey('a demo test secret that is long enough to sign'),
+      now: () => NOW,
+    })
+    const list = (await service.list(guide)).items
+    const today = localDate(NOW, 'America/Chicago')
+    expect(list.map((t) => t.date)).toEqual([addDays(today, 1), addDays(today, -6)])
+    expect(list.every((t) => t.bankCount === 3)).toBe(true)
+    const [upcoming, past] = await Promise.all(list.map((t) => service.view(guide, t.id)))
+    const live = (s: { revokedAt: string | null; expiresAt: string }) =>
+      !s.revokedAt && Date.parse(s.expiresAt) > NOW.getTime()
+    expect(upcoming!.shares.filter(live)).toHaveLength(1)
+    expect(upcoming!.shares[0]!.expiresOn).toBe(addDays(today, 2))
+    expect(upcoming!.guide).toEqual(DEMO_GUIDE_PROFILE)
+    expect(past!.shares.filter(live)).toHaveLength(0)
+    expect(past!.unavailable).toBe('This day has passed, and no plan was kept for it.')
+  })
+})

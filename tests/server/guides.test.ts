@@ -5,12 +5,13 @@ import {
   ClientImportReport,
   ClientList,
   ClientView,
+  GuideProfileView,
   SharedTrip,
   TripList,
   TripView,
 } from '../../shared/schemas/guides'
 import { addDays, localDate } from '../../shared/time'
-import { tripShares } from '../../server/db/schema/index'
+import { lakes, tripShares } from '../../server/db/schema/index'
 import { signedInAgent, testApp } from '../helpers/app'
 import { startWorld, type World } from '../helpers/world'
 import { linkToken, startTestMail, type TestMail } from '../helpers/mail'
@@ -304,6 +305,95 @@ describe('trips and share links', () => {
     await request(app())
       .get(`/api/shared/trips/${laterToken.slice(0, -4)}abcd`)
       .expect(404)
+  })
+
+  it('shows the client the guide’s name and contact, and the day the link ends at the lake', async () => {
+    const guide = await signedInAgent(app(), ctx.db, 'named@guides.test', 'guide')
+    expect(
+      GuideProfileView.parse((await guide.get('/api/guide/profile').expect(200)).body),
+    ).toEqual({ profile: null })
+    const bad = await guide.put('/api/guide/profile').send({ name: ' ', email: 'nope' }).expect(400)
+    expect(Object.keys(bad.body.error.fields).sort()).toEqual(['email', 'name'])
+    const trip = TripView.parse(
+      (
+        await guide
+          .post('/api/guide/trips')
+          .send({
+            lakeSlug: 'quillmere',
+            date: today,
+            meetingPoint: 'Cove ramp',
+            meetingTime: '06:30',
+          })
+          .expect(201)
+      ).body,
+    )
+    // Before the guide saves a profile, the trip names nobody and shows no account address.
+    expect(trip.guide).toBeNull()
+    const saved = await guide
+      .put('/api/guide/profile')
+      .send({ name: 'Jory Wend', phone: '+1 555 0142', email: 'Trips@Wend.test' })
+      .expect(200)
+    expect(saved.body.profile).toEqual({
+      name: 'Jory Wend',
+      phone: '+1 555 0142',
+      email: 'trips@wend.test',
+    })
+
+    // A lake ten hours east of UTC: the link chosen to end on a day ends at that day's midnight
+    // there, which is the afternoon before in UTC, and still reads as the day chosen.
+    await ctx.db.update(lakes).set({ timeZone: 'Etc/GMT-10' }).where(eq(lakes.slug, 'quillmere'))
+    try {
+      const endsOn = addDays(today, 3)
+      const [share] = (
+        await guide
+          .post(`/api/guide/trips/${trip.id}/shares`)
+          .send({ expiresOn: endsOn })
+          .expect(201)
+      ).body.items
+      expect(share.expiresOn).toBe(endsOn)
+      expect(share.expiresAt).toBe(`${endsOn}T14:00:00.000Z`)
+      const token = new URL(share.url).pathname.split('/').pop()!
+      const page = SharedTrip.parse(
+        (await request(app()).get(`/api/shared/trips/${token}`).expect(200)).body,
+      )
+      expect(page.guide).toEqual({
+        name: 'Jory Wend',
+        phone: '+1 555 0142',
+        email: 'trips@wend.test',
+      })
+      expect(page.linkEndsOn).toBe(endsOn)
+      expect(JSON.stringify(page)).not.toContain('named@guides.test')
+
+      const jo = ClientView.parse(
+        (
+          await guide
+            .post('/api/guide/clients')
+            .send(client({ email: 'jo@client.test' }))
+            .expect(201)
+        ).body,
+      )
+      await guide
+        .post(`/api/guide/trips/${trip.id}/shares/${share.id}/send`)
+        .send({ clientIds: [jo.id] })
+        .expect(200)
+      const [message] = mail.smtp.messages().filter((m) => m.to.includes('jo@client.test'))
+      const [y, m, d] = endsOn.split('-').map(Number)
+      const long = new Date(Date.UTC(y!, m! - 1, d!, 12)).toLocaleDateString('en-US', {
+        weekday: 'long',
+        month: 'long',
+        day: 'numeric',
+        timeZone: 'UTC',
+      })
+      expect(message!.text).toContain(`The link works until the end of ${long};`)
+      expect(message!.text).toContain('Your guide, Jory Wend, has planned your day')
+      expect(message!.text).toContain('Questions before the day: +1 555 0142 or trips@wend.test')
+      expect(message!.html).toContain('Your guide, Jory Wend, has planned your day')
+    } finally {
+      await ctx.db
+        .update(lakes)
+        .set({ timeZone: 'America/Chicago' })
+        .where(eq(lakes.slug, 'quillmere'))
+    }
   })
 })
 

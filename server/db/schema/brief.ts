@@ -15,10 +15,9 @@ import {
 } from 'drizzle-orm/pg-core'
 import { BRIEF_SEND_STATUSES, DEFAULT_SEND_TIME } from '../../../shared/schemas/brief'
 import { timestamps } from './columns'
-import { clockStyle, lengthUnit, speedUnit, temperatureUnit } from './settings'
 import { users } from './users'
 
-/** A subscriber's morning brief: when, in which zone, in which units. No row: no brief. */
+/** A subscriber's morning brief: when and in which zone (units are the account's). No row: no brief. */
 export const briefSettings = pgTable('brief_settings', {
   userId: uuid()
     .primaryKey()
@@ -32,10 +31,6 @@ export const briefSettings = pgTable('brief_settings', {
     .notNull()
     .default(sql`'{1,2,3,4,5,6,7}'`),
   timeZone: text().notNull(),
-  temperature: temperatureUnit().notNull().default('F'),
-  length: lengthUnit().notNull().default('ft'),
-  speed: speedUnit().notNull().default('mph'),
-  clock: clockStyle().notNull().default('12h'),
   ...timestamps,
 })
 

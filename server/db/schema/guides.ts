@@ -16,6 +16,17 @@ import { banks } from './banks'
 import { lakes } from './lakes'
 import { users } from './users'
 
+/** How a guide appears on the trips they share: the name clients know and how to reach them. */
+export const guideProfiles = pgTable('guide_profiles', {
+  userId: uuid()
+    .primaryKey()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  name: text().notNull(),
+  phone: text().notNull().default(''),
+  email: text().notNull().default(''),
+  ...timestamps,
+})
+
 /** A guide's client: the guide's own address book, seen by nobody else. */
 export const clients = pgTable(
   'clients',

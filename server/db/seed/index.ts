@@ -7,6 +7,8 @@ import type { Role } from '../../../shared/schemas/auth'
 import { DEMO_LAKES, demoShoreline } from './demo-lakes'
 import { DEMO_STATIONS } from './demo-stations'
 
+export { seedDemoLife } from './demo-life'
+
 /** Development only: `npm start` refuses to seed these when NODE_ENV=production. */
 export const DEMO_PASSWORD = 'chopline-demo'
 const DEMO_ANGLER = { email: 'angler@chopline.test', role: 'angler' } as const

@@ -1,7 +1,7 @@
 import { and, desc, eq, ne } from 'drizzle-orm'
 import type { LakeDay } from '../../../shared/conditions/day-plan'
 import type { Bank } from '../../../shared/conditions/ranking'
-import type { BriefDelivery, BriefSettings } from '../../../shared/schemas/brief'
+import type { BriefDelivery, BriefUnits } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { isoOrNull } from '../../../shared/time'
 import type { Db } from '../../db/index'
@@ -17,7 +17,7 @@ export interface Claim {
 export interface Recipient {
   userId: string
   email: string
-  units: BriefSettings['units']
+  units: BriefUnits
   lakeIds: string[]
 }
 
@@ -43,7 +43,7 @@ const CLAIM_DUE = `
     join users u on u.id = b.user_id
     cross join lateral (select $1::timestamptz at time zone b.time_zone as at) l
     where b.enabled and u.email_verified_at is not null
-      and exists (select 1 from subscriptions s where s.user_id = b.user_id)
+      and exists (select 1 from subscriptions s where s.user_id = b.user_id and s.in_brief)
       and l.at::time >= b.send_time
       and extract(isodow from l.at)::int = any(b.days)
       and not exists (select 1 from brief_sends x where x.user_id = b.user_id and x.local_date = l.at::date)
@@ -91,14 +91,16 @@ export function briefSendsRepo(db: Db) {
       rows<Claim>(CLAIM_AGAIN, [now, leaseUntil, limit]),
     expirePast: (now: Date) => db.$client.query(EXPIRE_PAST, [now]),
 
-    /** Address, units and followed lakes of the claimed subscribers, in one query. */
+    /** Address, the account's units (the defaults without a row) and the lakes in the brief, in one query. */
     recipients: (userIds: string[]) =>
       rows<Recipient>(
         `select u.id as "userId", u.email,
-           json_build_object('temperature', b.temperature, 'length', b.length, 'speed', b.speed, 'clock', b.clock) as units,
+           json_build_object('temperature', coalesce(us.temperature, 'F'), 'length', coalesce(us.length, 'ft'),
+             'speed', coalesce(us.speed, 'mph'), 'clock', coalesce(us.clock, '12h')) as units,
            coalesce((select array_agg(s.lake_id order by l.name) from subscriptions s join lakes l on l.id = s.lake_id
-                     where s.user_id = u.id), '{}') as "lakeIds"
+                     where s.user_id = u.id and s.in_brief), '{}') as "lakeIds"
          from users u join brief_settings b on b.user_id = u.id
+         left join user_settings us on us.user_id = u.id
          where u.id = any($1::uuid[])`,
         [userIds],
       ),

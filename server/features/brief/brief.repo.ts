@@ -1,4 +1,4 @@
-import { and, asc, eq, sql } from 'drizzle-orm'
+import { and, asc, eq, inArray, sql } from 'drizzle-orm'
 import type { BriefSettings } from '../../../shared/schemas/brief'
 import type { Db } from '../../db/index'
 import { briefSettings, lakes, subscriptions, users } from '../../db/schema/index'
@@ -14,7 +14,7 @@ export function briefRepo(db: Db) {
           .where(eq(users.id, userId)),
         db.select().from(briefSettings).where(eq(briefSettings.userId, userId)),
         db
-          .select({ slug: lakes.slug, name: lakes.name })
+          .select({ slug: lakes.slug, name: lakes.name, inBrief: subscriptions.inBrief })
           .from(subscriptions)
           .innerJoin(lakes, eq(lakes.id, subscriptions.lakeId))
           .where(eq(subscriptions.userId, userId))
@@ -27,30 +27,46 @@ export function briefRepo(db: Db) {
             sendTime: row.sendTime.slice(0, 5),
             days: row.days,
             timeZone: row.timeZone,
-            units: {
-              temperature: row.temperature,
-              length: row.length,
-              speed: row.speed,
-              clock: row.clock,
-            },
+            lakes: followed.filter((l) => l.inBrief).map((l) => l.slug),
           }
         : null
       return { user, settings, lakes: followed }
     },
 
-    async save(userId: string, s: BriefSettings) {
-      const values = {
-        enabled: s.enabled,
-        sendTime: s.sendTime,
-        days: [...s.days].sort(),
-        timeZone: s.timeZone,
-        ...s.units,
-      }
-      await db
-        .insert(briefSettings)
-        .values({ userId, ...values })
-        .onConflictDoUpdate({ target: briefSettings.userId, set: values })
-    },
+    /** Followed lakes among `slugs`, by slug: what a brief may include. */
+    followedSlugs: async (userId: string, slugs: string[]) =>
+      slugs.length
+        ? (
+            await db
+              .select({ slug: lakes.slug })
+              .from(subscriptions)
+              .innerJoin(lakes, eq(lakes.id, subscriptions.lakeId))
+              .where(and(eq(subscriptions.userId, userId), inArray(lakes.slug, slugs)))
+          ).map((r) => r.slug)
+        : [],
+
+    /** The settings, and which followed lakes go in the brief (all of `lakes` and none other). */
+    save: (userId: string, s: BriefSettings) =>
+      db.transaction(async (tx) => {
+        const values = {
+          enabled: s.enabled,
+          sendTime: s.sendTime,
+          days: [...s.days].sort(),
+          timeZone: s.timeZone,
+        }
+        await tx
+          .insert(briefSettings)
+          .values({ userId, ...values })
+          .onConflictDoUpdate({ target: briefSettings.userId, set: values })
+        if (!s.lakes) return
+        const chosen = s.lakes.length
+          ? tx.select({ id: lakes.id }).from(lakes).where(inArray(lakes.slug, s.lakes))
+          : undefined
+        await tx
+          .update(subscriptions)
+          .set({ inBrief: chosen ? inArray(subscriptions.lakeId, chosen) : sql`false` })
+          .where(eq(subscriptions.userId, userId))
+      }),
 
     /** Marks the address verified if it is still the one the link was made for. */
     async markVerified(userId: string, email: string, at: Date) {

@@ -58,6 +58,11 @@ export function briefService(deps: {
     view,
 
     async save(userId: string, settings: BriefSettings): Promise<BriefSettingsView> {
+      const followed = settings.lakes && (await repo.followedSlugs(userId, settings.lakes))
+      if (settings.lakes && followed!.length !== settings.lakes.length)
+        throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
+          lakes: 'Choose from the lakes you follow.',
+        })
       await repo.save(userId, settings)
       return view(userId)
     },

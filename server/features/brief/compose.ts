@@ -1,11 +1,23 @@
-import { lakeWideSuggestion, planForBanks, type LakeDay } from '../../../shared/conditions/day-plan'
+import {
+  lakeWideSuggestion,
+  planForBanks,
+  type LakeDay,
+  type WindowPlan,
+} from '../../../shared/conditions/day-plan'
 import type { Bank } from '../../../shared/conditions/ranking'
-import { AUTHORITY_CAUTION, type CautionLevel } from '../../../shared/conditions/safety'
+import {
+  AUTHORITY_CAUTION,
+  VERDICT_LABELS,
+  VERDICT_SHAPES,
+  type Caution,
+  type CautionLevel,
+  type Verdict,
+} from '../../../shared/conditions/safety'
 import { CLARITY_LABELS } from '../../../shared/conditions/clarity'
 import { PHASE_LABELS } from '../../../shared/conditions/season'
 import type { TackleCall } from '../../../shared/conditions/tackle'
 import { makeFormat, type Format } from '../../../shared/format'
-import type { BriefSettings } from '../../../shared/schemas/brief'
+import type { BriefUnits } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { dateLabel } from '../../../shared/time'
 import { mailTemplate } from '../mail/render'
@@ -24,7 +36,7 @@ export interface BriefLake {
 export interface BriefInput {
   /** The subscriber's local date the brief is for. */
   date: string
-  units: BriefSettings['units']
+  units: BriefUnits
   lakes: BriefLake[]
   /** The app's public origin, for links. */
   origin: string
@@ -42,20 +54,49 @@ export interface BriefView {
   unsubscribeUrl: string
 }
 
+/** Go, caution or no-go in words and a shape, never colour alone, with the cautions that decided it. */
+interface VerdictView {
+  verdict: Verdict
+  /** "✕ No-go: do not launch". */
+  text: string
+  /** "Why" for a caution or no-go, "Keep in mind" for a go. */
+  reasonsLabel: string
+  reasons: string[]
+  /** The reasons on one line, for the text part and the preheader. */
+  reasonsText: string
+  noGo: boolean
+  caution: boolean
+}
+
+interface CautionLine {
+  /** "Danger", "Warning", "Caution". */
+  level: string
+  danger: boolean
+  /** Names its windows ("Midday and afternoon to dusk: …"), in the subscriber's units. */
+  message: string
+}
+
 interface LakeSection {
   name: string
   planUrl: string
   read: string
+  /** The day's verdict; null without a plan. */
+  verdict: VerdictView | null
   /** Why there is no plan today, instead of windows. */
   unavailable: string | null
   windows: WindowSection[]
-  cautions: { level: CautionLevel; danger: boolean; message: string }[]
+  /** One line per hazard, at its worst level, naming the windows it reaches. */
+  cautions: CautionLine[]
 }
 
 interface WindowSection {
   label: string
   hours: string
   wind: string
+  /** Null when the forecast does not reach the window. */
+  verdict: VerdictView | null
+  /** What to do instead of fishing in a no-go window; its banks and tackle are left out. */
+  noGo: string | null
   banks: { rank: number; name: string; exposure: string; reason: string }[]
   /** Where to start when no banks are saved on this lake. */
   suggestion: string | null
@@ -69,11 +110,41 @@ const TOP_BANKS = 3
 const words = (slug: string) => slug.replace(/-/g, ' ')
 const capitalised = (s: string) => s.charAt(0).toUpperCase() + s.slice(1)
 
+const NO_GO_WINDOW =
+  'Do not launch in this window: no banks or tackle while it lasts. If you are out, get off the water by the shortest sheltered route.'
+
+/** A window's go keeps its lesser cautions to the day's list, which names the windows. */
+function verdictView(
+  cautions: Caution[],
+  f: Format,
+  opts: { quietGo?: boolean } = {},
+): VerdictView {
+  const judged = f.verdict(cautions)
+  const { verdict } = judged
+  const reasons = opts.quietGo && verdict === 'go' ? [] : judged.reasons
+  return {
+    verdict,
+    text: `${VERDICT_SHAPES[verdict]} ${VERDICT_LABELS[verdict]}`,
+    reasonsLabel: verdict === 'go' ? 'Keep in mind' : 'Why',
+    reasons,
+    reasonsText: reasons.join('; '),
+    noGo: verdict === 'no-go',
+    caution: verdict === 'caution',
+  }
+}
+
+const LEVEL_WORDS: Record<CautionLevel, string> = {
+  danger: 'Danger',
+  warning: 'Warning',
+  caution: 'Caution',
+  info: 'Note',
+}
+
 /** "Spinnerbait. Blades: colorado, gold. Colours: white, chartreuse. Retrieve: …", as the Day plan lists it. */
-function tackleLine(call: TackleCall): string {
+function tackleLine(call: TackleCall, f: Format): string {
   const parts = [
     call.blade && `Blades: ${words(call.blade)}${call.bladeFinish ? `, ${call.bladeFinish}` : ''}`,
-    call.size && `Size: ${call.size}`,
+    call.size && `Size: ${f.quantities(call.size)}`,
     `Colours: ${call.colors.join(', ')}`,
     call.trailer !== undefined && `Trailer: ${call.trailer}`,
     call.trailerHook !== undefined && `Trailer hook: ${call.trailerHook ? 'yes' : 'no'}`,
@@ -92,9 +163,15 @@ function readLine(read: LakeRead | null, day: LakeDay | null, f: Format): string
     read.clarity
       ? `${capitalised(CLARITY_LABELS[read.clarity.class])} (${f.length(read.clarity.secchiM)} visibility)${read.clarity.trend ? `, ${read.clarity.trend.label}` : ''}${read.clarity.stale ? ' (old reading)' : ''}`
       : 'no clarity reading',
-    phase && PHASE_LABELS[phase],
+    phase && phaseLine(phase, read, f),
   ].filter(Boolean)
   return parts.join(' · ')
+}
+
+/** "pre-spawn phase (5-day mean 55 °F)": the mean only where the read's phase is the day's. */
+function phaseLine(phase: LakeDay['phase'], read: LakeRead, f: Format): string {
+  const mean = read.phase?.phase === phase ? ` (5-day mean ${f.temp(read.phase.meanC)})` : ''
+  return `${PHASE_LABELS[phase]} phase${mean}`
 }
 
 function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection {
@@ -105,29 +182,35 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
       name: lake.name,
       planUrl,
       read,
+      verdict: null,
       unavailable: 'No plan for today yet: the lake needs fresh readings and a forecast.',
       windows: [],
       cautions: [],
     }
   }
   const plan = planForBanks(lake.day, lake.banks)
-  const windows = plan.windows.map((w): WindowSection => {
+  const windows = plan.windows.map((w: WindowPlan): WindowSection => {
     const hours = `${f.time(w.start, lake.timeZone)} – ${f.time(w.end, lake.timeZone)}`
+    const none = { banks: [], suggestion: null, tackle: null, sameAs: null }
     if (!w.weather)
       return {
         label: w.label,
         hours,
         wind: 'beyond the forecast',
-        banks: [],
-        suggestion: null,
-        tackle: null,
-        sameAs: null,
+        verdict: null,
+        noGo: null,
+        ...none,
       }
+    const wind = `${f.speed(w.weather.windMs)} ${f.from(w.weather.windFromDeg)}, gusts ${f.speed(w.weather.gustMs)}`
+    const verdict = verdictView(w.cautions, f, { quietGo: true })
+    if (verdict.noGo) return { label: w.label, hours, wind, verdict, noGo: NO_GO_WINDOW, ...none }
     const best = w.tackle[0]
     return {
       label: w.label,
       hours,
-      wind: `${f.speed(w.weather.windMs)} ${f.from(w.weather.windFromDeg)}, gusts ${f.speed(w.weather.gustMs)}`,
+      wind,
+      verdict,
+      noGo: null,
       banks: w.banks.slice(0, TOP_BANKS).map((b) => {
         const strongest = [...b.components].sort((x, y) => y.points - x.points)[0]
         return {
@@ -138,7 +221,7 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
         }
       }),
       suggestion: lake.banks.length ? null : lakeWideSuggestion(w),
-      tackle: best ? { call: tackleLine(best), why: best.why.join(' ') } : null,
+      tackle: best ? { call: tackleLine(best, f), why: f.quantities(best.why.join(' ')) } : null,
       sameAs: null,
     }
   })
@@ -154,15 +237,16 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
     name: lake.name,
     planUrl,
     read,
+    verdict: verdictView(plan.cautions, f),
     unavailable: null,
     windows: shown,
     // The deferral to local authority closes the whole brief, once.
     cautions: plan.cautions
       .filter((c) => c.kind !== 'authority')
       .map((c) => ({
-        level: c.level,
+        level: LEVEL_WORDS[c.level],
         danger: c.level === 'danger' || c.level === 'warning',
-        message: c.message,
+        message: f.caution(c).message,
       })),
   }
 }
@@ -175,7 +259,9 @@ export function composeBrief(input: BriefInput): BriefView {
   const names = lakes.map((l) => l.name)
   return {
     subject: `Morning brief, ${day}: ${names.length <= 2 ? names.join(' and ') : `${names.length} lakes`}`,
-    preheader: lakes.map((l) => `${l.name}: ${l.read}`).join(' | '),
+    preheader: lakes
+      .map((l) => `${l.name}: ${l.verdict ? `${l.verdict.text} · ` : ''}${l.read}`)
+      .join(' | '),
     dateLabel: dateLabel(input.date, 'long'),
     lakes,
     authority: AUTHORITY_CAUTION.message,

@@ -1,6 +1,7 @@
 import { Router } from 'express'
 import {
   ClientInput,
+  GuideProfile,
   IdParams,
   ShareInput,
   ShareParams,
@@ -12,16 +13,30 @@ import { currentUser, requireRole } from '../../http/access'
 import { input, validate } from '../../http/validate'
 import { ImportQuery, singleUpload } from '../../http/upload'
 import type { ClientsService } from './clients.service'
+import type { ProfileService } from './profile.service'
 import type { TripsService } from './trips.service'
 
 /**
  * A guide's clients and trips under /guide (a trip, a client or a link of another guide is a 404),
  * and the read-only page a share link opens, for anyone holding it.
  */
-export function guidesRoutes(clients: ClientsService, trips: TripsService): Router {
+export function guidesRoutes(
+  clients: ClientsService,
+  trips: TripsService,
+  profile: ProfileService,
+): Router {
   const router = Router()
   const guide = (req: Parameters<typeof currentUser>[0]) => currentUser(req).id
   router.use('/guide', requireRole('guide'))
+
+  router
+    .route('/guide/profile')
+    .get(async (req, res) => {
+      res.json(await profile.view(guide(req)))
+    })
+    .put(validate({ body: GuideProfile }), async (req, res) => {
+      res.json(await profile.save(guide(req), input(GuideProfile, req.body)))
+    })
 
   router.get('/guide/clients', async (req, res) => {
     res.json(await clients.list(guide(req)))

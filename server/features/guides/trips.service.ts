@@ -13,6 +13,7 @@ import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.toke
 import type { MailContext } from '../mail/mailer'
 import { mailTemplate } from '../mail/render'
 import type { ClientsRepo } from './clients.repo'
+import type { ProfileRepo } from './profile.repo'
 import type { TripsRepo } from './trips.repo'
 
 type TripRow = NonNullable<Awaited<ReturnType<TripsRepo['get']>>>
@@ -26,6 +27,10 @@ export const TRIP_DAYS_AWAY = 2 * 366
 /** A share link lasts at most this many days. */
 export const SHARE_MAX_DAYS = 366
 
+/** The day chosen for a link: it ends at the start of the next day at the lake. */
+const lastDay = (expiresAt: Date, timeZone: string) =>
+  localDate(new Date(expiresAt.getTime() - 1), timeZone)
+
 const renderShare = mailTemplate<{
   subject: string
   lake: string
@@ -34,11 +39,15 @@ const renderShare = mailTemplate<{
   meetingTime: string
   url: string
   expires: string
+  /** The guide's name and contact from their profile; null without one. */
+  guide: string | null
+  contact: string | null
 }>('trip-share')
 
 export function tripsService(deps: {
   repo: TripsRepo
   clients: ClientsRepo
+  profiles: ProfileRepo
   mail: MailContext
   linkKey: TokenKey
   now?: () => Date
@@ -52,11 +61,15 @@ export function tripsService(deps: {
     return trip
   }
 
-  /** The trip as its client sees it: the cached day for its date with the trip's banks ranked. */
-  async function shared(trip: TripRow): Promise<SharedTrip> {
-    const [banks, cached] = await Promise.all([
+  /**
+   * The trip as its client sees it: the cached day for its date with the trip's banks ranked, who
+   * guides it, and (opened by a link) the last day the link works.
+   */
+  async function shared(trip: TripRow, link?: { expiresAt: Date }): Promise<SharedTrip> {
+    const [banks, cached, guide] = await Promise.all([
       repo.tripBanks(trip.id),
       repo.day(trip.lakeId, trip.date),
+      deps.profiles.get(trip.guideId),
     ])
     const plan = cached
       ? planForBanks(
@@ -75,16 +88,20 @@ export function tripsService(deps: {
       plan,
       unavailable: plan
         ? null
-        : 'The forecast does not reach this day yet; the plan appears here when it does.',
+        : trip.date < localDate(now(), trip.timeZone)
+          ? 'This day has passed, and no plan was kept for it.'
+          : 'The forecast does not reach this day yet; the plan appears here when it does.',
       cautions: plan?.cautions ?? [AUTHORITY_CAUTION],
       computedAt: isoOrNull(cached?.computedAt),
+      guide,
+      linkEndsOn: link ? lastDay(link.expiresAt, trip.timeZone) : null,
     }
   }
 
   const shareUrl = async (shareId: string) =>
     `${mail.origin}/trip/${await signLinkToken(linkKey, { purpose: 'trip-share', subject: shareId })}`
 
-  async function shareViews(tripId: string): Promise<ShareView[]> {
+  async function shareViews(tripId: string, timeZone: string): Promise<ShareView[]> {
     const shares = await repo.shares(tripId)
     const sends = await repo.sends(shares.map((s) => s.id))
     return Promise.all(
@@ -92,6 +109,7 @@ export function tripsService(deps: {
         id: s.id,
         url: await shareUrl(s.id),
         expiresAt: s.expiresAt.toISOString(),
+        expiresOn: lastDay(s.expiresAt, timeZone),
         revokedAt: isoOrNull(s.revokedAt),
         createdAt: s.createdAt.toISOString(),
         sends: sends
@@ -109,7 +127,7 @@ export function tripsService(deps: {
 
   async function view(guideId: string, id: string): Promise<TripView> {
     const trip = await owned(guideId, id)
-    const [client, shares] = await Promise.all([shared(trip), shareViews(trip.id)])
+    const [client, shares] = await Promise.all([shared(trip), shareViews(trip.id, trip.timeZone)])
     return {
       ...client,
       id: trip.id,
@@ -172,13 +190,13 @@ export function tripsService(deps: {
       if (expiresOn > addDays(today, SHARE_MAX_DAYS))
         throw fieldError('expiresOn', 'A link lasts at most a year: choose an earlier day.')
       await repo.createShare(trip.id, localDayBounds(expiresOn, trip.timeZone)[1])
-      return shareViews(trip.id)
+      return shareViews(trip.id, trip.timeZone)
     },
     async revoke(guideId: string, id: string, shareId: string): Promise<ShareView[]> {
       const trip = await owned(guideId, id)
       if (!(await repo.revokeShare(trip.id, shareId, now())))
         throw new HttpError(404, 'not_found', 'No such link on this trip.')
-      return shareViews(trip.id)
+      return shareViews(trip.id, trip.timeZone)
     },
 
     /** E-mails a link to chosen clients of the guide; each send is recorded, sent or failed. */
@@ -200,14 +218,18 @@ export function tripsService(deps: {
           clientIds: 'Choose from your own clients.',
         })
       const url = await shareUrl(link.id)
+      const guide = await deps.profiles.get(guideId)
+      const contact = guide && [guide.phone, guide.email].filter(Boolean).join(' or ')
       const message = renderShare({
+        guide: guide?.name ?? null,
+        contact: contact || null,
         subject: `Your fishing trip on ${trip.lakeName}, ${dateLabel(trip.date)}`,
         lake: trip.lakeName,
         day: dateLabel(trip.date, 'long'),
         meetingPoint: trip.meetingPoint,
         meetingTime: trip.meetingTime.slice(0, 5),
         url,
-        expires: dateLabel(addDays(link.expiresAt.toISOString().slice(0, 10), -1), 'long'),
+        expires: dateLabel(lastDay(link.expiresAt, trip.timeZone), 'long'),
       })
       const outcomes = await Promise.all(
         chosen.map(async (c) => {
@@ -232,7 +254,7 @@ export function tripsService(deps: {
           sentAt: now(),
         })),
       )
-      return shareViews(trip.id)
+      return shareViews(trip.id, trip.timeZone)
     },
 
     /** What a share link opens: 404 for a link that is not ours, 410 once it is revoked or expired. */
@@ -250,7 +272,7 @@ export function tripsService(deps: {
         )
       const trip = await repo.get(share.tripId, null)
       if (!trip) throw new HttpError(410, 'link_revoked', 'This trip has been cancelled.')
-      return shared(trip)
+      return shared(trip, share)
     },
   }
 }
