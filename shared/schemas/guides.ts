@@ -26,9 +26,7 @@ export type ClientInput = z.infer<typeof ClientInput>
 
 /** How a guide appears to clients on a shared trip: a name, and a phone or an address or both. */
 export const GuideProfile = z.object({
-  name: z
-    .string({ error: 'Give the name your clients know you by.' })
-    .trim()
+  name: PlainText({ error: 'Give the name your clients know you by.' })
     .min(1, 'Give the name your clients know you by.')
     .max(80, 'Keep the name under 80 characters.')
     .regex(/^[^<>]*$/, 'Leave out < and >.'),
