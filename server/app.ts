@@ -27,6 +27,9 @@ import { clientsService } from './features/guides/clients.service'
 import { guidesRoutes } from './features/guides/guides.routes'
 import { tripsRepo } from './features/guides/trips.repo'
 import { tripsService } from './features/guides/trips.service'
+import { journalRepo } from './features/journal/journal.repo'
+import { journalRoutes } from './features/journal/journal.routes'
+import { journalService } from './features/journal/journal.service'
 import { lakesDeskRepo } from './features/desk/lakes-desk.repo'
 import { lakesDeskRoutes } from './features/desk/lakes-desk.routes'
 import { lakesDeskService } from './features/desk/lakes-desk.service'
@@ -175,6 +178,7 @@ export function createApp(deps: AppDeps): express.Express {
     ),
   )
   api.use(auditRoutes(auditRepo(deps.db)))
+  api.use(journalRoutes(journalService({ repo: journalRepo(deps.db) })))
   api.use(notFound)
   app.use('/api', api)
 

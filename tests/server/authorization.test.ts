@@ -91,6 +91,11 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'PUT /admin/lakes/:slug': admins,
   'POST /admin/lakes/:slug/shoreline': admins,
   'GET /admin/lakes/:slug/recompute': admins,
+  'GET /journal/catches': signedIn,
+  'POST /journal/catches': signedIn,
+  'GET /journal/catches/:id': bankOwner,
+  'PUT /journal/catches/:id': bankOwner,
+  'DELETE /journal/catches/:id': bankOwner,
 }
 
 type Layer = {
@@ -168,6 +173,16 @@ describe('the authorization matrix', () => {
           .expect(201)
       ).body.items[0]
       const token = new URL(share.url).pathname.split('/').pop()!
+      const catchBody = {
+        lakeSlug: lake!.slug,
+        caughtAt: new Date().toISOString(),
+        species: 'largemouth',
+        lengthM: 0.4,
+        released: true,
+        lure: { family: 'spinnerbait' },
+      }
+      const caught = (await agents.guide.post('/api/journal/catches').send(catchBody).expect(201))
+        .body.id as string
 
       const concrete = (path: string) =>
         `/api${path}`
@@ -179,13 +194,15 @@ describe('the authorization matrix', () => {
             ':id',
             path.startsWith('/lakes/')
               ? bank
-              : path.startsWith('/guide/clients')
-                ? client
-                : path.startsWith('/guide/trips')
-                  ? trip
-                  : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
-                    ? '1'
-                    : targetId,
+              : path.startsWith('/journal/catches')
+                ? caught
+                : path.startsWith('/guide/clients')
+                  ? client
+                  : path.startsWith('/guide/trips')
+                    ? trip
+                    : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
+                      ? '1'
+                      : targetId,
           )
       /** Valid bodies where a route checks ownership after the body: otherwise validation answers first. */
       const bodies: Record<string, object> = {
@@ -195,6 +212,7 @@ describe('the authorization matrix', () => {
         'POST /guide/trips/:id/shares': { expiresOn: '2099-01-01' },
         'POST /guide/trips/:id/shares/:shareId/send': { clientIds: [client] },
         'PATCH /admin/users/:id': { role: 'angler' },
+        'PUT /journal/catches/:id': catchBody,
       }
       const body = (method: string, path: string) => bodies[`${method} ${path}`] ?? {}
 

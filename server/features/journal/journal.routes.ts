@@ -1,0 +1,32 @@
+import { Router } from 'express'
+import { CatchInput, CatchListQuery, CatchParams } from '../../../shared/schemas/journal'
+import { currentUser, requireSignIn } from '../../http/access'
+import { input, validate } from '../../http/validate'
+import type { JournalService } from './journal.service'
+
+/** An angler's own catch journal; another angler's catch is a 404, admins' included. */
+export function journalRoutes(journal: JournalService): Router {
+  const router = Router()
+  router
+    .route('/journal/catches')
+    .get(requireSignIn, validate({ query: CatchListQuery }), async (req, res) => {
+      res.json(await journal.list(currentUser(req).id, input(CatchListQuery, req.query)))
+    })
+    .post(requireSignIn, validate({ body: CatchInput }), async (req, res) => {
+      res.status(201).json(await journal.create(currentUser(req), input(CatchInput, req.body)))
+    })
+  router
+    .route('/journal/catches/:id')
+    .get(requireSignIn, validate({ params: CatchParams }), async (req, res) => {
+      res.json(await journal.get(currentUser(req).id, input(CatchParams, req.params).id))
+    })
+    .put(requireSignIn, validate({ params: CatchParams, body: CatchInput }), async (req, res) => {
+      const { id } = input(CatchParams, req.params)
+      res.json(await journal.update(currentUser(req), id, input(CatchInput, req.body)))
+    })
+    .delete(requireSignIn, validate({ params: CatchParams }), async (req, res) => {
+      await journal.remove(currentUser(req).id, input(CatchParams, req.params).id)
+      res.status(204).end()
+    })
+  return router
+}

@@ -1,0 +1,158 @@
+import { roleAllows } from '../../../shared/roles'
+import type { User } from '../../../shared/schemas/auth'
+import type {
+  CatchConditions,
+  CatchInput,
+  CatchList,
+  CatchListQuery,
+  CatchView,
+  PhotoView,
+} from '../../../shared/schemas/journal'
+import { HttpError } from '../../http/errors'
+import type { CatchListRow, CatchValues, JournalRepo } from './journal.repo'
+import type { LakeRow } from '../lakes/lake-read.repo'
+
+/** A catch logged this far ahead of the server's clock is a wrong clock or a typo. */
+const FUTURE_SLACK_MS = 10 * 60_000
+const EARLIEST = Date.parse('1990-01-01T00:00:00Z')
+
+const invalid = (field: string, message: string) =>
+  new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
+const noCatch = () => new HttpError(404, 'not_found', 'No such catch in your journal.')
+
+/** Where a photo's copies are served from, for its angler or for a trip's clients. */
+export type PhotoUrl = (photoId: string, size: 'display' | 'thumb') => string
+export const ownPhotoUrl: PhotoUrl = (id, size) => `/api/journal/photos/${id}/${size}`
+
+export function toCatchView(row: CatchListRow, photoUrl: PhotoUrl = ownPhotoUrl): CatchView {
+  const c = row.catch
+  const photo: PhotoView | null = row.photo && {
+    id: row.photo.id,
+    displayUrl: photoUrl(row.photo.id, 'display'),
+    thumbUrl: photoUrl(row.photo.id, 'thumb'),
+    width: row.photo.width,
+    height: row.photo.height,
+  }
+  return {
+    id: c.id,
+    lake: { slug: row.lakeSlug, name: row.lakeName, timeZone: row.timeZone },
+    caughtAt: c.caughtAt.toISOString(),
+    species: c.species,
+    lengthM: c.lengthM,
+    weightKg: c.weightKg,
+    released: c.released,
+    lure: c.lure,
+    bank: c.bankId && row.bankName ? { id: c.bankId, name: row.bankName } : null,
+    position: c.position,
+    note: c.note,
+    tripId: c.tripId,
+    photo,
+    conditions: c.conditions,
+    createdAt: c.createdAt.toISOString(),
+  }
+}
+
+export interface JournalDeps {
+  repo: JournalRepo
+  /** The conditions at a time and place, from stored readings and weather; null when none are stored. */
+  conditionsAt?: (
+    lake: LakeRow,
+    at: Date,
+    bank: { exposure: NonNullable<Awaited<ReturnType<JournalRepo['ownBank']>>>['exposure'] } | null,
+  ) => Promise<CatchConditions | null>
+  now?: () => Date
+}
+
+export function journalService(deps: JournalDeps) {
+  const { repo } = deps
+  const now = () => deps.now?.() ?? new Date()
+
+  /** Checks what a catch names (lake, bank, trip, photo) and works out its conditions. */
+  async function values(
+    user: User,
+    input: CatchInput,
+    exceptCatchId?: string,
+  ): Promise<CatchValues> {
+    const lake = await repo.lakeBySlug(input.lakeSlug)
+    if (!lake) throw invalid('lakeSlug', 'No such lake.')
+    const caughtAt = new Date(input.caughtAt)
+    if (caughtAt.getTime() > now().getTime() + FUTURE_SLACK_MS)
+      throw invalid('caughtAt', 'That time has not come yet: check the date and time.')
+    if (caughtAt.getTime() < EARLIEST) throw invalid('caughtAt', 'Give a date after 1990.')
+    const bank = input.bankId ? await repo.ownBank(user.id, lake.id, input.bankId) : null
+    if (input.bankId && !bank) throw invalid('bankId', 'Choose one of your banks on this lake.')
+    if (input.tripId) {
+      const trip = roleAllows(user.role, 'guide') && (await repo.ownTrip(user.id, input.tripId))
+      if (!trip) throw invalid('tripId', 'Not one of your trips.')
+      if (trip.lakeId !== lake.id) throw invalid('tripId', 'That trip is on another lake.')
+    }
+    if (input.photoId) {
+      const photo = await repo.ownPhoto(user.id, input.photoId)
+      if (!photo || (photo.catchId && photo.catchId !== exceptCatchId))
+        throw invalid('photoId', 'Upload the photo again.')
+    }
+    const conditions = (await deps.conditionsAt?.(lake, caughtAt, bank ?? null)) ?? null
+    return {
+      lakeId: lake.id,
+      tripId: input.tripId,
+      bankId: input.bankId,
+      caughtAt,
+      species: input.species,
+      lengthM: input.lengthM,
+      weightKg: input.weightKg,
+      released: input.released,
+      lure: input.lure,
+      position: input.position,
+      note: input.note,
+      conditions,
+    }
+  }
+
+  async function view(userId: string, id: string) {
+    const row = await repo.get(userId, id)
+    if (!row) throw noCatch()
+    return toCatchView(row)
+  }
+
+  return {
+    async list(userId: string, query: CatchListQuery): Promise<CatchList> {
+      const lake = query.lake ? await repo.lakeBySlug(query.lake) : undefined
+      if (query.lake && !lake) throw new HttpError(404, 'not_found', 'No such lake.')
+      const { rows, total } = await repo.list(userId, lake?.id, query.page, query.pageSize)
+      return {
+        items: rows.map((r) => toCatchView(r)),
+        total,
+        page: query.page,
+        pageSize: query.pageSize,
+      }
+    },
+
+    get: view,
+
+    async create(user: User, input: CatchInput): Promise<CatchView> {
+      const row = await repo.insert(user.id, await values(user, input), input.photoId)
+      if (!row) throw invalid('photoId', 'Upload the photo again.')
+      return view(user.id, row.id)
+    },
+
+    async update(user: User, id: string, input: CatchInput): Promise<CatchView> {
+      if (!(await repo.get(user.id, id))) throw noCatch()
+      // A photo is added or kept on create only; an edit leaves it as it is.
+      const row = await repo.update(
+        user.id,
+        id,
+        await values(user, { ...input, photoId: null }, id),
+      )
+      if (!row) throw noCatch()
+      return view(user.id, id)
+    },
+
+    /** Deletes the catch; the keys of its photo's copies come back, for the store to drop. */
+    async remove(userId: string, id: string) {
+      const photos = await repo.remove(userId, id)
+      if (!photos) throw noCatch()
+      return photos
+    },
+  }
+}
+export type JournalService = ReturnType<typeof journalService>
