@@ -27,6 +27,7 @@ import { clientsService } from './features/guides/clients.service'
 import { guidesRoutes } from './features/guides/guides.routes'
 import { tripsRepo } from './features/guides/trips.repo'
 import { tripsService } from './features/guides/trips.service'
+import { catchConditionsFor } from './features/journal/catch-conditions'
 import { journalRepo } from './features/journal/journal.repo'
 import { journalRoutes } from './features/journal/journal.routes'
 import { journalService } from './features/journal/journal.service'
@@ -178,7 +179,11 @@ export function createApp(deps: AppDeps): express.Express {
     ),
   )
   api.use(auditRoutes(auditRepo(deps.db)))
-  api.use(journalRoutes(journalService({ repo: journalRepo(deps.db) })))
+  api.use(
+    journalRoutes(
+      journalService({ repo: journalRepo(deps.db), conditionsAt: catchConditionsFor(deps.db) }),
+    ),
+  )
   api.use(notFound)
   app.use('/api', api)
 
