@@ -161,17 +161,13 @@ export function createApp(deps: AppDeps): express.Express {
       { limiter, mailbox: deps.mailbox },
     ),
   )
-  api.use(
-    guidesRoutes(
-      clientsService(clientsRepo(deps.db)),
-      tripsService({
-        repo: tripsRepo(deps.db),
-        clients: clientsRepo(deps.db),
-        mail: deps.mail,
-        linkKey,
-      }),
-    ),
-  )
+  const trips = tripsService({
+    repo: tripsRepo(deps.db),
+    clients: clientsRepo(deps.db),
+    mail: deps.mail,
+    linkKey,
+  })
+  api.use(guidesRoutes(clientsService(clientsRepo(deps.db)), trips))
   api.use(quarantineRoutes(quarantineService(quarantineRepo(deps.db))))
   api.use(
     lakesDeskRoutes(
@@ -181,7 +177,11 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(auditRoutes(auditRepo(deps.db)))
   api.use(
     journalRoutes(
-      journalService({ repo: journalRepo(deps.db), conditionsAt: catchConditionsFor(deps.db) }),
+      journalService({
+        repo: journalRepo(deps.db),
+        conditionsAt: catchConditionsFor(deps.db),
+        sharedTrip: trips.sharedTrip,
+      }),
     ),
   )
   api.use(notFound)

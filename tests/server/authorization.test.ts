@@ -96,6 +96,8 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'GET /journal/catches/:id': bankOwner,
   'PUT /journal/catches/:id': bankOwner,
   'DELETE /journal/catches/:id': bankOwner,
+  'GET /guide/trips/:id/catches': guideOwns,
+  'GET /shared/trips/:token/catches': anyone,
 }
 
 type Layer = {

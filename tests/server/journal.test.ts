@@ -1,4 +1,5 @@
 import { count, eq } from 'drizzle-orm'
+import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Position } from '../../shared/geo/types'
 import { CatchList, CatchView } from '../../shared/schemas/journal'
@@ -127,5 +128,70 @@ describe('the catch journal', () => {
       .expect(201)
     expect(made.body.bank).toEqual({ id: bank.id, name: 'Journal point' })
     expect(made.body.position).toEqual(shore[6])
+  })
+})
+
+describe("catches on a guide's trip", () => {
+  it("are the guide's, shown on the trip, and to its clients through the share link only", async () => {
+    const guide = await signedInAgent(app, ctx.db, 'guide@trips.journal.test', 'guide')
+    const other = await signedInAgent(app, ctx.db, 'other@trips.journal.test', 'guide')
+    const admin = await signedInAgent(app, ctx.db, 'admin@trips.journal.test', 'admin')
+    const bank = (
+      await guide
+        .post('/api/lakes/quillmere/banks')
+        .send({ name: 'Trip point', points: [shore[5], shore[8]], cover: ['rock'] })
+        .expect(201)
+    ).body
+    const today = new Date().toISOString().slice(0, 10)
+    const trip = (
+      await guide
+        .post('/api/guide/trips')
+        .send({
+          lakeSlug: 'quillmere',
+          date: today,
+          meetingPoint: 'Ramp',
+          meetingTime: '06:00',
+          bankIds: [bank.id],
+        })
+        .expect(201)
+    ).body
+    const logged = (
+      await guide
+        .post('/api/journal/catches')
+        .send(aCatch({ tripId: trip.id, position: shore[6] }))
+        .expect(201)
+    ).body
+    expect(logged.tripId).toBe(trip.id)
+
+    // Another guide cannot log on it, nor log one on another lake.
+    await other
+      .post('/api/journal/catches')
+      .send(aCatch({ tripId: trip.id }))
+      .expect(400)
+    const wrongLake = await guide
+      .post('/api/journal/catches')
+      .send(aCatch({ tripId: trip.id, lakeSlug: 'vessandra' }))
+      .expect(400)
+    expect(wrongLake.body.error.fields.tripId).toMatch(/another lake/)
+
+    const onTrip = await guide.get(`/api/guide/trips/${trip.id}/catches`).expect(200)
+    expect(onTrip.body.items.map((c: { id: string }) => c.id)).toEqual([logged.id])
+    await other.get(`/api/guide/trips/${trip.id}/catches`).expect(404)
+    await admin.get(`/api/guide/trips/${trip.id}/catches`).expect(404)
+
+    const share = (
+      await guide
+        .post(`/api/guide/trips/${trip.id}/shares`)
+        .send({ expiresOn: '2099-01-01' })
+        .expect(201)
+    ).body.items[0]
+    const token = new URL(share.url).pathname.split('/').pop()!
+    const client = await request(app).get(`/api/shared/trips/${token}/catches`).expect(200)
+    expect(client.body.items).toHaveLength(1)
+    expect(client.body.items[0]).toMatchObject({ id: logged.id, position: null })
+
+    await guide.delete(`/api/guide/trips/${trip.id}/shares/${share.id}`).expect(200)
+    await request(app).get(`/api/shared/trips/${token}/catches`).expect(410)
+    await request(app).get('/api/shared/trips/not-a-real-token-at-all/catches').expect(404)
   })
 })

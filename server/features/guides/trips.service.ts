@@ -45,6 +45,24 @@ export function tripsService(deps: {
     return trip
   }
 
+  /** The trip a share link names, while the link holds (the same 404 and 410 as `openShared`). */
+  async function sharedTrip(token: string): Promise<TripRow> {
+    const link = await verifyLinkToken(linkKey, 'trip-share', token)
+    const share = link && (await repo.share(link.subject))
+    if (!share) throw new HttpError(404, 'not_found', 'This link is not one of ours.')
+    if (share.revokedAt)
+      throw new HttpError(410, 'link_revoked', 'Your guide has withdrawn this link.')
+    if (share.expiresAt <= now())
+      throw new HttpError(
+        410,
+        'link_expired',
+        'This link has expired. Ask your guide for a new one.',
+      )
+    const trip = await repo.get(share.tripId, null)
+    if (!trip) throw new HttpError(410, 'link_revoked', 'This trip has been cancelled.')
+    return trip
+  }
+
   /** The trip as its client sees it: the cached day for its date with the trip's banks ranked. */
   async function shared(trip: TripRow): Promise<SharedTrip> {
     const [banks, cached] = await Promise.all([
@@ -229,21 +247,10 @@ export function tripsService(deps: {
 
     /** What a share link opens: 404 for a link that is not ours, 410 once it is revoked or expired. */
     async openShared(token: string): Promise<SharedTrip> {
-      const link = await verifyLinkToken(linkKey, 'trip-share', token)
-      const share = link && (await repo.share(link.subject))
-      if (!share) throw new HttpError(404, 'not_found', 'This link is not one of ours.')
-      if (share.revokedAt)
-        throw new HttpError(410, 'link_revoked', 'Your guide has withdrawn this link.')
-      if (share.expiresAt <= now())
-        throw new HttpError(
-          410,
-          'link_expired',
-          'This link has expired. Ask your guide for a new one.',
-        )
-      const trip = await repo.get(share.tripId, null)
-      if (!trip) throw new HttpError(410, 'link_revoked', 'This trip has been cancelled.')
-      return shared(trip)
+      return shared(await sharedTrip(token))
     },
+
+    sharedTrip,
   }
 }
 export type TripsService = ReturnType<typeof tripsService>

@@ -1,6 +1,7 @@
 import { Router } from 'express'
 import { CatchInput, CatchListQuery, CatchParams } from '../../../shared/schemas/journal'
-import { currentUser, requireSignIn } from '../../http/access'
+import { IdParams, ShareToken } from '../../../shared/schemas/guides'
+import { currentUser, requireRole, requireSignIn } from '../../http/access'
 import { input, validate } from '../../http/validate'
 import type { JournalService } from './journal.service'
 
@@ -28,5 +29,19 @@ export function journalRoutes(journal: JournalService): Router {
       await journal.remove(currentUser(req).id, input(CatchParams, req.params).id)
       res.status(204).end()
     })
+
+  // A guide's trip: the catches logged on it, for the guide and, through the link, its clients.
+  router.get(
+    '/guide/trips/:id/catches',
+    requireRole('guide'),
+    validate({ params: IdParams }),
+    async (req, res) => {
+      res.json(await journal.tripCatches(currentUser(req).id, input(IdParams, req.params).id))
+    },
+  )
+  router.get('/shared/trips/:token/catches', validate({ params: ShareToken }), async (req, res) => {
+    res.setHeader('cache-control', 'no-store')
+    res.json(await journal.sharedCatches(input(ShareToken, req.params).token))
+  })
   return router
 }

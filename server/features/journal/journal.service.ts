@@ -60,6 +60,8 @@ export interface JournalDeps {
     at: Date,
     bank: { exposure: NonNullable<Awaited<ReturnType<JournalRepo['ownBank']>>>['exposure'] } | null,
   ) => Promise<CatchConditions | null>
+  /** The trip a client's share link opens (404 or 410 once it no longer holds). */
+  sharedTrip?: (token: string) => Promise<{ id: string }>
   now?: () => Date
 }
 
@@ -145,6 +147,29 @@ export function journalService(deps: JournalDeps) {
       )
       if (!row) throw noCatch()
       return view(user.id, id)
+    },
+
+    /** A guide's catches on one of their trips; another guide's trip is a 404. */
+    async tripCatches(guideId: string, tripId: string): Promise<{ items: CatchView[] }> {
+      if (!(await repo.ownTrip(guideId, tripId)))
+        throw new HttpError(404, 'not_found', 'No such trip.')
+      return { items: (await repo.ofTrip(tripId)).map((r) => toCatchView(r)) }
+    },
+
+    /**
+     * A trip's catches as its clients see them through the share link: photos through the same
+     * link, and no positions (where a guide's fish came from stays the guide's).
+     */
+    async sharedCatches(token: string): Promise<{ items: CatchView[] }> {
+      if (!deps.sharedTrip) throw new HttpError(404, 'not_found', 'This link is not one of ours.')
+      const trip = await deps.sharedTrip(token)
+      const url: PhotoUrl = (id, size) => `/api/shared/trips/${token}/photos/${id}/${size}`
+      return {
+        items: (await repo.ofTrip(trip.id)).map((r) => ({
+          ...toCatchView(r, url),
+          position: null,
+        })),
+      }
     },
 
     /** Deletes the catch; the keys of its photo's copies come back, for the store to drop. */
