@@ -30,6 +30,7 @@ import { tripsService } from './features/guides/trips.service'
 import { catchConditionsFor } from './features/journal/catch-conditions'
 import { journalRepo } from './features/journal/journal.repo'
 import { journalRoutes } from './features/journal/journal.routes'
+import type { PhotoStore } from './features/journal/photo-store'
 import { journalService } from './features/journal/journal.service'
 import { lakesDeskRepo } from './features/desk/lakes-desk.repo'
 import { lakesDeskRoutes } from './features/desk/lakes-desk.routes'
@@ -80,6 +81,8 @@ export interface AppDeps {
    * memory until something they were made from changes. Without them, from the database each time.
    */
   changes?: Changes
+  /** Object storage for catch photos; without it, photo uploads answer 503. */
+  photos?: PhotoStore
   /** Sign-in, sign-up and verification-mail attempts per window per client address. */
   authRateLimit?: { windowMs: number; limit: number }
 }
@@ -181,6 +184,7 @@ export function createApp(deps: AppDeps): express.Express {
         repo: journalRepo(deps.db),
         conditionsAt: catchConditionsFor(deps.db),
         sharedTrip: trips.sharedTrip,
+        photos: deps.photos,
       }),
     ),
   )

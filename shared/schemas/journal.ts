@@ -155,7 +155,17 @@ export const CatchListQuery = z.object({
 })
 export type CatchListQuery = z.infer<typeof CatchListQuery>
 
+export const PhotoUploadQuery = z.object({
+  /** The lake the angler is logging on: its time zone reads the camera's clock. */
+  lake: z.string().max(80).optional(),
+})
+
 export const CatchParams = z.object({ id: z.uuid('Not one of your catches.') })
+export const SharedPhotoParams = z.object({
+  token: z.string().min(16).max(2000),
+  id: z.uuid('Not a photo of this trip.'),
+  size: z.enum(['display', 'thumb'], { error: 'Ask for display or thumb.' }),
+})
 export const PhotoParams = z.object({
   id: z.uuid('Not one of your photos.'),
   size: z.enum(['display', 'thumb'], { error: 'Ask for display or thumb.' }),

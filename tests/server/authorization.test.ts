@@ -98,6 +98,9 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'DELETE /journal/catches/:id': bankOwner,
   'GET /guide/trips/:id/catches': guideOwns,
   'GET /shared/trips/:token/catches': anyone,
+  'POST /journal/photos': signedIn,
+  'GET /journal/photos/:id/:size': signedIn,
+  'GET /shared/trips/:token/photos/:id/:size': anyone,
 }
 
 type Layer = {
@@ -192,6 +195,7 @@ describe('the authorization matrix', () => {
           .replace(':date', today)
           .replace(':token', token)
           .replace(':shareId', share.id)
+          .replace(':size', 'thumb')
           .replace(
             ':id',
             path.startsWith('/lakes/')

@@ -45,6 +45,7 @@ export function journalRepo(db: Db) {
           points: banks.points,
           lakeId: banks.lakeId,
           lakeSlug: lakes.slug,
+          timeZone: lakes.timeZone,
         })
         .from(banks)
         .innerJoin(lakes, eq(lakes.id, banks.lakeId))

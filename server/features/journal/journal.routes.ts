@@ -1,9 +1,27 @@
-import { Router } from 'express'
-import { CatchInput, CatchListQuery, CatchParams } from '../../../shared/schemas/journal'
+import { Router, type Response } from 'express'
+import {
+  CatchInput,
+  CatchListQuery,
+  CatchParams,
+  PhotoParams,
+  PhotoUploadQuery,
+  SharedPhotoParams,
+} from '../../../shared/schemas/journal'
 import { IdParams, ShareToken } from '../../../shared/schemas/guides'
 import { currentUser, requireRole, requireSignIn } from '../../http/access'
+import { singleUpload } from '../../http/upload'
 import { input, validate } from '../../http/validate'
 import type { JournalService } from './journal.service'
+
+/** A phone's photo is 2-8 MB; past this it is not a photo of a fish. */
+export const MAX_PHOTO_BYTES = 12 * 1024 * 1024
+const PHOTO_TYPES = ['.jpg', '.jpeg', '.png', '.webp']
+
+function sendPhoto(res: Response, data: Buffer) {
+  // A photo id's copies never change: the browser may keep them, but only for this user.
+  res.setHeader('cache-control', 'private, max-age=604800, immutable')
+  res.type('image/jpeg').send(data)
+}
 
 /** An angler's own catch journal; another angler's catch is a 404, admins' included. */
 export function journalRoutes(journal: JournalService): Router {
@@ -30,6 +48,26 @@ export function journalRoutes(journal: JournalService): Router {
       res.status(204).end()
     })
 
+  router.post(
+    '/journal/photos',
+    requireSignIn,
+    singleUpload({ maxBytes: MAX_PHOTO_BYTES, extensions: PHOTO_TYPES }),
+    validate({ query: PhotoUploadQuery }),
+    async (req, res) => {
+      const { lake } = input(PhotoUploadQuery, req.query)
+      res.status(201).json(await journal.uploadPhoto(currentUser(req).id, req.file!.buffer, lake))
+    },
+  )
+  router.get(
+    '/journal/photos/:id/:size',
+    requireSignIn,
+    validate({ params: PhotoParams }),
+    async (req, res) => {
+      const { id, size } = input(PhotoParams, req.params)
+      sendPhoto(res, await journal.photo(currentUser(req).id, id, size))
+    },
+  )
+
   // A guide's trip: the catches logged on it, for the guide and, through the link, its clients.
   router.get(
     '/guide/trips/:id/catches',
@@ -43,5 +81,13 @@ export function journalRoutes(journal: JournalService): Router {
     res.setHeader('cache-control', 'no-store')
     res.json(await journal.sharedCatches(input(ShareToken, req.params).token))
   })
+  router.get(
+    '/shared/trips/:token/photos/:id/:size',
+    validate({ params: SharedPhotoParams }),
+    async (req, res) => {
+      const { token, id, size } = input(SharedPhotoParams, req.params)
+      sendPhoto(res, await journal.sharedPhoto(token, id, size))
+    },
+  )
   return router
 }

@@ -1,3 +1,5 @@
+import { randomUUID } from 'node:crypto'
+import { nearestBank } from '../../../shared/geo/nearest'
 import { roleAllows } from '../../../shared/roles'
 import type { User } from '../../../shared/schemas/auth'
 import type {
@@ -6,8 +8,11 @@ import type {
   CatchList,
   CatchListQuery,
   CatchView,
+  PhotoUpload,
   PhotoView,
 } from '../../../shared/schemas/journal'
+import { processPhoto, takenInstant } from './photo-process'
+import type { PhotoStore } from './photo-store'
 import { HttpError } from '../../http/errors'
 import type { CatchListRow, CatchValues, JournalRepo } from './journal.repo'
 import type { LakeRow } from '../lakes/lake-read.repo'
@@ -60,6 +65,8 @@ export interface JournalDeps {
     at: Date,
     bank: { exposure: NonNullable<Awaited<ReturnType<JournalRepo['ownBank']>>>['exposure'] } | null,
   ) => Promise<CatchConditions | null>
+  /** Object storage for photos; without it, photo uploads answer 503. */
+  photos?: PhotoStore
   /** The trip a client's share link opens (404 or 410 once it no longer holds). */
   sharedTrip?: (token: string) => Promise<{ id: string }>
   now?: () => Date
@@ -109,6 +116,15 @@ export function journalService(deps: JournalDeps) {
       conditions,
     }
   }
+
+  function store(): PhotoStore {
+    if (!deps.photos)
+      throw new HttpError(503, 'photos_unavailable', 'Photos cannot be stored here just now.')
+    return deps.photos
+  }
+  const noPhoto = () => new HttpError(404, 'not_found', 'No such photo.')
+  const keyOf = (photo: { displayKey: string; thumbKey: string }, size: 'display' | 'thumb') =>
+    size === 'display' ? photo.displayKey : photo.thumbKey
 
   async function view(userId: string, id: string) {
     const row = await repo.get(userId, id)
@@ -172,11 +188,72 @@ export function journalService(deps: JournalDeps) {
       }
     },
 
-    /** Deletes the catch; the keys of its photo's copies come back, for the store to drop. */
+    /** Deletes the catch, then its photo's stored copies. */
     async remove(userId: string, id: string) {
       const photos = await repo.remove(userId, id)
       if (!photos) throw noCatch()
-      return photos
+      if (photos.length) await store().remove(photos.flatMap((p) => [p.displayKey, p.thumbKey]))
+    },
+
+    /**
+     * Stores a photo's copies (display and thumbnail, no location in either) before its catch is
+     * saved, and answers what its EXIF said: the time (read in the lake's zone, or the nearest
+     * bank's) and the nearest of the angler's banks to where it was taken. A file that is not an
+     * image is refused before anything is stored.
+     */
+    async uploadPhoto(userId: string, data: Buffer, lakeSlug?: string): Promise<PhotoUpload> {
+      const photos = store()
+      const lake = lakeSlug ? await repo.lakeBySlug(lakeSlug) : undefined
+      if (lakeSlug && !lake) throw invalid('lake', 'No such lake.')
+      const processed = await processPhoto(data)
+      const near = processed.position
+        ? nearestBank(processed.position, await repo.banks(userId, lake?.id))
+        : null
+      const takenAt = takenInstant(processed.taken, lake?.timeZone ?? near?.timeZone ?? null)
+      const id = randomUUID()
+      const displayKey = `catches/${userId}/${id}/display.jpg`
+      const thumbKey = `catches/${userId}/${id}/thumb.jpg`
+      await photos.put(displayKey, processed.display.data, 'image/jpeg')
+      await photos.put(thumbKey, processed.thumb.data, 'image/jpeg')
+      try {
+        await repo.insertPhoto({
+          id,
+          userId,
+          displayKey,
+          thumbKey,
+          width: processed.display.width,
+          height: processed.display.height,
+          bytes: processed.display.data.length + processed.thumb.data.length,
+          takenAt,
+        })
+      } catch (err) {
+        await photos.remove([displayKey, thumbKey])
+        throw err
+      }
+      return {
+        id,
+        displayUrl: ownPhotoUrl(id, 'display'),
+        thumbUrl: ownPhotoUrl(id, 'thumb'),
+        width: processed.display.width,
+        height: processed.display.height,
+        takenAt: takenAt?.toISOString() ?? null,
+        position: processed.position,
+        nearestBank: near && { id: near.id, name: near.name, lakeSlug: near.lakeSlug },
+      }
+    },
+
+    async photo(userId: string, id: string, size: 'display' | 'thumb'): Promise<Buffer> {
+      const photo = await repo.ownPhoto(userId, id)
+      if (!photo) throw noPhoto()
+      return store().get(keyOf(photo, size))
+    },
+
+    async sharedPhoto(token: string, id: string, size: 'display' | 'thumb'): Promise<Buffer> {
+      if (!deps.sharedTrip) throw noPhoto()
+      const trip = await deps.sharedTrip(token)
+      const photo = await repo.photoOfTrip(trip.id, id)
+      if (!photo) throw noPhoto()
+      return store().get(keyOf(photo, size))
     },
   }
 }
