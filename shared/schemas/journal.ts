@@ -160,6 +160,32 @@ export const PhotoUploadQuery = z.object({
   lake: z.string().max(80).optional(),
 })
 
+export const InsightsQuery = z.object({
+  lake: z.string().max(80).optional(),
+  season: z.enum(['spring', 'summer', 'fall', 'winter'], { error: 'Choose a season.' }).optional(),
+})
+export type InsightsQuery = z.infer<typeof InsightsQuery>
+
+const InsightGroup = z.object({
+  key: z.string(),
+  count: z.number().int(),
+  share: z.number(),
+  topLure: z.object({ family: z.string(), count: z.number().int() }).nullable(),
+  enough: z.boolean(),
+})
+export const Insights = z.object({
+  total: z.number().int(),
+  minSample: z.number().int(),
+  dimensions: z.array(
+    z.object({
+      dimension: z.enum(['clarity', 'water', 'phase', 'bankExposure', 'sky', 'timeOfDay']),
+      known: z.number().int(),
+      groups: z.array(InsightGroup),
+    }),
+  ),
+})
+export type Insights = z.infer<typeof Insights>
+
 export const CatchParams = z.object({ id: z.uuid('Not one of your catches.') })
 export const SharedPhotoParams = z.object({
   token: z.string().min(16).max(2000),

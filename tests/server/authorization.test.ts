@@ -99,6 +99,7 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'GET /guide/trips/:id/catches': guideOwns,
   'GET /shared/trips/:token/catches': anyone,
   'POST /journal/photos': signedIn,
+  'GET /journal/insights': signedIn,
   'GET /journal/photos/:id/:size': signedIn,
   'GET /shared/trips/:token/photos/:id/:size': anyone,
 }

@@ -2,7 +2,9 @@ import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { bankExposure } from '../../shared/conditions/exposure'
 import type { Position } from '../../shared/geo/types'
-import { CatchView } from '../../shared/schemas/journal'
+import { seasonOf } from '../../shared/journal/insights'
+import { CatchView, Insights } from '../../shared/schemas/journal'
+import { localDate } from '../../shared/time'
 import { lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
@@ -113,5 +115,39 @@ describe('conditions attached to a catch', () => {
       timeOfDay(new Date(noonLocal.getTime() + (h - 12) * 3_600_000), lake),
     )
     expect(new Set(results)).toEqual(new Set(['night', 'dawn', 'midday', 'afternoon']))
+  })
+})
+
+describe('insights from the journal', () => {
+  it("answer one angler's catches by condition, filtered by lake and season", async () => {
+    const angler = await signedInAgent(app, ctx.db, 'insights@journal.test')
+    const someoneElse = await signedInAgent(app, ctx.db, 'else@journal.test')
+    for (let i = 0; i < 6; i++)
+      await angler
+        .post('/api/journal/catches')
+        .send(aCatch({ caughtAt: new Date(Date.now() - (i + 1) * 3_600_000).toISOString() }))
+        .expect(201)
+    await someoneElse.post('/api/journal/catches').send(aCatch()).expect(201)
+
+    const all = Insights.parse((await angler.get('/api/journal/insights').expect(200)).body)
+    expect(all.total).toBe(6)
+    const clarity = all.dimensions.find((d) => d.dimension === 'clarity')!
+    expect(clarity.groups.reduce((n, g) => n + g.count, 0)).toBe(clarity.known)
+    expect(clarity.known).toBeGreaterThan(0)
+    const tod = all.dimensions.find((d) => d.dimension === 'timeOfDay')!
+    expect(tod.known).toBe(6)
+
+    const elsewhere = await angler.get('/api/journal/insights?lake=vessandra').expect(200)
+    expect(elsewhere.body.total).toBe(0)
+    const season = seasonOf(localDate(new Date(), 'UTC'), 40)
+    const other = ['spring', 'summer', 'fall', 'winter'].find(
+      (s) => s !== seasonOf(new Date().toISOString().slice(0, 10), 34.8),
+    )
+    expect(season).toBeTruthy()
+    expect((await angler.get(`/api/journal/insights?season=${other}`).expect(200)).body.total).toBe(
+      0,
+    )
+    const bad = await angler.get('/api/journal/insights?season=monsoon').expect(400)
+    expect(bad.body.error.fields.season).toBeTruthy()
   })
 })

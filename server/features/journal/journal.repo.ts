@@ -1,4 +1,4 @@
-import { and, count, desc, eq, inArray, isNull, type SQL } from 'drizzle-orm'
+import { and, count, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm'
 import type { Db } from '../../db/index'
 import { banks, catches, catchPhotos, lakes, trips } from '../../db/schema/index'
 
@@ -79,6 +79,18 @@ export function journalRepo(db: Db) {
       listed(
         and(eq(catches.userId, userId), lakeId ? eq(catches.lakeId, lakeId) : undefined),
       ).orderBy(catches.caughtAt),
+
+    /** What insights need of each catch: its conditions, lure and lake's latitude. */
+    forInsights: (userId: string, lakeId?: string) =>
+      db
+        .select({
+          conditions: catches.conditions,
+          lureFamily: sql<string>`${catches.lure}->>'family'`,
+          latitude: lakes.centerLat,
+        })
+        .from(catches)
+        .innerJoin(lakes, eq(lakes.id, catches.lakeId))
+        .where(and(eq(catches.userId, userId), lakeId ? eq(catches.lakeId, lakeId) : undefined)),
 
     /** The catch and its photo in one transaction: a photo belongs to one catch at most. */
     async insert(userId: string, values: CatchValues, photoId: string | null) {

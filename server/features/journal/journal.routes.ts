@@ -3,6 +3,7 @@ import {
   CatchInput,
   CatchListQuery,
   CatchParams,
+  InsightsQuery,
   PhotoParams,
   PhotoUploadQuery,
   SharedPhotoParams,
@@ -34,6 +35,14 @@ export function journalRoutes(journal: JournalService): Router {
     .post(requireSignIn, validate({ body: CatchInput }), async (req, res) => {
       res.status(201).json(await journal.create(currentUser(req), input(CatchInput, req.body)))
     })
+  router.get(
+    '/journal/insights',
+    requireSignIn,
+    validate({ query: InsightsQuery }),
+    async (req, res) => {
+      res.json(await journal.insights(currentUser(req).id, input(InsightsQuery, req.query)))
+    },
+  )
   router
     .route('/journal/catches/:id')
     .get(requireSignIn, validate({ params: CatchParams }), async (req, res) => {

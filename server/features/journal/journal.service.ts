@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto'
 import { nearestBank } from '../../../shared/geo/nearest'
+import { insights, MIN_SAMPLE, seasonOf } from '../../../shared/journal/insights'
 import { roleAllows } from '../../../shared/roles'
 import type { User } from '../../../shared/schemas/auth'
 import type {
@@ -8,6 +9,8 @@ import type {
   CatchList,
   CatchListQuery,
   CatchView,
+  Insights,
+  InsightsQuery,
   PhotoUpload,
   PhotoView,
 } from '../../../shared/schemas/journal'
@@ -146,6 +149,18 @@ export function journalService(deps: JournalDeps) {
     },
 
     get: view,
+
+    /** What worked for this angler, by condition, on a lake and in a season if asked. */
+    async insights(userId: string, query: InsightsQuery): Promise<Insights> {
+      const lake = query.lake ? await repo.lakeBySlug(query.lake) : undefined
+      if (query.lake && !lake) throw invalid('lake', 'No such lake.')
+      const rows = (await repo.forInsights(userId, lake?.id)).filter(
+        (r) =>
+          !query.season ||
+          (r.conditions && seasonOf(r.conditions.localDate, r.latitude) === query.season),
+      )
+      return { total: rows.length, minSample: MIN_SAMPLE, dimensions: insights(rows) }
+    },
 
     async create(user: User, input: CatchInput): Promise<CatchView> {
       const row = await repo.insert(user.id, await values(user, input), input.photoId)
