@@ -28,6 +28,11 @@ import { profileRepo } from './features/guides/profile.repo'
 import { profileService } from './features/guides/profile.service'
 import { tripsRepo } from './features/guides/trips.repo'
 import { tripsService } from './features/guides/trips.service'
+import { catchConditionsFor } from './features/journal/catch-conditions'
+import { journalRepo } from './features/journal/journal.repo'
+import { journalRoutes } from './features/journal/journal.routes'
+import type { PhotoStore } from './features/journal/photo-store'
+import { journalService } from './features/journal/journal.service'
 import { lakesDeskRepo } from './features/desk/lakes-desk.repo'
 import { lakesDeskRoutes } from './features/desk/lakes-desk.routes'
 import { lakesDeskService } from './features/desk/lakes-desk.service'
@@ -90,6 +95,8 @@ export interface AppDeps {
   authRateLimitPerAddress?: RateLimit
   /** Express's `trust proxy`: which proxies in front may name the client's address (TRUST_PROXY). */
   trustProxy?: boolean | number | string
+  /** Object storage for catch photos; without it, photo uploads answer 503. */
+  photos?: PhotoStore
 }
 
 export function createApp(deps: AppDeps): express.Express {
@@ -165,18 +172,15 @@ export function createApp(deps: AppDeps): express.Express {
       { limiter: limits.verification, mailbox: deps.mailbox },
     ),
   )
+  const trips = tripsService({
+    repo: tripsRepo(deps.db),
+    clients: clientsRepo(deps.db),
+    mail: deps.mail,
+    linkKey,
+    profiles: profileRepo(deps.db),
+  })
   api.use(
-    guidesRoutes(
-      clientsService(clientsRepo(deps.db)),
-      tripsService({
-        repo: tripsRepo(deps.db),
-        clients: clientsRepo(deps.db),
-        mail: deps.mail,
-        linkKey,
-        profiles: profileRepo(deps.db),
-      }),
-      profileService(profileRepo(deps.db)),
-    ),
+    guidesRoutes(clientsService(clientsRepo(deps.db)), trips, profileService(profileRepo(deps.db))),
   )
   api.use(quarantineRoutes(quarantineService(quarantineRepo(deps.db))))
   api.use(
@@ -190,6 +194,16 @@ export function createApp(deps: AppDeps): express.Express {
     ),
   )
   api.use(auditRoutes(auditRepo(deps.db)))
+  api.use(
+    journalRoutes(
+      journalService({
+        repo: journalRepo(deps.db),
+        conditionsAt: catchConditionsFor(deps.db),
+        sharedTrip: trips.sharedTrip,
+        photos: deps.photos,
+      }),
+    ),
+  )
   api.use(notFound)
   app.use('/api', api)
 

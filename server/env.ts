@@ -39,6 +39,14 @@ const Env = z.object({
   /** Port of the local SMTP stand-in that npm start runs when SMTP_URL is unset. */
   SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
   MAIL_FROM: z.string().min(3).default('Chopline <brief@chopline.example>'),
+  /** Object storage for catch photos (an S3 endpoint); when unset, npm start runs the local stand-in. */
+  S3_URL: z.url().optional(),
+  S3_BUCKET: z.string().min(3).max(63).default('chopline-photos'),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  /** Port of the local S3 stand-in that npm start runs when S3_URL is unset. */
+  S3_PORT: z.coerce.number().int().min(0).max(65535).default(4569),
   CHOPLINE_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
 })
 export type Env = z.infer<typeof Env>
@@ -50,6 +58,19 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new Error(`Invalid environment:\n${z.prettifyError(parsed.error)}`)
   }
   return parsed.data
+}
+
+/** The photo store's settings from S3_*, or undefined when S3_URL is unset. */
+export function s3Settings(env: Env) {
+  if (!env.S3_URL) return undefined
+  if (!env.S3_ACCESS_KEY_ID || !env.S3_SECRET_ACCESS_KEY)
+    throw new Error('S3_URL needs S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY.')
+  return {
+    url: env.S3_URL,
+    bucket: env.S3_BUCKET,
+    region: env.S3_REGION,
+    credentials: { accessKeyId: env.S3_ACCESS_KEY_ID, secretAccessKey: env.S3_SECRET_ACCESS_KEY },
+  }
 }
 
 /** The origin links in e-mail point at: APP_ORIGIN, or where the local server listens. */

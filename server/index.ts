@@ -4,10 +4,11 @@ import { createApp, type AppDeps } from './app'
 import { watchChanges } from './db/changes'
 import { createDb } from './db/index'
 import { migrateDb } from './db/migrate'
-import { loadEnv } from './env'
+import { loadEnv, s3Settings } from './env'
 import { createAppServer } from './http/server'
 import { createLogger } from './logger'
 import { smtpMailer } from './features/mail/mailer'
+import { photoStore } from './features/journal/photo-store'
 import { startScheduler } from '../jobs/scheduler'
 
 export const clientDir = fileURLToPath(new URL('../dist', import.meta.url))
@@ -67,6 +68,8 @@ async function main() {
   const db = createDb(DATABASE_URL, { log: logger })
   await migrateDb(db)
   const mail = { mailer: smtpMailer(SMTP_URL, env.MAIL_FROM), origin: APP_ORIGIN }
+  const s3 = s3Settings(env)
+  const photos = s3 && photoStore(s3)
   // Jobs run in every instance; each run takes a PostgreSQL lock, so one instance does the work.
   const scheduler = startScheduler({
     db,
@@ -87,9 +90,11 @@ async function main() {
     staticDir: clientDir,
     feedUrl: FEED_URL,
     mail,
+    photos,
     onClose: async () => {
       await scheduler.stop()
       mail.mailer.close()
+      photos?.close()
     },
   })
   logger.info(`Chopline listening on http://${env.HOST}:${env.PORT}`)

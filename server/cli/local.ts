@@ -14,8 +14,10 @@ import { startFeed } from '../fakes/feed/index'
 import { backfillReadings } from '../features/ingest/readings.ingest'
 import { ingestRepo } from '../features/ingest/ingest.repo'
 import type { Logger } from '../logger'
-import { allowedOrigins, loadEnv, publicOrigin, type Env } from '../env'
+import { allowedOrigins, loadEnv, publicOrigin, s3Settings, type Env } from '../env'
 import { startMailServer } from '../fakes/mail/index'
+import { startS3Server } from '../fakes/s3/index'
+import { photoStore } from '../features/journal/photo-store'
 import { smtpMailer } from '../features/mail/mailer'
 import { runSendBriefs } from '../../jobs/send-briefs'
 import { serve, type ServeOptions } from '../index'
@@ -40,6 +42,15 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
     ? undefined
     : await startFeed({ seed: DEMO_FEED_SEED, stations: DEMO_STATIONS }, env.FEED_PORT)
   const fakeSmtp = env.SMTP_URL ? undefined : await startMailServer({ port: env.SMTP_PORT })
+  // Catch photos: the local S3 stand-in keeps them under .data/s3 unless S3_URL names a provider.
+  const fakeS3 = env.S3_URL
+    ? undefined
+    : await startS3Server({
+        bucket: env.S3_BUCKET,
+        port: env.S3_PORT,
+        directory: join(dataDir, 's3'),
+      })
+  const photos = photoStore(s3Settings(env) ?? { ...fakeS3!, region: env.S3_REGION })
   const feedUrl = env.FEED_URL ?? fakeFeed!.url
   const mailer = smtpMailer(env.SMTP_URL ?? fakeSmtp!.url, env.MAIL_FROM)
   const mail = { mailer, origin: publicOrigin(env) }
@@ -61,9 +72,12 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
     feedUrl,
     mail,
     mailbox: fakeSmtp,
+    photos,
     stop: async () => {
       await scheduler.stop()
       mailer.close()
+      photos.close()
+      await fakeS3?.close()
       await fakeSmtp?.close()
       await fakeFeed?.close()
     },
@@ -128,6 +142,7 @@ export async function serveLocal(
       feedUrl: services.feedUrl,
       mail: services.mail,
       mailbox: services.mailbox,
+      photos: services.photos,
       onClose: async () => {
         await services.stop()
         await close?.()

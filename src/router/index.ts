@@ -84,6 +84,24 @@ const router = createRouter({
       meta: { role: 'angler', title: 'Settings' },
     },
     {
+      path: '/journal',
+      name: 'journal',
+      component: () => import('@/views/JournalView.vue'),
+      meta: { role: 'angler', title: 'Catch journal' },
+    },
+    {
+      path: '/journal/insights',
+      name: 'journal-insights',
+      component: () => import('@/views/JournalInsightsView.vue'),
+      meta: { role: 'angler', title: 'Insights' },
+    },
+    {
+      path: '/journal/:id',
+      name: 'catch',
+      component: () => import('@/views/CatchEntryView.vue'),
+      meta: { role: 'angler', title: 'Catch' },
+    },
+    {
       path: '/admin/users',
       name: 'admin-users',
       component: () => import('@/views/AdminUsersView.vue'),

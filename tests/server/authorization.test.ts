@@ -95,6 +95,17 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'PUT /admin/lakes/:slug': admins,
   'POST /admin/lakes/:slug/shoreline': admins,
   'GET /admin/lakes/:slug/recompute': admins,
+  'GET /journal/catches': signedIn,
+  'POST /journal/catches': signedIn,
+  'GET /journal/catches/:id': bankOwner,
+  'PUT /journal/catches/:id': bankOwner,
+  'DELETE /journal/catches/:id': bankOwner,
+  'GET /guide/trips/:id/catches': guideOwns,
+  'GET /shared/trips/:token/catches': anyone,
+  'POST /journal/photos': signedIn,
+  'GET /journal/insights': signedIn,
+  'GET /journal/photos/:id/:size': signedIn,
+  'GET /shared/trips/:token/photos/:id/:size': anyone,
 }
 
 type Layer = {
@@ -171,6 +182,16 @@ describe('the authorization matrix', () => {
         await agents.guide.post(`/api/guide/trips/${trip}/shares`).send({ expiresOn }).expect(201)
       ).body.items[0]
       const token = new URL(share.url).pathname.split('/').pop()!
+      const catchBody = {
+        lakeSlug: lake!.slug,
+        caughtAt: new Date().toISOString(),
+        species: 'largemouth',
+        lengthM: 0.4,
+        released: true,
+        lure: { family: 'spinnerbait' },
+      }
+      const caught = (await agents.guide.post('/api/journal/catches').send(catchBody).expect(201))
+        .body.id as string
 
       const concrete = (path: string) =>
         `/api${path}`
@@ -178,17 +199,20 @@ describe('the authorization matrix', () => {
           .replace(':date', today)
           .replace(':token', token)
           .replace(':shareId', share.id)
+          .replace(':size', 'thumb')
           .replace(
             ':id',
             path.startsWith('/lakes/')
               ? bank
-              : path.startsWith('/guide/clients')
-                ? client
-                : path.startsWith('/guide/trips')
-                  ? trip
-                  : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
-                    ? '1'
-                    : targetId,
+              : path.startsWith('/journal/catches')
+                ? caught
+                : path.startsWith('/guide/clients')
+                  ? client
+                  : path.startsWith('/guide/trips')
+                    ? trip
+                    : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
+                      ? '1'
+                      : targetId,
           )
       /** Valid bodies where a route checks ownership after the body: otherwise validation answers first. */
       const bodies: Record<string, object> = {
@@ -199,6 +223,7 @@ describe('the authorization matrix', () => {
         'POST /guide/trips/:id/shares': { expiresOn },
         'POST /guide/trips/:id/shares/:shareId/send': { clientIds: [client] },
         'PATCH /admin/users/:id': { role: 'angler' },
+        'PUT /journal/catches/:id': catchBody,
       }
       const body = (method: string, path: string) => bodies[`${method} ${path}`] ?? {}
 

@@ -61,6 +61,24 @@ export function tripsService(deps: {
     return trip
   }
 
+  /** The trip and link a share token names, while the link holds (404 unknown, 410 withdrawn or past). */
+  async function openLink(token: string) {
+    const link = await verifyLinkToken(linkKey, 'trip-share', token)
+    const share = link && (await repo.share(link.subject))
+    if (!share) throw new HttpError(404, 'not_found', 'This link is not one of ours.')
+    if (share.revokedAt)
+      throw new HttpError(410, 'link_revoked', 'Your guide has withdrawn this link.')
+    if (share.expiresAt <= now())
+      throw new HttpError(
+        410,
+        'link_expired',
+        'This link has expired. Ask your guide for a new one.',
+      )
+    const trip = await repo.get(share.tripId, null)
+    if (!trip) throw new HttpError(410, 'link_revoked', 'This trip has been cancelled.')
+    return { trip, share }
+  }
+
   /**
    * The trip as its client sees it: the cached day for its date with the trip's banks ranked, who
    * guides it, and (opened by a link) the last day the link works.
@@ -259,21 +277,12 @@ export function tripsService(deps: {
 
     /** What a share link opens: 404 for a link that is not ours, 410 once it is revoked or expired. */
     async openShared(token: string): Promise<SharedTrip> {
-      const link = await verifyLinkToken(linkKey, 'trip-share', token)
-      const share = link && (await repo.share(link.subject))
-      if (!share) throw new HttpError(404, 'not_found', 'This link is not one of ours.')
-      if (share.revokedAt)
-        throw new HttpError(410, 'link_revoked', 'Your guide has withdrawn this link.')
-      if (share.expiresAt <= now())
-        throw new HttpError(
-          410,
-          'link_expired',
-          'This link has expired. Ask your guide for a new one.',
-        )
-      const trip = await repo.get(share.tripId, null)
-      if (!trip) throw new HttpError(410, 'link_revoked', 'This trip has been cancelled.')
+      const { trip, share } = await openLink(token)
       return shared(trip, share)
     },
+
+    /** The trip a share link names, while the link holds. */
+    sharedTrip: async (token: string) => (await openLink(token)).trip,
   }
 }
 export type TripsService = ReturnType<typeof tripsService>
