@@ -34,7 +34,10 @@ let passwordHash: Promise<string> | undefined
 /** An account with `PASSWORD` whose address is not confirmed for the brief yet (sign-up only mails a link). */
 export async function createUser(db: Db, email: string, role: Role = 'angler') {
   passwordHash ??= hashPassword(PASSWORD)
-  await db.insert(users).values({ email, passwordHash: await passwordHash, role })
+  // Addresses are kept as the API takes them: lower case.
+  await db
+    .insert(users)
+    .values({ email: email.toLowerCase(), passwordHash: await passwordHash, role })
 }
 
 /** A new account, signed in through the API: the agent keeps the session cookie. */

@@ -2,6 +2,7 @@ import { count, eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Position } from '../../shared/geo/types'
+import { addDays, localDate } from '../../shared/time'
 import { CatchList, CatchView } from '../../shared/schemas/journal'
 import { catches, lakes } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
@@ -182,7 +183,7 @@ describe("catches on a guide's trip", () => {
     const share = (
       await guide
         .post(`/api/guide/trips/${trip.id}/shares`)
-        .send({ expiresOn: '2099-01-01' })
+        .send({ expiresOn: addDays(localDate(new Date(), 'UTC'), 30) })
         .expect(201)
     ).body.items[0]
     const token = new URL(share.url).pathname.split('/').pop()!
