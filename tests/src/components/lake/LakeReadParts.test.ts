@@ -165,7 +165,8 @@ describe('LakeOutline', () => {
     // Two rings: the shoreline and the island.
     expect(path.attributes('d')!.match(/M/g)).toHaveLength(2)
     expect(wrapper.get('svg').attributes('aria-label')).toMatch(/1 island\. Wind 11 mph from NW\./)
-    expect(wrapper.text()).toContain('km² of water')
+    // Square miles for the default (imperial) reader.
+    expect(wrapper.text()).toContain('0.4 sq mi of water')
   })
 
   it('draws saved banks in their exposure class, named for screen readers', () => {
