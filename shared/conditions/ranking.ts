@@ -1,6 +1,6 @@
 import { DomainError } from '../errors'
 import type { LakeGeometry, Position } from '../geo/types'
-import type { ClarityClass } from './clarity'
+import { CLARITY_LABELS, type ClarityClass } from './clarity'
 import {
   bankExposure,
   exposureTable,
@@ -9,8 +9,8 @@ import {
   type ExposureTable,
 } from './exposure'
 import { WAVE_M, WIND_MS } from './safety'
-import type { SeasonalPhase } from './season'
-import type { Cover, Sky } from './tackle-rules'
+import { PHASE_LABELS, type SeasonalPhase } from './season'
+import { COVER_LABELS, type Cover, type Sky } from './tackle-rules'
 
 export interface Bank {
   id: string
@@ -131,13 +131,22 @@ function coverPoints(bank: Bank, c: RankConditions): ScoreComponent {
   const scores = bank.cover.map((cover) => favoured[cover] ?? 0).sort((a, b) => b - a)
   const points = (scores[0] ?? 0) + 0.25 * scores.slice(1).reduce((a, b) => a + b, 0)
   const best = bank.cover.filter((cover) => (favoured[cover] ?? 0) >= 1)
+  const phase = PHASE_LABELS[c.phase]
   return {
     key: 'cover',
     points,
     reason: best.length
-      ? `${best.join(', ')} suits the ${c.phase} phase.`
-      : `Cover here is not what the ${c.phase} phase favours.`,
+      ? `${coverInWords(best)} ${best.length === 1 ? 'suits' : 'suit'} the ${phase} phase.`
+      : `Cover here is not what the ${phase} phase favours.`,
   }
+}
+
+/** "Rock", "Rock and sparse grass", "Wood / laydowns, rock and docks". */
+function coverInWords(covers: Cover[]): string {
+  const words = covers.map((cover, i) =>
+    i === 0 ? COVER_LABELS[cover] : COVER_LABELS[cover].toLowerCase(),
+  )
+  return words.length > 1 ? `${words.slice(0, -1).join(', ')} and ${words.at(-1)}` : words[0]!
 }
 
 function depthPoints(bank: Bank, c: RankConditions): ScoreComponent {
@@ -149,7 +158,11 @@ function depthPoints(bank: Bank, c: RankConditions): ScoreComponent {
   // No numbers in the words: reasons are shown in every angler's units, so they name none.
   const fit =
     off === 0 ? 'suits' : bank.depthM < lo ? 'is shallower than suits' : 'is deeper than suits'
-  return { key: 'depth', points, reason: `Depth a cast out ${fit} the ${c.phase} phase.` }
+  return {
+    key: 'depth',
+    points,
+    reason: `Depth a cast out ${fit} the ${PHASE_LABELS[c.phase]} phase.`,
+  }
 }
 
 function clarityPoints(bank: Bank, x: BankExposure, c: RankConditions): ScoreComponent {
@@ -167,7 +180,7 @@ function clarityPoints(bank: Bank, x: BankExposure, c: RankConditions): ScoreCom
   return {
     key: 'clarity',
     points: 0,
-    reason: `Clarity (${c.clarity}) neither helps nor hurts here.`,
+    reason: `The clarity (${CLARITY_LABELS[c.clarity]}) neither helps nor hurts here.`,
   }
 }
 

@@ -1,10 +1,2 @@
-import type { Cover } from '@shared/conditions/tackle-rules'
-
-export const COVER_LABELS: Record<Cover, string> = {
-  wood: 'Wood / laydowns',
-  'sparse-grass': 'Sparse grass',
-  'dense-grass': 'Dense grass',
-  rock: 'Rock',
-  docks: 'Docks',
-  open: 'Open bank',
-}
+// Cover in words lives beside the cover keys in shared/, where the engine's reasons use it too.
+export { COVER_LABELS } from '@shared/conditions/tackle-rules'
