@@ -200,7 +200,7 @@ describe('LakeOutline', () => {
     expect(titles).toEqual(['West rocks: rough', 'East docks: lee'])
     // Lee banks are dashed as well as coloured, so the class does not rest on colour alone.
     const lines = wrapper.findAll('g.bank path.line')
-    expect(lines[0]!.attributes('stroke-dasharray')).toBeUndefined()
+    expect(lines[0]!.attributes('stroke-dasharray')).toBe('9 2 2 2')
     expect(lines[1]!.attributes('stroke-dasharray')).toBe('2 3')
     expect(lines[0]!.attributes('d')).toMatch(/^M[\d.]+,[\d.]+ L[\d.]+,[\d.]+$/)
   })
