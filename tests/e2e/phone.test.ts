@@ -110,4 +110,20 @@ describe('on a phone (390 px) in Chromium', () => {
     await page.screenshot({ path: join(artifactsDir, 'day-plan-outside.png'), fullPage: true })
     await page.close()
   })
+
+  it('rings a focused primary button where the keyboard can see it', async () => {
+    await e2e.browser.context.clearCookies()
+    const page = await e2e.browser.context.newPage()
+    await page.goto(`${base}/signin`)
+    await page.getByLabel('Password').fill('not yet')
+    const button = page.getByRole('button', { name: 'Sign in' })
+    const focused = () => button.evaluate<boolean, undefined>('(b) => b.matches(":focus")')
+    for (let i = 0; i < 3 && !(await focused()); i++) await page.keyboard.press('Tab')
+    expect(await focused()).toBe(true)
+    const outline = await button.evaluate<{ style: string; width: number }, undefined>(
+      '(b) => ({ style: getComputedStyle(b).outlineStyle, width: parseFloat(getComputedStyle(b).outlineWidth) })',
+    )
+    expect(outline).toEqual({ style: 'solid', width: 3 })
+    await page.close()
+  })
 })
