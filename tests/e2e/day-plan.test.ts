@@ -63,7 +63,7 @@ describe("the angler's day in Chromium", () => {
     await expect.poll(() => firstWindow.count()).toBeGreaterThan(0)
     await expect.poll(() => page.locator('.tackle-call').count()).toBeGreaterThan(0)
     await expect
-      .poll(() => page.getByRole('region', { name: 'Safety cautions' }).first().innerText())
+      .poll(() => page.getByRole('region', { name: 'About these cautions' }).innerText())
       .toMatch(/boating law/)
     await expectAccessible(page, 'Day plan')
     await page.screenshot({ path: join(artifactsDir, 'day-plan-phone.png'), fullPage: true })
