@@ -1,15 +1,51 @@
 import { compassName } from './conditions/exposure'
 import { cautionWords, verdictOf, type CautionUnits } from './conditions/safety'
-import { quantitiesIn } from './quantities'
 import type { Settings } from './schemas/settings'
-import { dateTimeFormat } from './time'
-import { cToF, ftToM, mToFt, msToKmh, msToKnots, msToMph } from './units'
+import { addDays, dateLabel, dateTimeFormat, localDate } from './time'
+import { cToF, fToC, ftToM, M_PER_FT, mToFt, msToKmh, msToKnots, msToMph } from './units'
 
 /** "12 min ago", "3 h ago": how old a reading is. */
 export function age(iso: string, now = Date.now()): string {
   const min = Math.max(0, Math.round((now - Date.parse(iso)) / 60_000))
   if (min < 90) return `${min} min ago`
   return min < 2880 ? `${Math.round(min / 60)} h ago` : `${Math.round(min / 1440)} days ago`
+}
+
+/** A number to at most one decimal, without a trailing ".0": 0.6, 3, 1.5. */
+const short = (x: number) => String(Math.round(x * 10) / 10)
+
+/** "1-1.5" from two numbers, or one number alone. */
+const span = (lo: number, hi: number | undefined, each: (x: number) => string) =>
+  hi === undefined ? each(lo) : `${each(lo)}-${each(hi)}`
+
+/**
+ * Measurements written into the engine's words (tackle reasons, sizes: "about 2 ft of visibility",
+ * "runs 1-1.5 m", "the mid 40s °F") restated in a person's units; text without them is unchanged.
+ */
+function unitsInText(text: string, s: Settings): string {
+  const imperial = s.length === 'ft'
+  return text
+    .replace(/\b(\d+(?:\.\d+)?)(?:-(\d+(?:\.\d+)?))? (ft|m|in|mm)\b/g, (all, a, b, unit) => {
+      const lo = Number(a)
+      const hi = b === undefined ? undefined : Number(b)
+      if (imperial && unit === 'm') return `${span(lo, hi, (m) => short(Math.round(mToFt(m))))} ft`
+      if (imperial && unit === 'mm')
+        return `${span(lo, hi, (mm) => short(Math.round((mm / 25.4) * 2) / 2))} in`
+      if (!imperial && unit === 'ft') return `${span(lo, hi, (ft) => short(ft * M_PER_FT))} m`
+      if (!imperial && unit === 'in')
+        return `${span(lo, hi, (i) => String(Math.round((i * 25.4) / 5) * 5))} mm`
+      return all
+    })
+    .replace(/\b(?:the )?mid[- ](\d)0s °F/g, (all, tens) =>
+      s.temperature === 'C' ? `about ${Math.round(fToC(Number(tens) * 10 + 5))} °C` : all,
+    )
+    .replace(/(-?\d+(?:\.\d+)?) °([CF])\b/g, (all, n, scale) =>
+      scale === 'F' && s.temperature === 'C'
+        ? `${Math.round(fToC(Number(n)))} °C`
+        : scale === 'C' && s.temperature === 'F'
+          ? `${Math.round(cToF(Number(n)))} °F`
+          : all,
+    )
 }
 
 /** What a user sees before choosing (and while signed out). */
@@ -69,9 +105,37 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     /** The verdict of some cautions, its reasons in these units. */
     verdict: (cautions: Parameters<typeof cautionWords>[0][]) =>
       verdictOf(cautions.map((c) => ({ ...c, ...cautionWords(c, cautionUnits) }))),
-    /** The quantities in a rule's wording (tackle reasons, sizes) in these units. */
-    quantities: (text: string) => quantitiesIn(text, s),
     from: (deg: number) => `from ${compassName(deg)}`,
+    /** A lake's area: square miles or square kilometres. */
+    area: (km2: number) =>
+      s.length === 'ft' ? `${(km2 / 2.589988).toFixed(1)} sq mi` : `${km2.toFixed(1)} km²`,
+    /** Rain: inches to the hundredth, or millimetres. */
+    rain: (mm: number) =>
+      s.length === 'ft' ? `${(mm / 25.4).toFixed(2)} in` : `${Math.round(mm)} mm`,
+    rainUnit: s.length === 'ft' ? 'in' : 'mm',
+    toRain: (mm: number) => (s.length === 'ft' ? mm / 25.4 : mm),
+    /** Measurements inside the engine's words, restated in these units. */
+    prose: (text: string) => unitsInText(text, s),
+    hourCycle: s.clock === '24h' ? ('h23' as const) : ('h12' as const),
+    /** An hour of a chart's axis: "14:00" or "2 PM". */
+    hour: (iso: string, timeZone: string) =>
+      dateTimeFormat({
+        timeZone,
+        hour: 'numeric',
+        ...(s.clock === '24h' ? { minute: '2-digit', hourCycle: 'h23' } : { hourCycle: 'h12' }),
+      }).format(new Date(iso)),
+    /**
+     * The local day of an instant against today at the lake: "today", "yesterday", "tomorrow",
+     * else "on Tue, Mar 10".
+     */
+    day: (iso: string, timeZone: string, now: Date = new Date()) => {
+      const date = localDate(new Date(iso), timeZone)
+      const today = localDate(now, timeZone)
+      if (date === today) return 'today'
+      if (date === addDays(today, -1)) return 'yesterday'
+      if (date === addDays(today, 1)) return 'tomorrow'
+      return `on ${dateLabel(date)}`
+    },
     time: (iso: string | null, timeZone: string) =>
       iso
         ? dateTimeFormat({
@@ -81,6 +145,17 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
             hourCycle: s.clock === '24h' ? 'h23' : 'h12',
           }).format(new Date(iso))
         : '—',
+    /** A date and time in this clock: "Mar 10, 2:05 PM" or "Mar 10, 14:05" (the browser's zone when none). */
+    dateTime: (iso: string, timeZone?: string) =>
+      dateTimeFormat({
+        ...(timeZone ? { timeZone } : {}),
+        year: 'numeric',
+        month: 'short',
+        day: 'numeric',
+        hour: 'numeric',
+        minute: '2-digit',
+        hourCycle: s.clock === '24h' ? 'h23' : 'h12',
+      }).format(new Date(iso)),
     age,
   }
 }

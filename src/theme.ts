@@ -25,13 +25,36 @@ export const clarityColors: Record<ClarityClass, string> = {
   'very-clear': palette.glacier,
 }
 
-/** Exposure classes: still water, moving air, a worked bank, a bank too rough to fish. */
+/**
+ * Exposure classes: still slate water, a gold ripple along the bank, jade for the worked bank
+ * (windward is prime in a moderate wind, so it is no warning colour), red only for a bank too
+ * rough to fish.
+ */
 export const exposureColors: Record<ExposureClass, string> = {
-  lee: '#5b8a8c',
-  'side wind': '#c9a227',
-  windward: '#d9731a',
+  lee: '#6f8791',
+  'side wind': '#b8921f',
+  windward: palette.jade,
   rough: '#a3271f',
 }
+
+/** Each class's dashes on the outline and in its legend, so the class never rests on colour alone. */
+export const exposureDashes: Record<ExposureClass, string | undefined> = {
+  lee: '2 3',
+  'side wind': '6 3',
+  windward: undefined,
+  rough: '9 2 2 2',
+}
+
+/** What each exposure class means, for the legend beside the outline. */
+export const EXPOSURE_MEANINGS: Record<ExposureClass, string> = {
+  lee: 'sheltered: the wind blows off the bank',
+  'side wind': 'the wind runs along the bank',
+  windward: 'the wind blows onto the bank: prime in a moderate wind',
+  rough: 'waves or gusts too strong for a small boat',
+}
+
+/** A station's daily bars on the desk: most readings stored, fewer, and a day with refusals. */
+export const stationBarColors = { full: palette.lakeBlue, short: '#b07a1f', refused: '#a33a0b' }
 
 export const themeOverrides: GlobalThemeOverrides = {
   common: {

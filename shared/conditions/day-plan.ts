@@ -102,6 +102,12 @@ export interface DayPlan extends Omit<LakeDay, 'windows'> {
   verdict: VerdictResult
 }
 
+/**
+ * Plans cover today and the days the 7-day forecast reaches (and yesterday, kept a day): the
+ * server refuses other dates, and the Day plan offers these when asked for one of them.
+ */
+export const PLAN_DAYS = 7
+
 /** Our cloud-cover classes: under 30 % sun, under 70 % partly, else overcast. */
 export function skyFromCloud(cloudCoverPct: number): Sky {
   return cloudCoverPct < 30 ? 'sun' : cloudCoverPct < 70 ? 'partly' : 'overcast'

@@ -153,7 +153,9 @@ export function fetchFromTable(table: ExposureTable, windFromDeg: number): numbe
   return a + (b - a) * f
 }
 
-export type ExposureClass = 'lee' | 'side wind' | 'windward' | 'rough'
+/** From sheltered to too rough to fish. */
+export const EXPOSURE_CLASSES = ['lee', 'side wind', 'windward', 'rough'] as const
+export type ExposureClass = (typeof EXPOSURE_CLASSES)[number]
 
 /** Waves a small boat notices as a chop: 0.3 m (1 ft), our line between windward and rough. */
 export const ROUGH_WAVE_M = 0.3

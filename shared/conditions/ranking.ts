@@ -10,7 +10,7 @@ import {
 } from './exposure'
 import { WAVE_M, WIND_MS } from './safety'
 import { PHASE_LABELS, type SeasonalPhase } from './season'
-import { COVER_WORDS, type Cover, type Sky } from './tackle-rules'
+import { COVER_LABELS, type Cover, type Sky } from './tackle-rules'
 
 export interface Bank {
   id: string
@@ -132,15 +132,21 @@ function coverPoints(bank: Bank, c: RankConditions): ScoreComponent {
   const points = (scores[0] ?? 0) + 0.25 * scores.slice(1).reduce((a, b) => a + b, 0)
   const best = bank.cover.filter((cover) => (favoured[cover] ?? 0) >= 1)
   const phase = PHASE_LABELS[c.phase]
-  const named = best.map((cover) => COVER_WORDS[cover])
-  const list = named.length > 1 ? `${named.slice(0, -1).join(', ')} and ${named.at(-1)}` : named[0]
   return {
     key: 'cover',
     points,
-    reason: list
-      ? `${list.charAt(0).toUpperCase()}${list.slice(1)} ${named.length > 1 ? 'suit' : 'suits'} the ${phase} phase.`
+    reason: best.length
+      ? `${coverInWords(best)} ${best.length === 1 ? 'suits' : 'suit'} the ${phase} phase.`
       : `Cover here is not what the ${phase} phase favours.`,
   }
+}
+
+/** "Rock", "Rock and sparse grass", "Wood / laydowns, rock and docks". */
+function coverInWords(covers: Cover[]): string {
+  const words = covers.map((cover, i) =>
+    i === 0 ? COVER_LABELS[cover] : COVER_LABELS[cover].toLowerCase(),
+  )
+  return words.length > 1 ? `${words.slice(0, -1).join(', ')} and ${words.at(-1)}` : words[0]!
 }
 
 function depthPoints(bank: Bank, c: RankConditions): ScoreComponent {
@@ -174,7 +180,7 @@ function clarityPoints(bank: Bank, x: BankExposure, c: RankConditions): ScoreCom
   return {
     key: 'clarity',
     points: 0,
-    reason: `Clarity (${CLARITY_LABELS[c.clarity]}) neither helps nor hurts here.`,
+    reason: `The clarity (${CLARITY_LABELS[c.clarity]}) neither helps nor hurts here.`,
   }
 }
 

@@ -4,14 +4,14 @@ import type { SeasonalPhase } from './season'
 
 export const COVERS = ['wood', 'sparse-grass', 'dense-grass', 'rock', 'docks', 'open'] as const
 export type Cover = (typeof COVERS)[number]
-/** Cover in words, for reasons a person reads. */
-export const COVER_WORDS: Record<Cover, string> = {
-  wood: 'wood',
-  'sparse-grass': 'sparse grass',
-  'dense-grass': 'dense grass',
-  rock: 'rock',
-  docks: 'docks',
-  open: 'open bank',
+/** Cover in words, as a person reads it (the keys never reach a screen or a mail). */
+export const COVER_LABELS: Record<Cover, string> = {
+  wood: 'Wood / laydowns',
+  'sparse-grass': 'Sparse grass',
+  'dense-grass': 'Dense grass',
+  rock: 'Rock',
+  docks: 'Docks',
+  open: 'Open bank',
 }
 
 export type LureFamily =
@@ -27,6 +27,13 @@ export type LureFamily =
 
 export type Blade = 'colorado' | 'willow' | 'indiana' | 'willow-colorado' | 'double-willow'
 export type Sky = 'sun' | 'partly' | 'overcast'
+
+/** The sky in words. */
+export const SKY_LABELS: Record<Sky, string> = {
+  sun: 'sunny',
+  partly: 'partly cloudy',
+  overcast: 'overcast',
+}
 
 export interface TackleInput {
   clarity: ClarityClass

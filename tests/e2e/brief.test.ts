@@ -8,6 +8,7 @@ import { TEST_SECRET } from '../helpers/app'
 import { expectAccessible } from '../helpers/axe'
 import { artifactsDir } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
+import { openFromNav } from '../helpers/nav'
 import { signInAs } from '../helpers/signin'
 
 let e2e: E2e
@@ -111,7 +112,7 @@ describe('the morning brief in Chromium', () => {
     await e2e.browser.context.clearCookies()
     const page = await e2e.browser.context.newPage()
     await signInAs(page, base, 'admin@chopline.test')
-    await page.getByRole('link', { name: 'Mail' }).click()
+    await openFromNav(page, 'Mail')
     await page.getByRole('heading', { name: 'Caught mail' }).waitFor()
     await page.getByText('Every brief has gone out.').waitFor()
     await page

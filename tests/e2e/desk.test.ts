@@ -5,6 +5,7 @@ import { datastreams, lakes, quarantine, stations } from '../../server/db/schema
 import { expectAccessible } from '../helpers/axe'
 import { artifactsDir } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
+import { openFromNav } from '../helpers/nav'
 import { signInAs } from '../helpers/signin'
 
 let e2e: E2e
@@ -24,30 +25,29 @@ describe('the gauge desk in Chromium', () => {
       .from(datastreams)
       .where(eq(datastreams.parameter, 'water_temp'))
     const observed = new Date(Date.now() - 86_400_000)
-    const [row] = await e2e.db
-      .insert(quarantine)
-      .values({
-        stationId: stream!.stationId,
-        parameter: 'water_temp',
-        feedId: 'e2e-1',
-        observedAt: observed,
-        raw: { result: 21.5, phenomenonTime: observed.toISOString() },
-        reason: 'rate_of_change',
-        detail: 'rose 6 °C in 15 minutes',
-      })
-      .returning()
+    await e2e.db.insert(quarantine).values({
+      stationId: stream!.stationId,
+      parameter: 'water_temp',
+      feedId: 'e2e-1',
+      observedAt: observed,
+      raw: { result: 21.5, phenomenonTime: observed.toISOString() },
+      reason: 'rate_of_change',
+      detail: 'rose 6 °C in 15 minutes',
+    })
 
     const page = await e2e.browser.context.newPage()
     await signInAs(page, base, 'admin@chopline.test')
-    await page.getByRole('link', { name: 'Quarantine' }).click()
+    await openFromNav(page, 'Quarantine')
     await page.getByText('rose 6 °C in 15 minutes').waitFor()
+    await page.getByText('Changed too fast').waitFor()
     await expectAccessible(page, 'Quarantine')
-    await page.getByRole('button', { name: `Release row ${row!.id}` }).click()
+    // The button is named for the reading it releases, in words, not for a row number.
+    await page.getByRole('button', { name: /^Release Water temperature of .+ at / }).click()
     await page.getByText('Released: stored as a reading.').waitFor()
-    await page.getByText('Nothing here: no held rows match.').waitFor()
+    await page.getByText('Nothing here: no held readings match.').waitFor()
 
-    await page.getByRole('link', { name: 'Audit' }).click()
-    await page.getByRole('cell', { name: 'quarantine.release' }).waitFor()
+    await openFromNav(page, 'Audit')
+    await page.getByRole('cell', { name: 'Released a held reading' }).waitFor()
     await expectAccessible(page, 'Audit log')
     await page.setViewportSize({ width: 1366, height: 900 })
     await page.screenshot({ path: join(artifactsDir, 'admin-audit-desktop.png'), fullPage: true })
@@ -59,7 +59,7 @@ describe('the gauge desk in Chromium', () => {
     await e2e.browser.context.clearCookies()
     const page = await e2e.browser.context.newPage()
     await signInAs(page, base, 'admin@chopline.test')
-    await page.getByRole('link', { name: 'Desk lakes' }).click()
+    await openFromNav(page, 'Desk lakes')
     await page.locator('.n-base-selection', { hasText: 'Choose a lake to edit' }).click()
     await page.locator('.n-base-select-option', { hasText: 'Quillmere Reservoir' }).click()
     await page.getByRole('heading', { name: 'Edit Quillmere Reservoir' }).waitFor()
@@ -96,7 +96,7 @@ describe('the gauge desk in Chromium', () => {
     await e2e.browser.context.clearCookies()
     const page = await e2e.browser.context.newPage()
     await signInAs(page, base, 'admin@chopline.test')
-    await page.getByRole('link', { name: 'Stations' }).click()
+    await openFromNav(page, 'Stations')
     await page
       .getByRole('list', { name: 'Stations' })
       .getByText(/Last good reading/)

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD } from '../../server/db/seed/index'
 import { artifactsDir } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
+import { openFromNav } from '../helpers/nav'
 import { signInAs } from '../helpers/signin'
 
 let e2e: E2e
@@ -45,7 +46,7 @@ describe('sign-in in Chromium', () => {
     await page.getByRole('alert').filter({ hasText: 'E-mail or password is incorrect.' }).waitFor()
     await page.getByLabel('Password').fill(DEMO_PASSWORD)
     await page.getByRole('button', { name: 'Sign in' }).click()
-    await page.getByRole('link', { name: 'Users' }).click()
+    await openFromNav(page, 'Users')
     await page.getByText('guide@chopline.test').waitFor()
     await page.screenshot({ path: join(artifactsDir, 'admin-users.png'), fullPage: true })
     await page.close()

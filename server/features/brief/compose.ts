@@ -144,7 +144,7 @@ const LEVEL_WORDS: Record<CautionLevel, string> = {
 function tackleLine(call: TackleCall, f: Format): string {
   const parts = [
     call.blade && `Blades: ${words(call.blade)}${call.bladeFinish ? `, ${call.bladeFinish}` : ''}`,
-    call.size && `Size: ${f.quantities(call.size)}`,
+    call.size && `Size: ${f.prose(call.size)}`,
     `Colours: ${call.colors.join(', ')}`,
     call.trailer !== undefined && `Trailer: ${call.trailer}`,
     call.trailerHook !== undefined && `Trailer hook: ${call.trailerHook ? 'yes' : 'no'}`,
@@ -221,7 +221,7 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
         }
       }),
       suggestion: lake.banks.length ? null : lakeWideSuggestion(w),
-      tackle: best ? { call: tackleLine(best, f), why: f.quantities(best.why.join(' ')) } : null,
+      tackle: best ? { call: tackleLine(best, f), why: f.prose(best.why.join(' ')) } : null,
       sameAs: null,
     }
   })

@@ -1,4 +1,4 @@
-import { lakeDay, planForBanks } from '../../../shared/conditions/day-plan'
+import { lakeDay, PLAN_DAYS, planForBanks } from '../../../shared/conditions/day-plan'
 import type { DayPlanResponse } from '../../../shared/schemas/day-plan'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { addDays, localDate, localDayBounds, zonedMidnight } from '../../../shared/time'
@@ -15,8 +15,7 @@ import {
 } from '../lakes/lake-read.service'
 import { conditionsRepo, type ConditionsRepo } from './conditions.repo'
 
-/** Plans cover today and the days the 7-day forecast reaches. */
-export const PLAN_DAYS = 7
+export { PLAN_DAYS }
 
 /**
  * The instants between which a date has a plan: from when it is the last day the forecast reaches

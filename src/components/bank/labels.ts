@@ -1,10 +1,10 @@
-import type { Cover } from '@shared/conditions/tackle-rules'
+// Cover in words lives beside the cover keys in shared/, where the engine's reasons use it too.
+export { COVER_LABELS } from '@shared/conditions/tackle-rules'
 
-export const COVER_LABELS: Record<Cover, string> = {
-  wood: 'Wood / laydowns',
-  'sparse-grass': 'Sparse grass',
-  'dense-grass': 'Dense grass',
-  rock: 'Rock',
-  docks: 'Docks',
-  open: 'Open bank',
-}
+/** A bank's bottom slope in words. */
+export const SLOPE_LABELS = {
+  flat: 'Flat',
+  gradual: 'Gradual',
+  steep: 'Steep',
+  'drop-off': 'Drop-off',
+} as const

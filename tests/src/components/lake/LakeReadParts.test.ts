@@ -165,7 +165,8 @@ describe('LakeOutline', () => {
     // Two rings: the shoreline and the island.
     expect(path.attributes('d')!.match(/M/g)).toHaveLength(2)
     expect(wrapper.get('svg').attributes('aria-label')).toMatch(/1 island\. Wind 11 mph from NW\./)
-    expect(wrapper.text()).toContain('km² of water')
+    // Square miles for the default (imperial) reader.
+    expect(wrapper.text()).toContain('0.4 sq mi of water')
   })
 
   it('draws saved banks in their exposure class, named for screen readers', () => {
@@ -199,7 +200,7 @@ describe('LakeOutline', () => {
     expect(titles).toEqual(['West rocks: rough', 'East docks: lee'])
     // Lee banks are dashed as well as coloured, so the class does not rest on colour alone.
     const lines = wrapper.findAll('g.bank path.line')
-    expect(lines[0]!.attributes('stroke-dasharray')).toBeUndefined()
+    expect(lines[0]!.attributes('stroke-dasharray')).toBe('9 2 2 2')
     expect(lines[1]!.attributes('stroke-dasharray')).toBe('2 3')
     expect(lines[0]!.attributes('d')).toMatch(/^M[\d.]+,[\d.]+ L[\d.]+,[\d.]+$/)
   })
