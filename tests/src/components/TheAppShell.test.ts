@@ -40,8 +40,8 @@ describe('TheAppShell', () => {
     const bar = wrapper.findAll('.shell-nav > a')
     expect(bar.filter((a) => !a.classes('phone-more')).map((a) => a.text())).toEqual([
       'Lakes',
+      'Journal',
       'Trips',
-      'Clients',
     ])
     const more = wrapper.get('button.more-button')
     expect(more.attributes('aria-expanded')).toBe('false')
@@ -52,6 +52,7 @@ describe('TheAppShell', () => {
     expect(more.attributes('aria-expanded')).toBe('true')
     const menu = wrapper.get('#shell-more-menu')
     expect(menu.findAll('a').map((a) => a.text())).toEqual([
+      'Clients',
       'Settings',
       'Users',
       'Stations',
@@ -61,7 +62,7 @@ describe('TheAppShell', () => {
       'Mail',
     ])
     // Focus moves into the menu, and Escape brings it back to the button.
-    expect(document.activeElement?.textContent?.trim()).toBe('Settings')
+    expect(document.activeElement?.textContent?.trim()).toBe('Clients')
     await menu.trigger('keydown', { key: 'Escape' })
     expect(more.attributes('aria-expanded')).toBe('false')
     expect(document.activeElement).toBe(more.element)
@@ -73,10 +74,10 @@ describe('TheAppShell', () => {
     expect(more.attributes('aria-expanded')).toBe('false')
   })
 
-  it('has no “More” for an angler, whose two links always fit', async () => {
+  it('has no “More” for an angler, whose three links always fit', async () => {
     const { wrapper } = await mountShell('angler')
     unmount = () => wrapper.unmount()
-    expect(wrapper.findAll('.shell-nav > a').map((a) => a.text())).toEqual(['Lakes', 'Settings'])
+    expect(wrapper.findAll('.shell-nav > a').map((a) => a.text())).toEqual(['Lakes', 'Journal', 'Settings'])
     expect(wrapper.find('button.more-button').exists()).toBe(false)
   })
 })

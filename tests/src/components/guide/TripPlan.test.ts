@@ -97,7 +97,7 @@ describe('TripPlan, as the client reads it', () => {
     const band = mount(TripPlan, { props: { trip } }).find('[aria-label="Cautions for the day"]')
     const lines = band.findAll('li').map((li) => li.text())
     expect(lines.filter((l) => /Wind \d+ mph/.test(l))).toEqual([
-      expect.stringMatching(/^danger: Midday and afternoon to dusk: Wind 29 mph, gusts 40 mph\./),
+      expect.stringMatching(/^Danger: Midday and afternoon to dusk: Wind 29 mph, gusts 40 mph\./),
     ])
     expect(lines.filter((l) => /Waves to/.test(l))).toHaveLength(1)
     expect(lines.at(-1)).toMatch(/boating law/)
