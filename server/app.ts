@@ -48,6 +48,9 @@ import { stationsService } from './features/stations/stations.service'
 import { usersRepo } from './features/users/users.repo'
 import { usersRoutes } from './features/users/users.routes'
 import { usersService } from './features/users/users.service'
+import { watchRepo } from './features/watch/watch.repo'
+import { watchRoutes } from './features/watch/watch.routes'
+import { watchService } from './features/watch/watch.service'
 import { errorHandler, HttpError, notFound } from './http/errors'
 import { sameOrigin } from './http/origin'
 import { pageRoutes } from './http/pages'
@@ -175,6 +178,7 @@ export function createApp(deps: AppDeps): express.Express {
     ),
   )
   api.use(auditRoutes(auditRepo(deps.db)))
+  api.use(watchRoutes(watchService({ repo: watchRepo(deps.db), linkKey }), watchRepo(deps.db)))
   api.use(notFound)
   app.use('/api', api)
 

@@ -18,6 +18,7 @@ import { loadEnv, publicOrigin, type Env } from '../env'
 import { startMailServer } from '../fakes/mail/index'
 import { smtpMailer } from '../features/mail/mailer'
 import { runSendBriefs } from '../../jobs/send-briefs'
+import { runCheckWatches } from '../../jobs/check-watches'
 import { serve, type ServeOptions } from '../index'
 import { createLogger } from '../logger'
 
@@ -55,6 +56,7 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
     await runIngestReadings(ctx)
     await runIngestWeather(ctx)
     log.info('readings and weather are up to date')
+    log.info({ result: await runCheckWatches(ctx) }, 'bank watches judged')
     log.info({ result: await runSendBriefs(ctx) }, 'morning briefs due now sent')
   })().catch((err: unknown) => log.error({ err }, 'first ingestion failed'))
   return {

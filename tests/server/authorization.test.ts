@@ -91,6 +91,14 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'PUT /admin/lakes/:slug': admins,
   'POST /admin/lakes/:slug/shoreline': admins,
   'GET /admin/lakes/:slug/recompute': admins,
+  'GET /watches': signedIn,
+  'POST /watches': signedIn,
+  'PUT /watches/:id': bankOwner,
+  'PATCH /watches/:id': bankOwner,
+  'DELETE /watches/:id': bankOwner,
+  'POST /watch/unsubscribe': anyone,
+  'GET /watch/unsubscribe': anyone,
+  'GET /admin/alerts': admins,
 }
 
 type Layer = {
@@ -151,6 +159,15 @@ describe('the authorization matrix', () => {
       const clientBody = { name: 'Matrix Client', email: 'client@matrix.test' }
       const client = (await agents.guide.post('/api/guide/clients').send(clientBody).expect(201))
         .body.id as string
+      const watchBody = {
+        name: 'Matrix watch',
+        lakeSlug: lake!.slug,
+        bankId: bank,
+        conditions: {},
+        channels: ['push'],
+      }
+      const watch = (await agents.guide.post('/api/watches').send(watchBody).expect(201)).body
+        .id as string
       const today = new Date().toISOString().slice(0, 10)
       const tripBody = {
         lakeSlug: lake!.slug,
@@ -183,9 +200,11 @@ describe('the authorization matrix', () => {
                 ? client
                 : path.startsWith('/guide/trips')
                   ? trip
-                  : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
-                    ? '1'
-                    : targetId,
+                  : path.startsWith('/watches')
+                    ? watch
+                    : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
+                      ? '1'
+                      : targetId,
           )
       /** Valid bodies where a route checks ownership after the body: otherwise validation answers first. */
       const bodies: Record<string, object> = {
@@ -195,6 +214,8 @@ describe('the authorization matrix', () => {
         'POST /guide/trips/:id/shares': { expiresOn: '2099-01-01' },
         'POST /guide/trips/:id/shares/:shareId/send': { clientIds: [client] },
         'PATCH /admin/users/:id': { role: 'angler' },
+        'PUT /watches/:id': watchBody,
+        'PATCH /watches/:id': { active: true },
       }
       const body = (method: string, path: string) => bodies[`${method} ${path}`] ?? {}
 
