@@ -5,6 +5,7 @@ import express, { type RequestHandler } from 'express'
 import { rateLimit } from 'express-rate-limit'
 import helmet from 'helmet'
 import type { Changes } from './db/changes'
+import type { PushServer } from './fakes/push/index'
 import type { Db } from './db/index'
 import { auditRepo } from './features/audit/audit.repo'
 import { auditRoutes } from './features/audit/audit.routes'
@@ -48,6 +49,8 @@ import { stationsService } from './features/stations/stations.service'
 import { usersRepo } from './features/users/users.repo'
 import { usersRoutes } from './features/users/users.routes'
 import { usersService } from './features/users/users.service'
+import { pushRepo } from './features/watch/push.repo'
+import { pushRoutes } from './features/watch/push.routes'
 import { watchRepo } from './features/watch/watch.repo'
 import { watchRoutes } from './features/watch/watch.routes'
 import { watchService } from './features/watch/watch.service'
@@ -79,6 +82,8 @@ export interface AppDeps {
    * memory until something they were made from changes. Without them, from the database each time.
    */
   changes?: Changes
+  /** Web Push: the VAPID public key browsers subscribe with; the local stand-in's catch in development. */
+  push?: { publicKey?: string; pushbox?: PushServer }
   /** Sign-in, sign-up and verification-mail attempts per window per client address. */
   authRateLimit?: { windowMs: number; limit: number }
 }
@@ -179,6 +184,7 @@ export function createApp(deps: AppDeps): express.Express {
   )
   api.use(auditRoutes(auditRepo(deps.db)))
   api.use(watchRoutes(watchService({ repo: watchRepo(deps.db), linkKey }), watchRepo(deps.db)))
+  api.use(pushRoutes(pushRepo(deps.db), deps.push ?? {}))
   api.use(notFound)
   app.use('/api', api)
 

@@ -23,6 +23,16 @@ const Env = z.object({
   /** Port of the local SMTP stand-in that npm start runs when SMTP_URL is unset. */
   SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
   MAIL_FROM: z.string().min(3).default('Chopline <brief@chopline.example>'),
+  /** Web Push (VAPID, RFC 8292) keys, base64url; generated into .data/ locally when unset. */
+  VAPID_PUBLIC_KEY: z.string().min(40).optional(),
+  VAPID_PRIVATE_KEY: z.string().min(20).optional(),
+  /** Who runs the server, for push services: a mailto: or https: URL. */
+  VAPID_SUBJECT: z
+    .string()
+    .regex(/^(mailto:|https:)/)
+    .default('mailto:alerts@chopline.example'),
+  /** Port of the local push stand-in that npm start runs. */
+  PUSH_PORT: z.coerce.number().int().min(0).max(65535).default(3200),
   CHOPLINE_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
 })
 export type Env = z.infer<typeof Env>
@@ -39,4 +49,15 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
 /** The origin links in e-mail point at: APP_ORIGIN, or where the local server listens. */
 export function publicOrigin(env: Env): string {
   return env.APP_ORIGIN ?? `http://${env.HOST}:${env.PORT}`
+}
+
+/** The VAPID keys from the environment, or null when push is not set up there. */
+export function vapidFromEnv(env: Env) {
+  return env.VAPID_PUBLIC_KEY && env.VAPID_PRIVATE_KEY
+    ? {
+        publicKey: env.VAPID_PUBLIC_KEY,
+        privateKey: env.VAPID_PRIVATE_KEY,
+        subject: env.VAPID_SUBJECT,
+      }
+    : null
 }

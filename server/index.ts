@@ -4,10 +4,11 @@ import { createApp, type AppDeps } from './app'
 import { watchChanges } from './db/changes'
 import { createDb } from './db/index'
 import { migrateDb } from './db/migrate'
-import { loadEnv } from './env'
+import { loadEnv, vapidFromEnv } from './env'
 import { createAppServer } from './http/server'
 import { createLogger } from './logger'
 import { smtpMailer } from './features/mail/mailer'
+import { webPushSender } from './features/watch/push'
 import { startScheduler } from '../jobs/scheduler'
 
 export const clientDir = fileURLToPath(new URL('../dist', import.meta.url))
@@ -67,6 +68,8 @@ async function main() {
   const db = createDb(DATABASE_URL, { log: logger })
   await migrateDb(db)
   const mail = { mailer: smtpMailer(SMTP_URL, env.MAIL_FROM), origin: APP_ORIGIN }
+  // Watch alerts go by push only where VAPID keys are set; by mail everywhere.
+  const vapid = vapidFromEnv(env)
   // Jobs run in every instance; each run takes a PostgreSQL lock, so one instance does the work.
   const scheduler = startScheduler({
     db,
@@ -74,6 +77,7 @@ async function main() {
     log: logger,
     mail,
     sessionSecret: SESSION_SECRET,
+    push: vapid ? webPushSender({ db, log: logger, vapid }) : undefined,
   })
   await serve({
     db,
@@ -86,6 +90,7 @@ async function main() {
     staticDir: clientDir,
     feedUrl: FEED_URL,
     mail,
+    push: { publicKey: vapid?.publicKey },
     onClose: async () => {
       await scheduler.stop()
       mail.mailer.close()

@@ -1,6 +1,6 @@
 import { join } from 'node:path'
 import { startCluster, type Cluster } from '../db/cluster'
-import { dataDir, localDatabase, localSecret } from './local-config'
+import { dataDir, localDatabase, localSecret, localVapid } from './local-config'
 import { createDb, type Db } from '../db/index'
 import { migrateDb } from '../db/migrate'
 import { count } from 'drizzle-orm'
@@ -16,6 +16,11 @@ import { ingestRepo } from '../features/ingest/ingest.repo'
 import type { Logger } from '../logger'
 import { loadEnv, publicOrigin, type Env } from '../env'
 import { startMailServer } from '../fakes/mail/index'
+import { startPushServer } from '../fakes/push/index'
+import { webPushSender } from '../features/watch/push'
+import { pushRepo } from '../features/watch/push.repo'
+import { users } from '../db/schema/index'
+import { eq } from 'drizzle-orm'
 import { smtpMailer } from '../features/mail/mailer'
 import { runSendBriefs } from '../../jobs/send-briefs'
 import { runCheckWatches } from '../../jobs/check-watches'
@@ -44,7 +49,13 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
   const feedUrl = env.FEED_URL ?? fakeFeed!.url
   const mailer = smtpMailer(env.SMTP_URL ?? fakeSmtp!.url, env.MAIL_FROM)
   const mail = { mailer, origin: publicOrigin(env) }
-  const ctx = { db, feedUrl, log, mail, sessionSecret }
+  // Browsers subscribe through their own push service; the stand-in takes what goes to its
+  // endpoints, such as the demo angler's device below, so admins see pushes beside the mail.
+  const vapid = localVapid(env)
+  const fakePush = await startPushServer({ port: env.PUSH_PORT })
+  const push = webPushSender({ db, log, vapid })
+  const ctx = { db, feedUrl, log, mail, sessionSecret, push }
+  await demoDevice(db, fakePush)
   const scheduler = startScheduler(ctx)
   void (async () => {
     const [row] = await db.select({ n: count() }).from(readings)
@@ -63,13 +74,24 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
     feedUrl,
     mail,
     mailbox: fakeSmtp,
+    push: { publicKey: vapid.publicKey, pushbox: fakePush },
     stop: async () => {
       await scheduler.stop()
+      await fakePush.close()
       mailer.close()
       await fakeSmtp?.close()
       await fakeFeed?.close()
     },
   }
+}
+
+/** The demo angler's stand-in device: a fresh subscription at the push stand-in on each start. */
+async function demoDevice(db: Db, pushServer: Awaited<ReturnType<typeof startPushServer>>) {
+  const [angler] = await db
+    .select({ id: users.id })
+    .from(users)
+    .where(eq(users.email, DEMO_USERS.find((u) => u.role === 'angler')!.email))
+  if (angler) await pushRepo(db).save(angler.id, pushServer.subscribe())
 }
 
 /**
@@ -127,6 +149,7 @@ export async function serveLocal(
       feedUrl: services.feedUrl,
       mail: services.mail,
       mailbox: services.mailbox,
+      push: services.push,
       onClose: async () => {
         await services.stop()
         await close?.()

@@ -99,6 +99,10 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'POST /watch/unsubscribe': anyone,
   'GET /watch/unsubscribe': anyone,
   'GET /admin/alerts': admins,
+  'GET /push/key': signedIn,
+  'PUT /me/push': signedIn,
+  'DELETE /me/push': signedIn,
+  'GET /admin/pushbox': admins,
 }
 
 type Layer = {

@@ -5,6 +5,10 @@ import { afterAll, beforeAll, expect, it } from 'vitest'
 import { DEMO_PASSWORD, DEMO_USERS } from '../../server/db/seed/index'
 import { lakeDays, trips, users, watchAlerts, watches } from '../../server/db/schema/index'
 import { tokenKey } from '../../server/features/auth/auth.tokens'
+import { startPushServer, type PushServer } from '../../server/fakes/push/index'
+import { generateVapid, webPushSender } from '../../server/features/watch/push'
+import { pushSubscriptions } from '../../server/db/schema/index'
+import { PushPayload } from '../../shared/schemas/push'
 import { checkWatches } from '../../server/features/watch/send-alerts'
 import { runCheckWatches } from '../../jobs/check-watches'
 import type { LakeDay } from '../../shared/conditions/day-plan'
@@ -24,9 +28,16 @@ const email = (role: string) => DEMO_USERS.find((u) => u.role === role)!.email
 describeScenario('blow', (get) => {
   let w: ScenarioWorld
   let mail: TestMail
+  let pushes: PushServer
   let windward: string
   let lee: string
-  const app = () => testApp(w.db, { mail: mail.mail, mailbox: mail.smtp })
+  const vapid = generateVapid('mailto:alerts@chopline.example')
+  const app = () =>
+    testApp(w.db, {
+      mail: mail.mail,
+      mailbox: mail.smtp,
+      push: { publicKey: vapid.publicKey, pushbox: pushes },
+    })
   const check = (deps: Partial<Parameters<typeof checkWatches>[0]> = {}) =>
     checkWatches({
       db: w.db,
@@ -69,10 +80,14 @@ describeScenario('blow', (get) => {
   beforeAll(async () => {
     w = get()
     mail = await startTestMail()
+    pushes = await startPushServer()
     windward = (await w.saveBank('North point', 20, ['rock'])).id
     lee = (await w.saveBank('South cove', 200, ['wood'])).id
   })
-  afterAll(() => mail.close())
+  afterAll(async () => {
+    await mail.close()
+    await pushes.close()
+  })
 
   it('sets, lists, edits and deletes a watch through the API, each angler their own', async () => {
     const angler = await signIn('angler')
@@ -293,6 +308,61 @@ describeScenario('blow', (get) => {
     const list = WatchList.parse((await agent.get('/api/watches').expect(200)).body)
     expect(list.items.find((x) => x.id === tripWatch!.id)?.lastAlert?.windowId).toBe('day')
     await agent.put(`/api/watches/${tripWatch!.id}`).send(watchBody()).expect(409)
+  })
+
+  it('pushes to each of the angler’s devices once, and drops a device the push service calls gone', async () => {
+    const angler = await signIn('angler')
+    expect((await angler.get('/api/push/key').expect(200)).body.publicKey).toBe(vapid.publicKey)
+    const phone = pushes.subscribe()
+    const tablet = pushes.subscribe()
+    await angler.put('/api/me/push').send(phone).expect(204)
+    await angler.put('/api/me/push').send(tablet).expect(204)
+    const pushed = Watch.parse(
+      (
+        await angler
+          .post('/api/watches')
+          .send(
+            watchBody({
+              name: 'Pushed',
+              channels: ['push'],
+              conditions: { wind: { onto: true, min: 8, max: 20, unit: 'mph' }, windows: ['dawn'] },
+            } as Partial<WatchInput>),
+          )
+          .expect(201)
+      ).body,
+    )
+    const push = webPushSender({ db: w.db, log, vapid })
+    await check({ push })
+    await check({ push })
+    const windows = (await alertsOf(pushed.id)).length
+    expect(windows).toBeGreaterThan(0)
+    const got = pushes
+      .messages()
+      .map((m) => ({ ...m, payload: PushPayload.parse(JSON.parse(m.payload)) }))
+    const ours = got.filter((m) => m.payload.title === 'Pushed matches')
+    expect(ours).toHaveLength(windows * 2)
+    expect(new Set(ours.map((m) => m.endpoint))).toEqual(new Set([phone.endpoint, tablet.endpoint]))
+    expect(ours.some((m) => m.payload.url.endsWith(`/plan/${w.dateOf(0)}#window-dawn`))).toBe(true)
+    expect(ours[0]!.ttl).toBeGreaterThan(0)
+    expect(mailFor('Pushed')).toHaveLength(0)
+
+    // The tablet's subscription expires: the next alert reaches the phone and drops the tablet.
+    pushes.expire(tablet.endpoint)
+    await w.db.update(watches).set({ episodes: {} }).where(eq(watches.id, pushed.id))
+    await w.db.delete(watchAlerts).where(eq(watchAlerts.watchId, pushed.id))
+    await check({ push })
+    const endpoints = (await w.db.select().from(pushSubscriptions)).map((s) => s.endpoint)
+    expect(endpoints).toContain(phone.endpoint)
+    expect(endpoints).not.toContain(tablet.endpoint)
+    expect(await alertsOf(pushed.id)).toEqual(
+      (await alertsOf(pushed.id)).map((a) => a.replace(/ \w+$/, ' sent')),
+    )
+
+    const admin = await signIn('admin')
+    const box = (await admin.get('/api/admin/pushbox').expect(200)).body.items
+    expect(box.length).toBe(pushes.messages().length)
+    await angler.delete('/api/me/push').send({ endpoint: phone.endpoint }).expect(204)
+    await angler.delete(`/api/watches/${pushed.id}`).expect(204)
   })
 
   it('lists alerts for admins', async () => {
