@@ -4,6 +4,9 @@ import { localConnection } from '../server/cli/local-config'
 import { loadEnv, publicOrigin } from '../server/env'
 import { smtpMailer, type MailContext } from '../server/features/mail/mailer'
 import { createLogger, type Logger } from '../server/logger'
+import type { ChannelSender } from '../server/features/watch/send-alerts'
+import { webPushSender } from '../server/features/watch/push'
+import { localVapid } from '../server/cli/local-config'
 
 export interface JobContext {
   db: Db
@@ -12,6 +15,8 @@ export interface JobContext {
   mail: MailContext
   /** Signs the links the jobs put in e-mail (unsubscribe). */
   sessionSecret: string
+  /** Web Push for watch alerts; absent where no VAPID keys are set. */
+  push?: ChannelSender
 }
 
 /**
@@ -25,7 +30,8 @@ export function runFromCli(moduleUrl: string, job: (ctx: JobContext) => Promise<
   const log = createLogger(env.LOG_LEVEL)
   const db = createDb(databaseUrl, { max: 4, log })
   const mailer = smtpMailer(smtpUrl, env.MAIL_FROM)
-  job({ db, feedUrl, log, sessionSecret, mail: { mailer, origin: publicOrigin(env) } })
+  const push = webPushSender({ db, log, vapid: localVapid(env) })
+  job({ db, feedUrl, log, sessionSecret, push, mail: { mailer, origin: publicOrigin(env) } })
     .then((result) => log.info({ result }, 'job finished'))
     .catch((err: unknown) => {
       log.error({ err }, 'job failed')

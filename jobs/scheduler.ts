@@ -3,6 +3,7 @@ import type { Logger } from '../server/logger'
 import { INGEST_READINGS_CRON, runIngestReadings } from './ingest-readings'
 import { INGEST_WEATHER_CRON, runIngestWeather } from './ingest-weather'
 import type { JobContext } from './cli'
+import { runCheckWatches } from './check-watches'
 import { runRecomputeBanks } from './recompute-banks'
 import { runSendBriefs, SEND_BRIEFS_CRON } from './send-briefs'
 
@@ -26,9 +27,14 @@ export function startScheduler(ctx: JobContext): { stop: () => Promise<void> } {
     await done
     running.delete(done)
   }
+  // Watches are judged after each refresh of the lakes' days, which each ingest ends with.
+  const thenWatches = async (ingest: () => Promise<unknown>) => ({
+    ingest: await ingest(),
+    watches: await runCheckWatches(ctx),
+  })
   const jobs: [string, string, () => Promise<unknown>][] = [
-    ['ingest-readings', INGEST_READINGS_CRON, () => runIngestReadings(ctx)],
-    ['ingest-weather', INGEST_WEATHER_CRON, () => runIngestWeather(ctx)],
+    ['ingest-readings', INGEST_READINGS_CRON, () => thenWatches(() => runIngestReadings(ctx))],
+    ['ingest-weather', INGEST_WEATHER_CRON, () => thenWatches(() => runIngestWeather(ctx))],
     ['send-briefs', SEND_BRIEFS_CRON, () => runSendBriefs(ctx)],
   ]
   void guarded('recompute-banks', ctx.log, () => runRecomputeBanks(ctx))()

@@ -4,6 +4,7 @@ import cookieParser from 'cookie-parser'
 import express, { type RequestHandler } from 'express'
 import helmet from 'helmet'
 import type { Changes } from './db/changes'
+import type { PushServer } from './fakes/push/index'
 import type { Db } from './db/index'
 import { auditRepo } from './features/audit/audit.repo'
 import { auditRoutes } from './features/audit/audit.routes'
@@ -55,6 +56,11 @@ import { stationsService } from './features/stations/stations.service'
 import { usersRepo } from './features/users/users.repo'
 import { usersRoutes } from './features/users/users.routes'
 import { usersService } from './features/users/users.service'
+import { pushRepo } from './features/watch/push.repo'
+import { pushRoutes } from './features/watch/push.routes'
+import { watchRepo } from './features/watch/watch.repo'
+import { watchRoutes } from './features/watch/watch.routes'
+import { watchService } from './features/watch/watch.service'
 import { errorHandler, notFound } from './http/errors'
 import { sameOrigin } from './http/origin'
 import { pageRoutes } from './http/pages'
@@ -97,6 +103,8 @@ export interface AppDeps {
   trustProxy?: boolean | number | string
   /** Object storage for catch photos; without it, photo uploads answer 503. */
   photos?: PhotoStore
+  /** Web Push: the VAPID public key browsers subscribe with; the local stand-in's catch in development. */
+  push?: { publicKey?: string; pushbox?: PushServer }
 }
 
 export function createApp(deps: AppDeps): express.Express {
@@ -204,6 +212,8 @@ export function createApp(deps: AppDeps): express.Express {
       }),
     ),
   )
+  api.use(watchRoutes(watchService({ repo: watchRepo(deps.db), linkKey }), watchRepo(deps.db)))
+  api.use(pushRoutes(pushRepo(deps.db), deps.push ?? {}))
   api.use(notFound)
   app.use('/api', api)
 

@@ -47,6 +47,16 @@ const Env = z.object({
   S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
   /** Port of the local S3 stand-in that npm start runs when S3_URL is unset. */
   S3_PORT: z.coerce.number().int().min(0).max(65535).default(4569),
+  /** Web Push (VAPID, RFC 8292) keys, base64url; generated into .data/ locally when unset. */
+  VAPID_PUBLIC_KEY: z.string().min(40).optional(),
+  VAPID_PRIVATE_KEY: z.string().min(20).optional(),
+  /** Who runs the server, for push services: a mailto: or https: URL. */
+  VAPID_SUBJECT: z
+    .string()
+    .regex(/^(mailto:|https:)/)
+    .default('mailto:alerts@chopline.example'),
+  /** Port of the local push stand-in that npm start runs. */
+  PUSH_PORT: z.coerce.number().int().min(0).max(65535).default(3200),
   CHOPLINE_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
 })
 export type Env = z.infer<typeof Env>
@@ -88,4 +98,15 @@ export function allowedOrigins(env: Env): string[] {
   const loopback = ['127.0.0.1', 'localhost', '::1', '[::1]'].includes(env.HOST)
   const hosts = loopback ? ['127.0.0.1', 'localhost', '[::1]'] : [env.HOST]
   return hosts.map((host) => `http://${host}:${env.PORT}`)
+}
+
+/** The VAPID keys from the environment, or null when push is not set up there. */
+export function vapidFromEnv(env: Env) {
+  return env.VAPID_PUBLIC_KEY && env.VAPID_PRIVATE_KEY
+    ? {
+        publicKey: env.VAPID_PUBLIC_KEY,
+        privateKey: env.VAPID_PRIVATE_KEY,
+        subject: env.VAPID_SUBJECT,
+      }
+    : null
 }

@@ -4,11 +4,12 @@ import { createApp, type AppDeps } from './app'
 import { watchChanges } from './db/changes'
 import { createDb } from './db/index'
 import { migrateDb } from './db/migrate'
-import { loadEnv, s3Settings } from './env'
+import { loadEnv, s3Settings, vapidFromEnv } from './env'
 import { createAppServer } from './http/server'
 import { createLogger } from './logger'
 import { smtpMailer } from './features/mail/mailer'
 import { photoStore } from './features/journal/photo-store'
+import { webPushSender } from './features/watch/push'
 import { startScheduler } from '../jobs/scheduler'
 
 export const clientDir = fileURLToPath(new URL('../dist', import.meta.url))
@@ -70,6 +71,8 @@ async function main() {
   const mail = { mailer: smtpMailer(SMTP_URL, env.MAIL_FROM), origin: APP_ORIGIN }
   const s3 = s3Settings(env)
   const photos = s3 && photoStore(s3)
+  // Watch alerts go by push only where VAPID keys are set; by mail everywhere.
+  const vapid = vapidFromEnv(env)
   // Jobs run in every instance; each run takes a PostgreSQL lock, so one instance does the work.
   const scheduler = startScheduler({
     db,
@@ -77,6 +80,7 @@ async function main() {
     log: logger,
     mail,
     sessionSecret: SESSION_SECRET,
+    push: vapid ? webPushSender({ db, log: logger, vapid }) : undefined,
   })
   await serve({
     db,
@@ -91,6 +95,7 @@ async function main() {
     feedUrl: FEED_URL,
     mail,
     photos,
+    push: { publicKey: vapid?.publicKey },
     onClose: async () => {
       await scheduler.stop()
       mail.mailer.close()

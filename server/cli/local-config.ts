@@ -3,7 +3,8 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { clusterUrl } from '../db/cluster'
-import type { Env } from '../env'
+import { vapidFromEnv, type Env } from '../env'
+import { generateVapid, type Vapid } from '../features/watch/push'
 
 export const dataDir = fileURLToPath(new URL('../../.data', import.meta.url))
 
@@ -36,4 +37,15 @@ export function localConnection(env: Env) {
     smtpUrl: env.SMTP_URL ?? `smtp://127.0.0.1:${env.SMTP_PORT}`,
     sessionSecret: env.SESSION_SECRET ?? localSecret('session-secret', 48),
   }
+}
+
+/** The VAPID keys from the environment, or made once and kept in .data/vapid.json. */
+export function localVapid(env: Env): Vapid {
+  const fromEnv = vapidFromEnv(env)
+  if (fromEnv) return fromEnv
+  mkdirSync(dataDir, { recursive: true, mode: 0o755 })
+  const file = join(dataDir, 'vapid.json')
+  if (!existsSync(file))
+    writeFileSync(file, JSON.stringify(generateVapid(env.VAPID_SUBJECT)), { mode: 0o600 })
+  return { ...(JSON.parse(readFileSync(file, 'utf8')) as Vapid), subject: env.VAPID_SUBJECT }
 }

@@ -1,6 +1,6 @@
 import { join } from 'node:path'
 import { startCluster, type Cluster } from '../db/cluster'
-import { dataDir, localDatabase, localSecret } from './local-config'
+import { dataDir, localDatabase, localSecret, localVapid } from './local-config'
 import { createDb, type Db } from '../db/index'
 import { migrateDb } from '../db/migrate'
 import { count } from 'drizzle-orm'
@@ -18,8 +18,14 @@ import { allowedOrigins, loadEnv, publicOrigin, s3Settings, type Env } from '../
 import { startMailServer } from '../fakes/mail/index'
 import { startS3Server } from '../fakes/s3/index'
 import { photoStore } from '../features/journal/photo-store'
+import { startPushServer } from '../fakes/push/index'
+import { webPushSender } from '../features/watch/push'
+import { pushRepo } from '../features/watch/push.repo'
+import { users } from '../db/schema/index'
+import { eq } from 'drizzle-orm'
 import { smtpMailer } from '../features/mail/mailer'
 import { runSendBriefs } from '../../jobs/send-briefs'
+import { runCheckWatches } from '../../jobs/check-watches'
 import { serve, type ServeOptions } from '../index'
 import { createLogger } from '../logger'
 
@@ -54,7 +60,13 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
   const feedUrl = env.FEED_URL ?? fakeFeed!.url
   const mailer = smtpMailer(env.SMTP_URL ?? fakeSmtp!.url, env.MAIL_FROM)
   const mail = { mailer, origin: publicOrigin(env) }
-  const ctx = { db, feedUrl, log, mail, sessionSecret }
+  // Browsers subscribe through their own push service; the stand-in takes what goes to its
+  // endpoints, such as the demo angler's device below, so admins see pushes beside the mail.
+  const vapid = localVapid(env)
+  const fakePush = await startPushServer({ port: env.PUSH_PORT })
+  const push = webPushSender({ db, log, vapid })
+  const ctx = { db, feedUrl, log, mail, sessionSecret, push }
+  await demoDevice(db, fakePush)
   const scheduler = startScheduler(ctx)
   void (async () => {
     const [row] = await db.select({ n: count() }).from(readings)
@@ -66,6 +78,7 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
     await runIngestReadings(ctx)
     await runIngestWeather(ctx)
     log.info('readings and weather are up to date')
+    log.info({ result: await runCheckWatches(ctx) }, 'bank watches judged')
     log.info({ result: await runSendBriefs(ctx) }, 'morning briefs due now sent')
   })().catch((err: unknown) => log.error({ err }, 'first ingestion failed'))
   return {
@@ -73,8 +86,10 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
     mail,
     mailbox: fakeSmtp,
     photos,
+    push: { publicKey: vapid.publicKey, pushbox: fakePush },
     stop: async () => {
       await scheduler.stop()
+      await fakePush.close()
       mailer.close()
       photos.close()
       await fakeS3?.close()
@@ -82,6 +97,15 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
       await fakeFeed?.close()
     },
   }
+}
+
+/** The demo angler's stand-in device: a fresh subscription at the push stand-in on each start. */
+async function demoDevice(db: Db, pushServer: Awaited<ReturnType<typeof startPushServer>>) {
+  const [angler] = await db
+    .select({ id: users.id })
+    .from(users)
+    .where(eq(users.email, DEMO_USERS.find((u) => u.role === 'angler')!.email))
+  if (angler) await pushRepo(db).save(angler.id, pushServer.subscribe())
 }
 
 /**
@@ -143,6 +167,7 @@ export async function serveLocal(
       mail: services.mail,
       mailbox: services.mailbox,
       photos: services.photos,
+      push: services.push,
       onClose: async () => {
         await services.stop()
         await close?.()

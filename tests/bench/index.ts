@@ -5,6 +5,7 @@ const benches: Record<string, () => Promise<unknown>> = {
   exposure: () => import('./exposure'),
   ingest: () => import('./ingest'),
   outline: () => import('./outline'),
+  watch: () => import('./watch'),
 }
 
 const name = process.argv[2]

@@ -106,6 +106,18 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'GET /journal/insights': signedIn,
   'GET /journal/photos/:id/:size': signedIn,
   'GET /shared/trips/:token/photos/:id/:size': anyone,
+  'GET /watches': signedIn,
+  'POST /watches': signedIn,
+  'PUT /watches/:id': bankOwner,
+  'PATCH /watches/:id': bankOwner,
+  'DELETE /watches/:id': bankOwner,
+  'POST /watch/unsubscribe': anyone,
+  'GET /watch/unsubscribe': anyone,
+  'GET /admin/alerts': admins,
+  'GET /push/key': signedIn,
+  'PUT /me/push': signedIn,
+  'DELETE /me/push': signedIn,
+  'GET /admin/pushbox': admins,
 }
 
 type Layer = {
@@ -166,6 +178,15 @@ describe('the authorization matrix', () => {
       const clientBody = { name: 'Matrix Client', email: 'client@matrix.test' }
       const client = (await agents.guide.post('/api/guide/clients').send(clientBody).expect(201))
         .body.id as string
+      const watchBody = {
+        name: 'Matrix watch',
+        lakeSlug: lake!.slug,
+        bankId: bank,
+        conditions: {},
+        channels: ['push'],
+      }
+      const watch = (await agents.guide.post('/api/watches').send(watchBody).expect(201)).body
+        .id as string
       const today = new Date().toISOString().slice(0, 10)
       // A link lasts at most a year.
       const expiresOn = addDays(today, 30)
@@ -210,9 +231,11 @@ describe('the authorization matrix', () => {
                   ? client
                   : path.startsWith('/guide/trips')
                     ? trip
-                    : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
-                      ? '1'
-                      : targetId,
+                    : path.startsWith('/watches')
+                      ? watch
+                      : path.startsWith('/admin/mailbox') || path.startsWith('/admin/quarantine')
+                        ? '1'
+                        : targetId,
           )
       /** Valid bodies where a route checks ownership after the body: otherwise validation answers first. */
       const bodies: Record<string, object> = {
@@ -224,6 +247,8 @@ describe('the authorization matrix', () => {
         'POST /guide/trips/:id/shares/:shareId/send': { clientIds: [client] },
         'PATCH /admin/users/:id': { role: 'angler' },
         'PUT /journal/catches/:id': catchBody,
+        'PUT /watches/:id': watchBody,
+        'PATCH /watches/:id': { active: true },
       }
       const body = (method: string, path: string) => bodies[`${method} ${path}`] ?? {}
 

@@ -41,7 +41,7 @@ export async function verifySessionToken(
 }
 
 /** What a signed link may do; a token made for one purpose is refused for every other. */
-export type LinkPurpose = 'verify-email' | 'brief-unsubscribe' | 'trip-share'
+export type LinkPurpose = 'verify-email' | 'brief-unsubscribe' | 'trip-share' | 'watch-unsubscribe'
 
 /**
  * A token for a link in an e-mail: signed with the app's key, bound to one purpose (the JWT

@@ -77,7 +77,11 @@ describe('TheAppShell', () => {
   it('has no “More” for an angler, whose three links always fit', async () => {
     const { wrapper } = await mountShell('angler')
     unmount = () => wrapper.unmount()
-    expect(wrapper.findAll('.shell-nav > a').map((a) => a.text())).toEqual(['Lakes', 'Journal', 'Settings'])
+    expect(wrapper.findAll('.shell-nav > a').map((a) => a.text())).toEqual([
+      'Lakes',
+      'Journal',
+      'Settings',
+    ])
     expect(wrapper.find('button.more-button').exists()).toBe(false)
   })
 })
