@@ -27,6 +27,9 @@ export default defineConfig({
           include: ['tests/server/**/*.test.ts'],
           // A throwaway cluster per run; each test file copies its template database.
           globalSetup: ['tests/setup/postgres.ts'],
+          // Whole days run through the jobs and the database: room for a busy two-core machine.
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
         },
       },
       {
