@@ -42,6 +42,20 @@ const TackleCallView = z.object({
   ruleIds: z.array(z.string()),
 })
 
+/** The angler's own log beside a window's tackle calls (`withYourLog`); null with too few catches. */
+export const YourLogView = z.object({
+  count: z.number().int(),
+  of: z.number().int(),
+  familyCount: z.number().int(),
+  family: z.string(),
+  blade: z.enum(['colorado', 'willow', 'indiana', 'willow-colorado', 'double-willow']).nullable(),
+  clarity: z.enum(CLARITY_CLASSES),
+  phase: z.enum(SEASONAL_PHASES),
+  waterBandC: z.tuple([z.number().nullable(), z.number().nullable()]),
+  timeOfDay: z.enum(['dawn', 'midday', 'afternoon']).nullable(),
+  leads: z.boolean(),
+})
+
 const WindowPlanView = z.object({
   id: z.enum(['dawn', 'midday', 'afternoon']),
   label: z.string(),
@@ -73,6 +87,8 @@ const WindowPlanView = z.object({
   tackle: z.array(TackleCallView),
   cautions: z.array(CautionView),
   verdict: VerdictView.nullable(),
+  /** Set only on a signed-in angler's plan. */
+  yourLog: YourLogView.nullable().optional(),
 })
 
 /** The Day plan screen: a lake's cached day with the signed-in angler's banks ranked in it. */

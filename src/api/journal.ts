@@ -1,4 +1,5 @@
 import type {
+  CatchImportReport,
   CatchInput,
   CatchList,
   CatchView,
@@ -23,5 +24,14 @@ export const journalApi = {
       body: upload(file),
       query: { lake },
     }),
+  /** A preview (nothing saved) unless `commit`. */
+  importCsv: (file: File, commit: boolean) =>
+    apiRequest<CatchImportReport>('/journal/import', {
+      method: 'POST',
+      body: upload(file),
+      query: { commit: String(commit) },
+    }),
+  /** Where the browser downloads the journal as CSV. */
+  exportUrl: '/api/journal/export.csv',
   insights: (query: InsightsQuery) => apiRequest<Insights>('/journal/insights', { query }),
 }

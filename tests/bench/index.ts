@@ -4,6 +4,7 @@ const benches: Record<string, () => Promise<unknown>> = {
   dashboard: () => import('./dashboard'),
   exposure: () => import('./exposure'),
   ingest: () => import('./ingest'),
+  journal: () => import('./journal'),
   outline: () => import('./outline'),
   watch: () => import('./watch'),
 }

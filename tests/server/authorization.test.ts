@@ -104,6 +104,8 @@ const MATRIX: Record<string, Record<Who, Expect>> = {
   'GET /shared/trips/:token/catches': anyone,
   'POST /journal/photos': signedIn,
   'GET /journal/insights': signedIn,
+  'GET /journal/export.csv': signedIn,
+  'POST /journal/import': signedIn,
   'GET /journal/photos/:id/:size': signedIn,
   'GET /shared/trips/:token/photos/:id/:size': anyone,
   'GET /watches': signedIn,

@@ -20,6 +20,11 @@ import { profileRepo } from '../../server/features/guides/profile.repo'
 import { tripsRepo } from '../../server/features/guides/trips.repo'
 import { tripsService } from '../../server/features/guides/trips.service'
 import type { MailContext } from '../../server/features/mail/mailer'
+import { DEMO_SEASON_DAYS } from '../../server/db/seed/demo-season'
+import { DEMO_FEED_SEED, DEMO_STATIONS } from '../../server/db/seed/demo-stations'
+import { LakeWorld } from '../../server/fakes/feed/model'
+import { journalRepo } from '../../server/features/journal/journal.repo'
+import { journalService } from '../../server/features/journal/journal.service'
 import { createTestDb } from '../helpers/db'
 
 /** A fixed clock for the seeded trips: mid-morning in the demo lakes' zone. */
@@ -137,5 +142,35 @@ describe('the lived-in demo (npm start)', () => {
     expect(upcoming!.guide).toEqual(DEMO_GUIDE_PROFILE)
     expect(past!.shares.filter(live)).toHaveLength(0)
     expect(past!.unavailable).toBe('This day has passed, and no plan was kept for it.')
+  })
+  it('gives the demo angler a season of catches on their banks, with patterns the insights show', async () => {
+    const angler = await userId('angler@chopline.test')
+    const rows = await journalRepo(ctx.db).all(angler)
+    // Run twice above: the season went in once.
+    expect(rows.length).toBeGreaterThan(60)
+    expect(rows.length).toBeLessThan(400)
+    const first = addDays(localDate(NOW, 'America/Chicago'), -DEMO_SEASON_DAYS - 1)
+    for (const r of rows) {
+      expect(r.catch.conditions!.localDate >= first).toBe(true)
+      expect(r.catch.caughtAt.getTime()).toBeLessThan(NOW.getTime())
+      expect(r.catch.bankId && r.bankName).toBeTruthy()
+    }
+    // The conditions are the local feed's own world at that moment.
+    const worlds = new Map(
+      [...new Map(DEMO_STATIONS.map((st) => [st.lake.slug, st.lake])).values()].map((l, i) => [
+        l.slug,
+        new LakeWorld(l, DEMO_FEED_SEED, i),
+      ]),
+    )
+    for (const r of rows.slice(0, 20))
+      expect(r.catch.conditions!.waterC).toBeCloseTo(
+        worlds.get(r.lakeSlug)!.waterC(r.catch.caughtAt.getTime()),
+        1,
+      )
+    const service = journalService({ repo: journalRepo(ctx.db) })
+    const found = await service.insights(angler, {})
+    const enough = found.dimensions.flatMap((d) => d.groups.filter((g) => g.enough))
+    expect(enough.length).toBeGreaterThan(5)
+    expect(new Set(rows.map((r) => r.catch.lure.family)).size).toBeGreaterThan(3)
   })
 })

@@ -8,6 +8,7 @@ import { addDays, localDate, localDayBounds } from '../../../shared/time'
 import { banksRepo } from '../../features/banks/banks.repo'
 import { banksService } from '../../features/banks/banks.service'
 import type { Db } from '../index'
+import { seedDemoSeason } from './demo-season'
 import {
   banks,
   clients,
@@ -138,7 +139,7 @@ async function saveBanks(
 
 /**
  * The lived-in part of the demo, for `npm start` and `npm run dev`: the demo angler follows every
- * demo lake and has banks on each; the guide has a profile, clients, banks, an upcoming trip shared
+ * demo lake, has banks on each and a season of catches (`seedDemoSeason`); the guide has a profile, clients, banks, an upcoming trip shared
  * by link and a past one. Idempotent: what exists is left alone.
  */
 export async function seedDemoLife(db: Db, now = new Date()): Promise<void> {
@@ -161,6 +162,8 @@ export async function seedDemoLife(db: Db, now = new Date()): Promise<void> {
       )
       .onConflictDoNothing()
     for (const lake of demoLakes) await saveBanks(db, angler.id, lake, ANGLER_BANKS)
+    // A season of catches on those banks, so the insights and the Day plan's log have something.
+    await seedDemoSeason(db, angler.id, now)
   }
   if (!guide) return
 

@@ -20,6 +20,7 @@ import { makeFormat, type Format } from '../../../shared/format'
 import type { BriefUnits } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { dateLabel } from '../../../shared/time'
+import { logLine, withYourLog, type LogCatch, type YourLog } from '../../../shared/journal/feedback'
 import { mailTemplate } from '../mail/render'
 
 /** A followed lake as the brief sees it: cached read and day, and this subscriber's banks there. */
@@ -38,6 +39,8 @@ export interface BriefInput {
   date: string
   units: BriefUnits
   lakes: BriefLake[]
+  /** The subscriber's own catches; where enough match a day, a line beside the tackle. */
+  log?: LogCatch[]
   /** The app's public origin, for links. */
   origin: string
   unsubscribeUrl: string
@@ -100,7 +103,8 @@ interface WindowSection {
   banks: { rank: number; name: string; exposure: string; reason: string }[]
   /** Where to start when no banks are saved on this lake. */
   suggestion: string | null
-  tackle: { call: string; why: string } | null
+  /** The best call, and the subscriber's log beside it when it holds enough similar catches. */
+  tackle: { call: string; why: string; yourLog: string | null } | null
   /** The earlier window whose banks and tackle this one repeats, which are then left out. */
   sameAs: string | null
 }
@@ -188,8 +192,8 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
       cautions: [],
     }
   }
-  const plan = planForBanks(lake.day, lake.banks)
-  const windows = plan.windows.map((w: WindowPlan): WindowSection => {
+  const plan = withYourLog(planForBanks(lake.day, lake.banks), input.log ?? [])
+  const windows = plan.windows.map((w: WindowPlan & { yourLog: YourLog | null }): WindowSection => {
     const hours = `${f.time(w.start, lake.timeZone)} – ${f.time(w.end, lake.timeZone)}`
     const none = { banks: [], suggestion: null, tackle: null, sameAs: null }
     if (!w.weather)
@@ -221,7 +225,13 @@ function lakeSection(lake: BriefLake, input: BriefInput, f: Format): LakeSection
         }
       }),
       suggestion: lake.banks.length ? null : lakeWideSuggestion(w),
-      tackle: best ? { call: tackleLine(best, f), why: f.prose(best.why.join(' ')) } : null,
+      tackle: best
+        ? {
+            call: tackleLine(best, f),
+            why: f.prose(best.why.join(' ')),
+            yourLog: w.yourLog && logLine(w.yourLog, f),
+          }
+        : null,
       sameAs: null,
     }
   })

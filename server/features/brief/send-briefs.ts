@@ -1,10 +1,12 @@
 import pLimit from 'p-limit'
 import type { Bank } from '../../../shared/conditions/ranking'
+import type { LogCatch } from '../../../shared/journal/feedback'
 import { DAY_MS } from '../../../shared/time'
 import type { Db } from '../../db/index'
 import type { Logger } from '../../logger'
 import { signLinkToken, type TokenKey } from '../auth/auth.tokens'
 import { backoffMs } from '../ingest/feed-client'
+import { logCatches } from '../journal/your-log'
 import { isPermanentMailError, type MailContext } from '../mail/mailer'
 import { briefSendsRepo, type CachedLake, type Claim, type Recipient } from './brief-sends.repo'
 import { composeBrief, renderBrief } from './compose'
@@ -87,7 +89,12 @@ export async function sendBriefs(deps: BriefDeps) {
     )
   }
 
-  async function deliver(claim: Claim, to: Recipient, banks: Map<string, Bank[]>) {
+  async function deliver(
+    claim: Claim,
+    to: Recipient,
+    banks: Map<string, Bank[]>,
+    logs: Map<string, LogCatch[]>,
+  ) {
     const { origin } = deps.mail
     const token = await signLinkToken(deps.linkKey, {
       purpose: 'brief-unsubscribe',
@@ -102,6 +109,7 @@ export async function sendBriefs(deps: BriefDeps) {
           units: to.units,
           origin,
           unsubscribeUrl: `${origin}/unsubscribe?token=${token}`,
+          log: logs.get(to.userId) ?? [],
           lakes: to.lakeIds.map((lakeId) => ({
             ...lakes.get(`${lakeId} ${claim.localDate}`)!,
             banks: banks.get(`${to.userId} ${lakeId}`) ?? [],
@@ -135,7 +143,11 @@ export async function sendBriefs(deps: BriefDeps) {
   async function deliverBatch(claims: Claim[]) {
     const userIds = claims.map((c) => c.userId)
     const recipients = new Map((await repo.recipients(userIds)).map((r) => [r.userId, r]))
-    const [, bankRows] = await Promise.all([loadLakes(claims, recipients), repo.banks(userIds)])
+    const [, bankRows, logs] = await Promise.all([
+      loadLakes(claims, recipients),
+      repo.banks(userIds),
+      logCatches(deps.db, userIds),
+    ])
     const banks = new Map<string, Bank[]>()
     for (const { userId, lakeId, depthM, ...bank } of bankRows) {
       const key = `${userId} ${lakeId}`
@@ -148,7 +160,7 @@ export async function sendBriefs(deps: BriefDeps) {
         limit(async () => {
           const to = recipients.get(claim.userId)
           // Gone since the claim (account deleted): nothing to send, and the row went with it.
-          if (to) await deliver(claim, to, banks)
+          if (to) await deliver(claim, to, banks, logs)
         }),
       ),
     )

@@ -1,4 +1,5 @@
 import { lakeDay, PLAN_DAYS, planForBanks } from '../../../shared/conditions/day-plan'
+import { withYourLog, type LogCatch } from '../../../shared/journal/feedback'
 import type { DayPlanResponse } from '../../../shared/schemas/day-plan'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { addDays, localDate, localDayBounds, zonedMidnight } from '../../../shared/time'
@@ -13,6 +14,7 @@ import {
   withStaleFlags,
   type LakeReadService,
 } from '../lakes/lake-read.service'
+import { logCatches } from '../journal/your-log'
 import { conditionsRepo, type ConditionsRepo } from './conditions.repo'
 
 export { PLAN_DAYS }
@@ -53,6 +55,8 @@ export function conditionsService(deps: {
   repo: ConditionsRepo
   reads: LakeReadService
   changes?: Changes
+  /** The angler's catches in a day's clarity and phase, for the log's line beside the tackle. */
+  logOf?: (userId: string, day: { clarity: string; phase: string }) => Promise<LogCatch[]>
 }) {
   const { repo, reads, changes } = deps
 
@@ -117,7 +121,9 @@ export function conditionsService(deps: {
       view = (await repo.planView(slug, date, userId))!
     }
     const banks = view.banks.map((b) => ({ ...b, depthM: b.depthM ?? undefined }))
-    const ranked = view.day ? planForBanks(view.day, banks) : null
+    const planned = view.day ? planForBanks(view.day, banks) : null
+    const ranked =
+      planned && deps.logOf ? withYourLog(planned, await deps.logOf(userId, planned)) : planned
     const response: DayPlanResponse = {
       lake: { slug: view.slug, name: view.name, timeZone: view.time_zone },
       date,
@@ -144,8 +150,8 @@ export function conditionsService(deps: {
     { maxSize: 32 * 2 ** 20, sizeCalculation: (kept) => kept.answer.body.length },
     (change, kept) => {
       if (refreshed.has(change.table)) kept.clear()
-      // Keys start with the angler's id: a bank notice names its angler.
-      else if (change.table === 'banks')
+      // Keys start with the angler's id: a bank or catch notice names its angler (the log's line).
+      else if (change.table === 'banks' || change.table === 'catches')
         for (const key of kept.keys()) if (key.startsWith(`${change.key} `)) kept.delete(key)
     },
   )
@@ -218,5 +224,6 @@ export function conditionsFor(db: Db, changes?: Changes): ConditionsService {
     repo: conditionsRepo(db),
     reads: lakeReadService(lakeReadRepo(db)),
     changes,
+    logOf: async (userId, day) => (await logCatches(db, [userId], day)).get(userId) ?? [],
   })
 }

@@ -123,6 +123,14 @@ export function journalRepo(db: Db) {
           throw err
         })
     },
+    /** Catches of an import, all in one transaction. */
+    async insertAll(userId: string, values: CatchValues[]) {
+      if (!values.length) return
+      await db.transaction(async (tx) => {
+        for (let i = 0; i < values.length; i += 500)
+          await tx.insert(catches).values(values.slice(i, i + 500).map((v) => ({ ...v, userId })))
+      })
+    },
     async update(userId: string, id: string, values: CatchValues) {
       const [row] = await db
         .update(catches)

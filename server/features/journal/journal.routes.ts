@@ -1,5 +1,6 @@
 import { Router, type Response } from 'express'
 import {
+  CatchImportQuery,
   CatchInput,
   CatchListQuery,
   CatchParams,
@@ -16,6 +17,8 @@ import type { JournalService } from './journal.service'
 
 /** A phone's photo is 2-8 MB; past this it is not a photo of a fish. */
 export const MAX_PHOTO_BYTES = 12 * 1024 * 1024
+/** A season's journal is a few hundred rows; 2,000 rows with notes fit well inside this. */
+export const MAX_IMPORT_BYTES = 1024 * 1024
 const PHOTO_TYPES = ['.jpg', '.jpeg', '.png', '.webp']
 
 function sendPhoto(res: Response, data: Buffer) {
@@ -35,6 +38,25 @@ export function journalRoutes(journal: JournalService): Router {
     .post(requireSignIn, validate({ body: CatchInput }), async (req, res) => {
       res.status(201).json(await journal.create(currentUser(req), input(CatchInput, req.body)))
     })
+  router.get('/journal/export.csv', requireSignIn, async (req, res) => {
+    const csv = await journal.exportCsv(currentUser(req).id)
+    res.setHeader('cache-control', 'private, no-store')
+    res.setHeader('content-disposition', 'attachment; filename="chopline-journal.csv"')
+    // A byte-order mark, so a spreadsheet reads the file as UTF-8.
+    res.type('text/csv; charset=utf-8').send(`\uFEFF${csv}\r\n`)
+  })
+  router.post(
+    '/journal/import',
+    requireSignIn,
+    singleUpload({ maxBytes: MAX_IMPORT_BYTES, extensions: ['.csv'] }),
+    validate({ query: CatchImportQuery }),
+    async (req, res) => {
+      const commit = input(CatchImportQuery, req.query).commit === 'true'
+      const text = req.file!.buffer.toString('utf8')
+      const report = await journal.importCsv(currentUser(req), text, commit)
+      res.status(commit ? 201 : 200).json(report)
+    },
+  )
   router.get(
     '/journal/insights',
     requireSignIn,

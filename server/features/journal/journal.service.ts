@@ -1,22 +1,33 @@
 import { randomUUID } from 'node:crypto'
+import Papa from 'papaparse'
+import {
+  CATCH_CSV_COLUMNS,
+  CATCH_CSV_CONDITIONS,
+  CATCH_CSV_REQUIRED,
+  catchCsvRow,
+  csvBoolean,
+  csvNumber,
+  unescapeCell,
+} from '../../../shared/journal/csv'
 import { nearestBank } from '../../../shared/geo/nearest'
 import { insights, MIN_SAMPLE, seasonOf } from '../../../shared/journal/insights'
 import { roleAllows } from '../../../shared/roles'
 import type { User } from '../../../shared/schemas/auth'
-import type {
-  CatchConditions,
+import {
   CatchInput,
-  CatchList,
-  CatchListQuery,
-  CatchView,
-  Insights,
-  InsightsQuery,
-  PhotoUpload,
-  PhotoView,
+  type CatchConditions,
+  type CatchImportReport,
+  type CatchList,
+  type CatchListQuery,
+  type CatchView,
+  type Insights,
+  type InsightsQuery,
+  type PhotoUpload,
+  type PhotoView,
 } from '../../../shared/schemas/journal'
 import { processPhoto, takenInstant } from './photo-process'
 import type { PhotoStore } from './photo-store'
-import { HttpError } from '../../http/errors'
+import { fieldMessages, HttpError } from '../../http/errors'
 import type { CatchListRow, CatchValues, JournalRepo } from './journal.repo'
 import type { LakeRow } from '../lakes/lake-read.repo'
 
@@ -26,6 +37,34 @@ const EARLIEST = Date.parse('1990-01-01T00:00:00Z')
 
 const invalid = (field: string, message: string) =>
   new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
+/** At most this many rows in one import. */
+export const MAX_CATCH_IMPORT_ROWS = 2000
+
+/** A CatchInput field's CSV column, for an import's per-row messages. */
+const COLUMN_OF: Record<string, string> = {
+  lakeSlug: 'lake',
+  caughtAt: 'caught_at',
+  species: 'species',
+  lengthM: 'length_cm',
+  weightKg: 'weight_kg',
+  released: 'released',
+  'lure.family': 'lure',
+  'lure.blade': 'blade',
+  'lure.color': 'color',
+  'lure.size': 'size',
+  'lure.trailer': 'trailer',
+  'lure.trailerHook': 'trailer_hook',
+  'lure.retrieve': 'retrieve',
+  bankId: 'bank',
+  note: 'note',
+}
+const byColumn = (fields: Record<string, string>) =>
+  Object.fromEntries(Object.entries(fields).map(([k, v]) => [COLUMN_OF[k] ?? '_', v]))
+
+/** The same fish twice: a re-imported export is found, not doubled. */
+const sameFish = (caughtAt: Date, lakeSlug: string, species: string, family: string) =>
+  `${caughtAt.getTime()} ${lakeSlug} ${species} ${family.trim().toLowerCase()}`
+
 const noCatch = () => new HttpError(404, 'not_found', 'No such catch in your journal.')
 
 /** Where a photo's copies are served from, for its angler or for a trip's clients. */
@@ -79,12 +118,8 @@ export function journalService(deps: JournalDeps) {
   const { repo } = deps
   const now = () => deps.now?.() ?? new Date()
 
-  /** Checks what a catch names (lake, bank, trip, photo) and works out its conditions. */
-  async function values(
-    user: User,
-    input: CatchInput,
-    exceptCatchId?: string,
-  ): Promise<CatchValues> {
+  /** Checks what a catch names (lake, bank, trip, photo); throws a 400 naming the field. */
+  async function check(user: User, input: CatchInput, exceptCatchId?: string) {
     const lake = await repo.lakeBySlug(input.lakeSlug)
     if (!lake) throw invalid('lakeSlug', 'No such lake.')
     const caughtAt = new Date(input.caughtAt)
@@ -103,6 +138,16 @@ export function journalService(deps: JournalDeps) {
       if (!photo || (photo.catchId && photo.catchId !== exceptCatchId))
         throw invalid('photoId', 'Upload the photo again.')
     }
+    return { lake, caughtAt, bank }
+  }
+
+  /** A checked catch with its conditions worked out. */
+  async function values(
+    user: User,
+    input: CatchInput,
+    exceptCatchId?: string,
+  ): Promise<CatchValues> {
+    const { lake, caughtAt, bank } = await check(user, input, exceptCatchId)
     const conditions = (await deps.conditionsAt?.(lake, caughtAt, bank ?? null)) ?? null
     return {
       lakeId: lake.id,
@@ -149,6 +194,137 @@ export function journalService(deps: JournalDeps) {
     },
 
     get: view,
+
+    /** The angler's whole journal as CSV, oldest first, every cell safe to open in a spreadsheet. */
+    async exportCsv(userId: string): Promise<string> {
+      const rows = (await repo.all(userId)).map((r) => catchCsvRow(toCatchView(r)))
+      return Papa.unparse(
+        { fields: [...CATCH_CSV_COLUMNS, ...CATCH_CSV_CONDITIONS], data: rows },
+        { newline: '\r\n' },
+      )
+    },
+
+    /**
+     * A CSV of catches (the export's columns; conditions are worked out again, never read), checked
+     * row by row against the same rules as the form, the angler's banks by name, and the journal
+     * (the same fish twice is refused). A preview changes nothing; an import adds every row or, if
+     * any row is bad, none.
+     */
+    async importCsv(user: User, csv: string, commit: boolean): Promise<CatchImportReport> {
+      const parsed = Papa.parse<Record<string, string>>(csv.replace(/^\uFEFF/, ''), {
+        header: true,
+        skipEmptyLines: 'greedy',
+        transformHeader: (h) => h.trim().toLowerCase(),
+      })
+      const columns = parsed.meta.fields ?? []
+      const missing = CATCH_CSV_REQUIRED.filter((c) => !columns.includes(c))
+      if (missing.length)
+        throw new HttpError(400, 'bad_csv', `The header row needs ${missing.join(', ')}.`, {
+          file: `The first row must name the columns: ${CATCH_CSV_COLUMNS.join(', ')}.`,
+        })
+      if (parsed.data.length > MAX_CATCH_IMPORT_ROWS)
+        throw new HttpError(
+          400,
+          'bad_csv',
+          `Import at most ${MAX_CATCH_IMPORT_ROWS} catches at a time.`,
+          { file: `Split the file: at most ${MAX_CATCH_IMPORT_ROWS} rows.` },
+        )
+      const banks = await repo.banks(user.id)
+      const known = new Set(
+        (await repo.all(user.id)).map((r) =>
+          sameFish(r.catch.caughtAt, r.lakeSlug, r.catch.species, r.catch.lure.family),
+        ),
+      )
+      const lakes = new Map<string, boolean>()
+      const lakeKnown = async (slug: string) => {
+        if (!lakes.has(slug)) lakes.set(slug, !!(await repo.lakeBySlug(slug)))
+        return lakes.get(slug)
+      }
+      const seen = new Map<string, number>()
+      const good: CatchInput[] = []
+      const rows = []
+      for (const [i, raw] of parsed.data.entries()) {
+        const line = i + 2 // line 1 is the header
+        const values = Object.fromEntries(
+          CATCH_CSV_COLUMNS.map((c) => [c, unescapeCell((raw[c] ?? '').toString().trim())]),
+        ) as Record<(typeof CATCH_CSV_COLUMNS)[number], string>
+        const errors: Record<string, string> = {}
+        const length = csvNumber(values.length_cm)
+        const weight = csvNumber(values.weight_kg)
+        const released = csvBoolean(values.released)
+        const trailerHook = csvBoolean(values.trailer_hook)
+        const bank = values.bank
+          ? banks.find(
+              (b) =>
+                b.lakeSlug === values.lake && b.name.toLowerCase() === values.bank.toLowerCase(),
+            )
+          : null
+        if (Number.isNaN(length)) errors.length_cm = 'Give the length in centimetres, as a number.'
+        if (Number.isNaN(weight)) errors.weight_kg = 'Give the weight in kilograms, as a number.'
+        if (released === undefined || released === null)
+          errors.released = 'Say yes (released) or no (kept).'
+        if (trailerHook === undefined) errors.trailer_hook = 'Say yes, no, or leave it empty.'
+        if (bank === undefined) errors.bank = 'Not one of your banks on this lake.'
+        const result = CatchInput.safeParse({
+          lakeSlug: values.lake,
+          caughtAt: values.caught_at,
+          species: values.species.toLowerCase(),
+          lengthM: length === null || Number.isNaN(length) ? null : length / 100,
+          weightKg: Number.isNaN(weight) ? null : weight,
+          released: released ?? false,
+          lure: {
+            family: values.lure,
+            blade: values.blade ? values.blade.toLowerCase() : null,
+            color: values.color,
+            size: values.size,
+            trailer: values.trailer,
+            trailerHook: trailerHook ?? null,
+            retrieve: values.retrieve,
+          },
+          bankId: bank?.id ?? null,
+          note: values.note,
+        })
+        if (values.lake && !(await lakeKnown(values.lake))) errors.lake = 'No such lake.'
+        if (!result.success) Object.assign(errors, byColumn(fieldMessages(result.error)), errors)
+        else if (!Object.keys(errors).length) {
+          // Checked like the form: the lake's catch times, the trip; a bad one names its column.
+          try {
+            await check(user, result.data)
+            const key = sameFish(
+              new Date(result.data.caughtAt),
+              values.lake,
+              result.data.species,
+              result.data.lure.family,
+            )
+            if (known.has(key)) errors._ = 'Already in your journal.'
+            else if (seen.has(key)) errors._ = `The same fish as line ${seen.get(key)}.`
+            else good.push(result.data)
+            seen.set(key, seen.get(key) ?? line)
+          } catch (err) {
+            if (!(err instanceof HttpError) || !err.fields) throw err
+            Object.assign(errors, byColumn(err.fields))
+          }
+        }
+        for (const e of parsed.errors.filter((e) => e.row === i)) errors._ = e.message
+        rows.push({ line, values, errors })
+      }
+      const invalid = rows.filter((r) => Object.keys(r.errors).length).length
+      const report = { rows, valid: rows.length - invalid, invalid, imported: 0 }
+      if (!commit) return report
+      if (invalid || !rows.length)
+        throw new HttpError(
+          400,
+          'bad_csv',
+          rows.length
+            ? `${invalid} of ${rows.length} rows need attention; nothing was imported.`
+            : 'The file has no rows.',
+          { file: 'Fix the rows marked and upload the file again.' },
+        )
+      const all: CatchValues[] = []
+      for (const input of good) all.push(await values(user, input))
+      await repo.insertAll(user.id, all)
+      return { ...report, imported: all.length }
+    },
 
     /** What worked for this angler, by condition, on a lake and in a season if asked. */
     async insights(userId: string, query: InsightsQuery): Promise<Insights> {

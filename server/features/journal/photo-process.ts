@@ -71,19 +71,38 @@ export async function processPhoto(data: Buffer): Promise<ProcessedPhoto> {
       ? [gps.longitude, gps.latitude]
       : null
 
-  const copy = async (px: number, quality: number) => {
-    const { data: out, info } = await sharp(data, { limitInputPixels: MAX_INPUT_PIXELS })
+  // One decode: turned upright and brought down to the display size once, both copies encoded
+  // from those pixels (decoding a phone's 12-megapixel JPEG is most of the work).
+  const copies = async () => {
+    const upright = await sharp(data, { limitInputPixels: MAX_INPUT_PIXELS })
       .rotate()
-      .resize({ width: px, height: px, fit: 'inside', withoutEnlargement: true })
-      .jpeg({ quality, mozjpeg: true })
+      .resize({ width: DISPLAY_PX, height: DISPLAY_PX, fit: 'inside', withoutEnlargement: true })
+      .raw()
       .toBuffer({ resolveWithObject: true })
-    return { data: out, width: info.width, height: info.height }
+    const { width, height, channels } = upright.info
+    const pixels = () => sharp(upright.data, { raw: { width, height, channels } })
+    const encode = async (image: ReturnType<typeof sharp>, quality: number) => {
+      const { data: out, info } = await image
+        .jpeg({ quality, mozjpeg: true })
+        .toBuffer({ resolveWithObject: true })
+      return { data: out, width: info.width, height: info.height }
+    }
+    return Promise.all([
+      encode(pixels(), 82),
+      encode(
+        pixels().resize({
+          width: THUMB_PX,
+          height: THUMB_PX,
+          fit: 'inside',
+          withoutEnlargement: true,
+        }),
+        75,
+      ),
+    ])
   }
-  const [display, thumb] = await Promise.all([copy(DISPLAY_PX, 82), copy(THUMB_PX, 75)]).catch(
-    (err: unknown) => {
-      if (err instanceof HttpError) throw err
-      throw notImage()
-    },
-  )
+  const [display, thumb] = await copies().catch((err: unknown) => {
+    if (err instanceof HttpError) throw err
+    throw notImage()
+  })
   return { display, thumb, taken: local ? { local, offset } : null, position }
 }
