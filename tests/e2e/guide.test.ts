@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { expectAccessible } from '../helpers/axe'
 import { artifactsDir, CHROMIUM_ARGS } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
+import { openFromNav } from '../helpers/nav'
 import { signInAs } from '../helpers/signin'
 
 let e2e: E2e
@@ -19,14 +20,15 @@ describe('a guide shares a trip in Chromium', () => {
   it('creates a trip, shares it, the client opens it with no account, and revoking makes it 410', async () => {
     const page = await e2e.browser.context.newPage()
     await signInAs(page, base, 'guide@chopline.test')
-    await page.getByRole('link', { name: 'Clients' }).click()
+    // On a phone the guide's links are under "More".
+    await openFromNav(page, 'Clients')
     await page.getByLabel('Name').fill('Robin Tackle')
     await page.getByLabel('E-mail').fill('robin@client.test')
     await page.getByRole('button', { name: 'Add client' }).click()
     await page.getByText('Added Robin Tackle.').waitFor()
     await expectAccessible(page, 'Clients')
 
-    await page.getByRole('link', { name: 'Trips' }).click()
+    await openFromNav(page, 'Trips')
     await page.getByText('No trips yet').waitFor()
     // The name and contact clients see on every shared trip.
     await page.getByLabel('Your name, as clients see it').fill('Jory Wend')
