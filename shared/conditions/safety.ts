@@ -169,7 +169,7 @@ export const CAUTION_RULES: CautionRule[] = [
       caution:
         'A fall brings cold shock (1-10-1: about 1 minute to control breathing, 10 of useful movement, an hour before unconsciousness). Wear the life jacket and clip on the kill-switch lanyard.',
       warning:
-        'Cold water below 50 °F (10 °C): a fall brings cold shock within a minute (1-10-1). Wear the life jacket zipped, clip on the kill-switch lanyard, and do not fish alone.',
+        'Very cold water: a fall brings cold shock within a minute (1-10-1). Wear the life jacket zipped, clip on the kill-switch lanyard, and do not fish alone.',
       danger: GET_OFF,
     },
     source: '1-10-1 principle; 70 °F and 50 °F thresholds from memory',
