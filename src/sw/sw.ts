@@ -71,3 +71,28 @@ self.addEventListener('activate', (event) => {
       ),
   )
 })
+
+// Watch alerts by Web Push (PushPayload in shared/schemas/push.ts): shown, and opened on a tap.
+self.addEventListener('push', (event) => {
+  const alert = (event.data?.json() ?? null) as {
+    title: string
+    body: string
+    url: string
+    tag: string
+  } | null
+  if (!alert) return
+  event.waitUntil(
+    self.registration.showNotification(alert.title, {
+      body: alert.body,
+      tag: alert.tag,
+      icon: '/icons/icon-192.png',
+      data: { url: alert.url },
+    }),
+  )
+})
+
+self.addEventListener('notificationclick', (event) => {
+  event.notification.close()
+  const url = (event.notification.data as { url?: string } | null)?.url ?? '/watches'
+  event.waitUntil(self.clients.openWindow(url))
+})
