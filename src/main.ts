@@ -2,11 +2,14 @@ import { VueQueryPlugin } from '@tanstack/vue-query'
 import { createPinia } from 'pinia'
 import { createApp } from 'vue'
 import App from './App.vue'
+import { watchNetwork } from './offline/network'
 import { adoptPageBoot } from './pageBoot'
 import { queryClient } from './queryClient'
 import router from './router'
+import { useAuthStore } from './stores/auth'
 import './assets/main.css'
 
+watchNetwork()
 const pinia = createPinia()
 adoptPageBoot(pinia)
 const app = createApp(App)
@@ -14,3 +17,12 @@ app.use(pinia)
 app.use(router)
 app.use(VueQueryPlugin, { queryClient })
 app.mount('#app')
+// The service worker's code is not needed for the first page: it registers once the page is up.
+if (import.meta.env.PROD && 'serviceWorker' in navigator)
+  window.addEventListener(
+    'load',
+    () =>
+      void import('./offline/register').then((m) =>
+        m.registerServiceWorker(router, () => useAuthStore(pinia).signedIn),
+      ),
+  )

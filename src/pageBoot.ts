@@ -1,5 +1,6 @@
 import type { Pinia } from 'pinia'
-import { lakeReadQuery } from '@/api/lakes'
+import { lakeApiPaths, lakeReadQuery } from '@/api/lakes'
+import { answeredAt } from '@/offline/network'
 import { settingsQuery } from '@/api/settings'
 import { queryClient } from '@/queryClient'
 import { useAuthStore } from '@/stores/auth'
@@ -17,6 +18,8 @@ export function adoptPageBoot(pinia: Pinia) {
   const boot = JSON.parse(element.textContent) as PageBoot
   useAuthStore(pinia).adopt(boot.user)
   if (boot.settings) queryClient.setQueryData(settingsQuery.queryKey, boot.settings)
-  if (boot.lakeRead)
+  if (boot.lakeRead) {
     queryClient.setQueryData(lakeReadQuery(boot.lakeRead.lake.slug).queryKey, boot.lakeRead)
+    answeredAt.set(lakeApiPaths.read(boot.lakeRead.lake.slug), Date.now())
+  }
 }

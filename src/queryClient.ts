@@ -1,4 +1,4 @@
-import { QueryClient } from '@tanstack/vue-query'
+import { onlineManager, QueryClient } from '@tanstack/vue-query'
 import { ApiError } from '@/api/http'
 
 /**
@@ -8,6 +8,9 @@ import { ApiError } from '@/api/http'
  * A timeout (408) and too many requests (429) are worth another try.
  */
 export function retryUnlessClientError(failureCount: number, error: Error): boolean {
+  // Offline, nothing comes of asking again: the page says so, and refetches when the network is back.
+  if (error instanceof ApiError && error.code === 'offline' && !onlineManager.isOnline())
+    return false
   if (
     error instanceof ApiError &&
     error.status >= 400 &&
@@ -19,7 +22,10 @@ export function retryUnlessClientError(failureCount: number, error: Error): bool
   return failureCount < 3
 }
 
-/** The app's one query cache: the plugin serves it to components, the router prefetches into it. */
+/**
+ * The app's one query cache: the plugin serves it to components, the router prefetches into it.
+ * Queries ask even offline ('offlineFirst'): the service worker answers with what it kept.
+ */
 export const queryClient = new QueryClient({
-  defaultOptions: { queries: { retry: retryUnlessClientError } },
+  defaultOptions: { queries: { retry: retryUnlessClientError, networkMode: 'offlineFirst' } },
 })

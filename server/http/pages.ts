@@ -12,6 +12,7 @@ import type { Logger } from '../logger'
 import { HttpError } from './errors'
 
 const LAKE_READ_PATH = /^\/lakes\/([^/]+)\/?$/
+const NO_CACHE_FILES = /(?:^|[/\\])(?:sw\.js|manifest\.webmanifest|index\.html)$/
 
 interface PageDeps {
   staticDir: string
@@ -39,7 +40,17 @@ export function pageRoutes(deps: PageDeps): Router {
       fallthrough: false,
     }),
   )
-  router.use(express.static(deps.staticDir, { index: false, maxAge: '1h' }))
+  // The service worker, the app's manifest and the bare shell name the current build: a browser
+  // asks again each time (it then sees a new version at once), the rest may be kept an hour.
+  router.use(
+    express.static(deps.staticDir, {
+      index: false,
+      maxAge: '1h',
+      setHeaders: (res, path) => {
+        if (NO_CACHE_FILES.test(path)) res.setHeader('cache-control', 'no-cache')
+      },
+    }),
+  )
   router.get('/{*splat}', cookieParser(), async (req, res) => {
     const boot = await bootFor(req, deps).catch((err: unknown) => {
       // The page still loads without it, asking the API for what it needs, as under `npm run dev`.

@@ -1,4 +1,5 @@
 import type { ApiErrorBody } from '@shared/schemas/errors'
+import { noteAnswer } from '@/offline/network'
 
 /** A failed API call, carrying the server's code and per-field messages. */
 export class ApiError extends Error {
@@ -69,6 +70,7 @@ async function send(path: string, opts: RequestOptions): Promise<Response> {
     }
     throw new ApiError(res.status, 'http_error', `The server answered ${res.status}.`)
   }
+  if (!opts.method || opts.method === 'GET') noteAnswer(path, res)
   return res
 }
 

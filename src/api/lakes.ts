@@ -4,6 +4,12 @@ import type { LakeSeries } from '@shared/schemas/lake-series'
 import type { LakePage, LakeListQuery } from '@shared/schemas/lakes'
 import { apiCommand, apiRequest } from './http'
 
+/** API paths of the answers a page marks when they were saved (see OfflineMark). */
+export const lakeApiPaths = {
+  read: (slug: string) => `/lakes/${encodeURIComponent(slug)}/read`,
+  plan: (slug: string, date: string) => `/lakes/${encodeURIComponent(slug)}/plan/${date}`,
+}
+
 export const lakesApi = {
   list: (query: Partial<LakeListQuery>) => apiRequest<LakePage>('/lakes', { query }),
   subscribe: (slug: string) =>
@@ -12,10 +18,9 @@ export const lakesApi = {
     apiCommand(`/lakes/${encodeURIComponent(slug)}/subscription`, { method: 'DELETE' }),
   series: (slug: string, days: 7 | 30) =>
     apiRequest<LakeSeries>(`/lakes/${encodeURIComponent(slug)}/series`, { query: { days } }),
-  read: (slug: string) => apiRequest<LakeRead>(`/lakes/${encodeURIComponent(slug)}/read`),
+  read: (slug: string) => apiRequest<LakeRead>(lakeApiPaths.read(slug)),
   shape: (slug: string) => apiRequest<LakeShape>(`/lakes/${encodeURIComponent(slug)}/shoreline`),
-  plan: (slug: string, date: string) =>
-    apiRequest<DayPlanResponse>(`/lakes/${encodeURIComponent(slug)}/plan/${date}`),
+  plan: (slug: string, date: string) => apiRequest<DayPlanResponse>(lakeApiPaths.plan(slug, date)),
 }
 
 /**

@@ -1,6 +1,7 @@
 import type { FormInst } from 'naive-ui'
 import { ref, type Ref } from 'vue'
 import { useFieldErrors } from '@/composables/useFieldErrors'
+import { online } from '@/offline/network'
 
 /**
  * Submitting a naive-ui form: its own rules first, then the call. Server field errors land on their
@@ -14,6 +15,11 @@ export function useFormSubmit(form: Ref<FormInst | null>) {
   async function submit(run: () => Promise<void>) {
     problem.value = null
     server.clear()
+    if (!online.value) {
+      problem.value =
+        'You are offline: this needs a connection. Try again when the network is back.'
+      return
+    }
     try {
       await form.value?.validate()
     } catch {

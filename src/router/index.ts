@@ -129,6 +129,18 @@ const router = createRouter({
       meta: { title: 'Unsubscribe' },
     },
     {
+      path: '/watch/stop',
+      name: 'watch-stop',
+      component: () => import('@/views/WatchStopView.vue'),
+      meta: { title: 'Stop a watch' },
+    },
+    {
+      path: '/watches',
+      name: 'watches',
+      component: () => import('@/views/WatchesView.vue'),
+      meta: { role: 'angler', title: 'Watches' },
+    },
+    {
       path: '/guide/clients',
       name: 'guide-clients',
       component: () => import('@/views/GuideClientsView.vue'),

@@ -1,3 +1,4 @@
+import { forgetOfflineAnswers } from '@/offline/forget'
 import { acceptHMRUpdate, defineStore } from 'pinia'
 import { computed, ref } from 'vue'
 import { roleAllows } from '@shared/roles'
@@ -47,6 +48,8 @@ export const useAuthStore = defineStore('auth', () => {
   async function signOut() {
     await authApi.signOut()
     user.value = null
+    // What the service worker kept for reading offline was this person's: not the next one's.
+    await forgetOfflineAnswers()
   }
 
   return { user, checked, signedIn, can, load, adopt, signIn, signUp, confirmSignUp, signOut }

@@ -29,19 +29,35 @@ export async function startE2e(days: number) {
   await ctx.feed.close()
   const mail = await startTestMail()
   // npm test runs vite build before the tests.
-  const server = createAppServer(
-    testApp(ctx.db, { staticDir: clientDir, mail: mail.mail, mailbox: mail.smtp }),
-  ).listen(0, '127.0.0.1')
+  const serve = (staticDir: string) =>
+    createAppServer(testApp(ctx.db, { staticDir, mail: mail.mail, mailbox: mail.smtp }))
+  let server = serve(clientDir).listen(0, '127.0.0.1')
   await new Promise((resolve) => server.once('listening', resolve))
   const browser = await launchBrowser()
+  const port = (server.address() as AddressInfo).port
   return {
     db: ctx.db,
-    base: `http://127.0.0.1:${(server.address() as AddressInfo).port}`,
+    base: `http://127.0.0.1:${port}`,
     browser,
     mail,
+    /**
+     * The server's side of going offline: Chromium's offline mode (`context.setOffline`) does not
+     * reach a service worker's own requests, so the server stops listening, and starts again on
+     * the same port, serving the client built in `staticDir` (another build: a new version).
+     */
+    network: {
+      down: async () => {
+        server.closeAllConnections()
+        await new Promise((resolve) => server.close(resolve))
+      },
+      up: async (staticDir = clientDir) => {
+        server = serve(staticDir).listen(port, '127.0.0.1')
+        await new Promise((resolve) => server.once('listening', resolve))
+      },
+    },
     close: async () => {
       await browser.close()
-      server.close()
+      if (server.listening) server.close()
       await mail.close()
       await ctx.drop()
     },

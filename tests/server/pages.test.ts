@@ -21,6 +21,9 @@ beforeAll(async () => {
   await seedDemo(ctx.db)
   mkdirSync(join(staticDir, 'assets'))
   writeFileSync(join(staticDir, 'assets', 'index-Ab12Cd34.js'), 'export {}')
+  writeFileSync(join(staticDir, 'sw.js'), 'self.addEventListener("fetch", () => {})')
+  writeFileSync(join(staticDir, 'manifest.webmanifest'), '{"name":"Chopline"}')
+  writeFileSync(join(staticDir, 'warm-intl.js'), '')
   writeFileSync(
     join(staticDir, 'index.html'),
     '<!doctype html><html><head><title>Chopline</title></head><body><div id="app"></div></body></html>',
@@ -78,6 +81,24 @@ describe('pages served with their boot data', () => {
     const res = await request(app).get('/assets/index-Ab12Cd34.js').expect(200)
     expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable')
     await request(app).get('/assets/index-OldBuild.js').expect(404)
+  })
+
+  it('has the service worker, the app manifest and the bare shell asked for again every time (RFC 9111 no-cache)', async () => {
+    const sw = await request(app).get('/sw.js').expect(200)
+    expect(sw.headers['content-type']).toMatch(/javascript/)
+    expect(sw.headers['cache-control']).toBe('no-cache')
+    const manifest = await request(app).get('/manifest.webmanifest').expect(200)
+    expect(manifest.headers['content-type']).toMatch(/application\/manifest\+json/)
+    expect(manifest.headers['cache-control']).toBe('no-cache')
+    const shell = await request(app).get('/index.html').expect(200)
+    expect(shell.headers['cache-control']).toBe('no-cache')
+    expect(shell.text).not.toContain(PAGE_BOOT_ID)
+    expect((await request(app).get('/warm-intl.js').expect(200)).headers['cache-control']).toBe(
+      'public, max-age=3600',
+    )
+    // Client routes still get the page with its boot data.
+    const page = await request(app).get('/lakes/quillmere/plan/2026-12-02').expect(200)
+    expect(bootOf(page.text)).toEqual({ user: null })
   })
 
   it('still serves the page, without its data, when the database is down', async () => {

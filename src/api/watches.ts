@@ -1,0 +1,17 @@
+import type { CaughtPush } from '@shared/schemas/push'
+import type { SentAlert, Watch, WatchList, WatchPatch } from '@shared/schemas/watch'
+import { apiCommand, apiRequest } from './http'
+
+export const watchesApi = {
+  list: () => apiRequest<WatchList>('/watches'),
+  patch: (id: string, body: WatchPatch) =>
+    apiRequest<Watch>(`/watches/${encodeURIComponent(id)}`, { method: 'PATCH', body }),
+  remove: (id: string) => apiCommand(`/watches/${encodeURIComponent(id)}`, { method: 'DELETE' }),
+  /** The stop link in an alert's mail: pauses the watch the signed token names. */
+  /** Admins: alerts sent or being sent, and what the local push stand-in caught. */
+  alerts: () => apiRequest<{ items: SentAlert[] }>('/admin/alerts'),
+  pushbox: () => apiRequest<{ items: CaughtPush[] }>('/admin/pushbox'),
+  stop: (token: string) => apiCommand('/watch/unsubscribe', { query: { token } }),
+}
+
+export const watchesQuery = { queryKey: ['watches'], queryFn: watchesApi.list }
