@@ -1,5 +1,6 @@
 import type { AuditPage, AuditQuery } from '@shared/schemas/audit'
 import type {
+  DeskLake,
   RecomputeStatus,
   ShorelinePreview,
   LakeCreateInput,
@@ -47,6 +48,7 @@ export const deskApi = {
       method: 'POST',
       body: upload(file, lake),
     }),
+  lake: (slug: string) => apiRequest<DeskLake>(`/admin/lakes/${slug}`),
   editLake: (slug: string, lake: LakeEditInput) =>
     apiRequest<{ slug: string }>(`/admin/lakes/${slug}`, {
       method: 'PUT',

@@ -1,11 +1,13 @@
 import type { DayPlanResponse } from '@shared/schemas/day-plan'
 import type { LakeRead, LakeShape } from '@shared/schemas/lake-read'
 import type { LakeSeries } from '@shared/schemas/lake-series'
-import type { LakePage, LakeListQuery } from '@shared/schemas/lakes'
+import type { LakeNames, LakePage, LakeListQuery } from '@shared/schemas/lakes'
 import { apiCommand, apiRequest } from './http'
 
 export const lakesApi = {
   list: (query: Partial<LakeListQuery>) => apiRequest<LakePage>('/lakes', { query }),
+  /** Every lake's name and slug, for pickers (the list above is paged). */
+  names: () => apiRequest<LakeNames>('/lakes/names'),
   subscribe: (slug: string) =>
     apiCommand(`/lakes/${encodeURIComponent(slug)}/subscription`, { method: 'PUT' }),
   unsubscribe: (slug: string) =>
@@ -17,6 +19,14 @@ export const lakesApi = {
   plan: (slug: string, date: string) =>
     apiRequest<DayPlanResponse>(`/lakes/${encodeURIComponent(slug)}/plan/${date}`),
 }
+
+/** Every lake for a picker, as `{ label: name, value: slug }` options. */
+export const lakeOptionsQuery = () => ({
+  queryKey: ['lakes', 'names'],
+  queryFn: lakesApi.names,
+  select: (data: LakeNames) => data.items.map((l) => ({ label: l.name, value: l.slug })),
+  staleTime: 5 * 60_000,
+})
 
 /**
  * The Lake read's query, shared by the page and the router, which starts it while the sign-in

@@ -23,6 +23,9 @@ export function lakesDeskRoutes(lakes: LakesDeskService): Router {
       .status(201)
       .json(await lakes.create(currentUser(req), input(LakeCreateInput, req.body), text(req)))
   })
+  router.get('/admin/lakes/:slug', validate({ params: LakeSlugParams }), async (req, res) => {
+    res.json(await lakes.lake(input(LakeSlugParams, req.params).slug))
+  })
   router.put(
     '/admin/lakes/:slug',
     validate({ params: LakeSlugParams, body: LakeEditInput }),

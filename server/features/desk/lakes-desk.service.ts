@@ -5,6 +5,7 @@ import { lakeCenter } from '../../../shared/geo/polygon'
 import type { LakeGeometry } from '../../../shared/geo/types'
 import type { User } from '../../../shared/schemas/auth'
 import type {
+  DeskLake,
   LakeCreateInput,
   LakeEditInput,
   RecomputeStatus,
@@ -164,6 +165,10 @@ export function lakesDeskService(deps: {
       return (await status(lake.id))!
     },
 
+    async lake(slug: string): Promise<DeskLake> {
+      const { name, region, timeZone, normalPoolM } = await lakeOf(slug)
+      return { slug, name, region, timeZone, normalPoolM }
+    },
     recomputeStatus: async (slug: string) => status((await lakeOf(slug)).id),
   }
 }

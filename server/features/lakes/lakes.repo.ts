@@ -37,6 +37,9 @@ export function lakesRepo(db: Db) {
       return { rows, total: total?.n ?? 0 }
     },
 
+    names: () =>
+      db.select({ slug: lakes.slug, name: lakes.name }).from(lakes).orderBy(asc(lakes.name)),
+
     /**
      * For a page of lakes: my subscriptions and each lake's one-line read, taken from the cached
      * Lake read (the ingest jobs refresh it), so the list repeats none of its gauge logic.

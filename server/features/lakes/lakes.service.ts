@@ -1,6 +1,6 @@
 import { isStale } from '../../../shared/readings'
 import type { LakeShape } from '../../../shared/schemas/lake-read'
-import type { LakeListQuery, LakePage } from '../../../shared/schemas/lakes'
+import type { LakeListQuery, LakeNames, LakePage } from '../../../shared/schemas/lakes'
 import { HttpError } from '../../http/errors'
 import type { LakesRepo } from './lakes.repo'
 
@@ -36,6 +36,8 @@ export function lakesService(repo: LakesRepo) {
       })
       return { items, total, page: query.page, pageSize: query.pageSize }
     },
+
+    names: async (): Promise<LakeNames> => ({ items: await repo.names() }),
 
     async shape(slug: string): Promise<LakeShape> {
       const shoreline = await repo.shoreline(slug)
