@@ -2,7 +2,7 @@ import { Router } from 'express'
 import { LakeCreateInput, LakeEditInput } from '../../../shared/schemas/desk'
 import { LakeSlugParams } from '../../../shared/schemas/lake-read'
 import { currentUser, requireRole } from '../../http/access'
-import { HttpError } from '../../http/errors'
+import { notFound } from '../../http/errors'
 import { singleUpload } from '../../http/upload'
 import { input, validate } from '../../http/validate'
 import type { LakesDeskService } from './lakes-desk.service'
@@ -48,7 +48,7 @@ export function lakesDeskRoutes(lakes: LakesDeskService): Router {
     validate({ params: LakeSlugParams }),
     async (req, res) => {
       const status = await lakes.recomputeStatus(input(LakeSlugParams, req.params).slug)
-      if (!status) throw new HttpError(404, 'not_found', 'This lake has had no new outline yet.')
+      if (!status) throw notFound('recompute', 'This lake has had no new outline yet.')
       res.json(status)
     },
   )
