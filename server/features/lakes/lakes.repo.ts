@@ -4,7 +4,7 @@ import type { Verdict } from '../../../shared/conditions/safety'
 import type { LakeListQuery } from '../../../shared/schemas/lakes'
 import type { Db } from '../../db/index'
 import { lakes, subscriptions } from '../../db/schema/index'
-import { escapeLike } from '../users/users.repo'
+import { escapeLike } from '../../db/like'
 
 export function lakesRepo(db: Db) {
   return {
