@@ -1,5 +1,5 @@
 import { tokenKey } from '../server/features/auth/auth.tokens'
-import { withJobLock } from '../server/features/ingest/job-lock'
+import { withJobLock } from '../server/db/job-lock'
 import { checkWatches, type AlertDeps } from '../server/features/watch/send-alerts'
 import { runFromCli, type JobContext } from './cli'
 

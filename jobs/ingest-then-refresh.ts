@@ -1,6 +1,6 @@
 import type { Db } from '../server/db/index'
 import { conditionsFor } from '../server/features/conditions/conditions.service'
-import { withJobLock } from '../server/features/ingest/job-lock'
+import { withJobLock } from '../server/db/job-lock'
 import type { Logger } from '../server/logger'
 
 /**

@@ -1,6 +1,6 @@
 import { banksRepo } from '../server/features/banks/banks.repo'
 import { recomputeOldExposure } from '../server/features/banks/banks.service'
-import { withJobLock } from '../server/features/ingest/job-lock'
+import { withJobLock } from '../server/db/job-lock'
 import { runFromCli, type JobContext } from './cli'
 
 /**

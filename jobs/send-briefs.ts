@@ -1,6 +1,6 @@
 import { tokenKey } from '../server/features/auth/auth.tokens'
 import { sendBriefs, type BriefDeps } from '../server/features/brief/send-briefs'
-import { withJobLock } from '../server/features/ingest/job-lock'
+import { withJobLock } from '../server/db/job-lock'
 import { runFromCli, type JobContext } from './cli'
 
 /** Every five minutes: briefs whose local send time has passed, and retries that are due. */

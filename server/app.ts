@@ -61,7 +61,7 @@ import { pushRoutes } from './features/watch/push.routes'
 import { watchRepo } from './features/watch/watch.repo'
 import { watchRoutes } from './features/watch/watch.routes'
 import { watchService } from './features/watch/watch.service'
-import { errorHandler, notFound } from './http/errors'
+import { errorHandler, noRoute } from './http/errors'
 import { sameOrigin } from './http/origin'
 import { pageRoutes } from './http/pages'
 import { authRateLimits, type RateLimit } from './http/rate-limits'
@@ -214,7 +214,7 @@ export function createApp(deps: AppDeps): express.Express {
   )
   api.use(watchRoutes(watchService({ repo: watchRepo(deps.db), linkKey }), watchRepo(deps.db)))
   api.use(pushRoutes(pushRepo(deps.db), deps.push ?? {}))
-  api.use(notFound)
+  api.use(noRoute)
   app.use('/api', api)
 
   app.use(
@@ -242,7 +242,7 @@ export function createApp(deps: AppDeps): express.Express {
     )
   }
 
-  app.use(notFound)
+  app.use(noRoute)
   app.use(errorHandler(deps.logger))
   return app
 }

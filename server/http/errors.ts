@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { z } from 'zod'
+import { DomainError } from '../../shared/errors'
 import type { Logger } from '../logger'
 import type { ApiErrorBody } from '../../shared/schemas/errors'
 
@@ -16,6 +17,24 @@ export class HttpError extends Error {
   }
 }
 
+/** 404 `not_found`: `notFound('lake')` answers "No such lake."; `message` says more where it helps. */
+export const notFound = (thing: string, message = `No such ${thing}.`) =>
+  new HttpError(404, 'not_found', message)
+
+/** 400 `invalid_input` with one message per field, the answer a zod failure gets. */
+export const invalidFields = (fields: Record<string, string>) =>
+  new HttpError(400, 'invalid_input', 'Some fields need attention.', fields)
+
+/** 400 `invalid_input` for one field: `invalid('lakeSlug', 'No such lake.')`. */
+export const invalid = (field: string, message: string) => invalidFields({ [field]: message })
+
+/** 409: the request clashes with what is stored; with `field`, the message is that field's too. */
+export const conflict = (code: string, message: string, field?: string) =>
+  new HttpError(409, code, message, field ? { [field]: message } : undefined)
+
+export const unauthenticated = () => new HttpError(401, 'unauthenticated', 'Sign in to continue.')
+export const forbidden = () => new HttpError(403, 'forbidden', 'Your account cannot do this.')
+
 /** zod issues as one message per field; nested paths are joined with dots. */
 export function fieldMessages(error: z.ZodError): Record<string, string> {
   const fields: Record<string, string> = {}
@@ -30,7 +49,8 @@ function body(code: string, message: string, fields?: Record<string, string>): A
   return { error: fields ? { code, message, fields } : { code, message } }
 }
 
-export const notFound: RequestHandler = (req, res) => {
+/** The JSON 404 after the routes. */
+export const noRoute: RequestHandler = (req, res) => {
   res.status(404).json(body('not_found', `No route for ${req.method} ${req.path}.`))
 }
 
@@ -90,6 +110,12 @@ export const errorHandler =
   (err, req, res, _next) => {
     if (err instanceof HttpError) {
       res.status(err.status).json(body(err.code, err.message, err.fields))
+      return
+    }
+    // A shared computation refusing a field of the request (a bank's points) is the request's fault.
+    if (err instanceof DomainError && err.field) {
+      const http = invalid(err.field, err.message)
+      res.status(http.status).json(body(http.code, http.message, http.fields))
       return
     }
     if (err instanceof z.ZodError) {

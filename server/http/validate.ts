@@ -1,6 +1,6 @@
 import type { RequestHandler } from 'express'
 import { type z } from 'zod'
-import { HttpError, fieldMessages } from './errors'
+import { fieldMessages, invalidFields } from './errors'
 
 interface Schemas {
   body?: z.ZodType
@@ -27,7 +27,7 @@ export function validate(schemas: Schemas): RequestHandler {
       }
     }
     if (Object.keys(fields).length) {
-      throw new HttpError(400, 'invalid_input', 'Some fields need attention.', fields)
+      throw invalidFields(fields)
     }
     next()
   }

@@ -24,6 +24,15 @@ export const LakeCreateInput = LakeEditInput.extend({
     .regex(/^[a-z0-9](?:[a-z0-9-]{0,58}[a-z0-9])?$/, 'Lower-case letters, digits and dashes.'),
 })
 export type LakeCreateInput = z.infer<typeof LakeCreateInput>
+/** A lake as the desk's form edits it (`GET /admin/lakes/:slug`). */
+export const DeskLake = z.object({
+  slug: z.string(),
+  name: z.string(),
+  region: z.string(),
+  timeZone: z.string(),
+  normalPoolM: z.number(),
+})
+export type DeskLake = z.infer<typeof DeskLake>
 
 /** An uploaded outline, checked, before it is saved: the geometry to draw and its measures. */
 export const ShorelinePreview = z.object({

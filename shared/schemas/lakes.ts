@@ -15,6 +15,12 @@ export const LakeSummary = z.object({
 })
 export type LakeSummary = z.infer<typeof LakeSummary>
 
+/** A lake as a picker lists it: every lake, by name, no paging. */
+export const LakeName = z.object({ slug: z.string(), name: z.string() })
+export type LakeName = z.infer<typeof LakeName>
+export const LakeNames = z.object({ items: z.array(LakeName) })
+export type LakeNames = z.infer<typeof LakeNames>
+
 export const LakeListQuery = PageQuery.extend({ q: PlainText().max(100).optional() })
 export type LakeListQuery = z.infer<typeof LakeListQuery>
 

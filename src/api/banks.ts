@@ -1,7 +1,14 @@
 import type { BankList, BankView, BankInput } from '@shared/schemas/banks'
+import type { MaybeRef } from 'vue'
 import { apiCommand, apiRequest } from './http'
 
 const base = (slug: string) => `/lakes/${encodeURIComponent(slug)}/banks`
+
+/** The banks domain's query keys: an angler's banks on one lake. */
+export const bankKeys = {
+  all: ['banks'] as const,
+  list: (slug: MaybeRef<string>) => ['banks', slug] as const,
+}
 
 export const banksApi = {
   list: (slug: string) => apiRequest<BankList>(base(slug)),

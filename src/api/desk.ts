@@ -1,5 +1,6 @@
 import type { AuditPage, AuditQuery } from '@shared/schemas/audit'
 import type {
+  DeskLake,
   RecomputeStatus,
   ShorelinePreview,
   LakeCreateInput,
@@ -13,7 +14,20 @@ import type {
   StationRunResult,
   StationInput,
 } from '@shared/schemas/stations'
+import type { MaybeRef } from 'vue'
 import { apiCommand, apiRequest, upload } from './http'
+
+const ADMIN = ['admin'] as const
+/** The gauge desk's query keys; invalidating `stations` refreshes the list and its history. */
+export const deskKeys = {
+  stations: [...ADMIN, 'stations'] as const,
+  stationHistory: [...ADMIN, 'stations', 'history'] as const,
+  quarantine: (filters?: object) =>
+    filters === undefined
+      ? ([...ADMIN, 'quarantine'] as const)
+      : ([...ADMIN, 'quarantine', filters] as const),
+  audit: (page: MaybeRef<number>) => [...ADMIN, 'audit', page] as const,
+}
 
 /** The gauge desk: stations, quarantine review and the audit log (admins). */
 export const deskApi = {
@@ -47,6 +61,7 @@ export const deskApi = {
       method: 'POST',
       body: upload(file, lake),
     }),
+  lake: (slug: string) => apiRequest<DeskLake>(`/admin/lakes/${slug}`),
   editLake: (slug: string, lake: LakeEditInput) =>
     apiRequest<{ slug: string }>(`/admin/lakes/${slug}`, {
       method: 'PUT',

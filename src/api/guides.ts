@@ -11,9 +11,20 @@ import type {
   GuideProfileView,
   TripInput,
 } from '@shared/schemas/guides'
+import type { MaybeRef } from 'vue'
 import { apiCommand, apiRequest, upload } from './http'
 
 type Shares = { items: ShareView[] }
+
+const GUIDE = ['guide'] as const
+/** The guide's query keys: profile, clients, trips, and a trip as its client sees it by link. */
+export const guideKeys = {
+  profile: [...GUIDE, 'profile'] as const,
+  clients: [...GUIDE, 'clients'] as const,
+  trips: [...GUIDE, 'trips'] as const,
+  trip: (id: MaybeRef<string>) => [...GUIDE, 'trip', id] as const,
+  shared: (token: MaybeRef<string>) => ['shared-trip', token] as const,
+}
 
 export const clientsApi = {
   list: () => apiRequest<ClientList>('/guide/clients'),

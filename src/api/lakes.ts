@@ -1,8 +1,22 @@
 import type { DayPlanResponse } from '@shared/schemas/day-plan'
 import type { LakeRead, LakeShape } from '@shared/schemas/lake-read'
 import type { LakeSeries } from '@shared/schemas/lake-series'
-import type { LakePage, LakeListQuery } from '@shared/schemas/lakes'
+import type { LakeNames, LakePage, LakeListQuery } from '@shared/schemas/lakes'
+import type { MaybeRef } from 'vue'
 import { apiCommand, apiRequest } from './http'
+
+const LAKES = ['lakes'] as const
+/** The lakes domain's query keys; invalidating `all` refreshes every list, picker and desk entry. */
+export const lakeKeys = {
+  all: LAKES,
+  names: () => [...LAKES, 'names'] as const,
+  desk: (slug: MaybeRef<string | null>) => [...LAKES, 'desk', slug] as const,
+  recompute: (slug: MaybeRef<string | null>) => [...LAKES, 'recompute', slug] as const,
+  read: (slug: string) => ['lake-read', slug] as const,
+  plan: (slug: string, date: string) => ['day-plan', slug, date] as const,
+  series: (slug: MaybeRef<string>, days: MaybeRef<number>) => ['lake-series', slug, days] as const,
+  shoreline: (slug: MaybeRef<string>) => ['shoreline', slug] as const,
+}
 
 /** API paths of the answers a page marks when they were saved (see OfflineMark). */
 export const lakeApiPaths = {
@@ -12,6 +26,8 @@ export const lakeApiPaths = {
 
 export const lakesApi = {
   list: (query: Partial<LakeListQuery>) => apiRequest<LakePage>('/lakes', { query }),
+  /** Every lake's name and slug, for pickers (the list above is paged). */
+  names: () => apiRequest<LakeNames>('/lakes/names'),
   subscribe: (slug: string) =>
     apiCommand(`/lakes/${encodeURIComponent(slug)}/subscription`, { method: 'PUT' }),
   unsubscribe: (slug: string) =>
@@ -23,12 +39,20 @@ export const lakesApi = {
   plan: (slug: string, date: string) => apiRequest<DayPlanResponse>(lakeApiPaths.plan(slug, date)),
 }
 
+/** Every lake for a picker, as `{ label: name, value: slug }` options. */
+export const lakeOptionsQuery = () => ({
+  queryKey: lakeKeys.names(),
+  queryFn: lakesApi.names,
+  select: (data: LakeNames) => data.items.map((l) => ({ label: l.name, value: l.slug })),
+  staleTime: 5 * 60_000,
+})
+
 /**
  * The Lake read's query, shared by the page and the router, which starts it while the sign-in
  * check and the page's code are still loading. Gauges report every 15 minutes.
  */
 export const lakeReadQuery = (slug: string) => ({
-  queryKey: ['lake-read', slug],
+  queryKey: lakeKeys.read(slug),
   queryFn: () => lakesApi.read(slug),
   staleTime: 60_000,
   refetchInterval: 5 * 60_000,
@@ -36,6 +60,6 @@ export const lakeReadQuery = (slug: string) => ({
 
 /** The Day plan's query, shared by the page and the router, which starts it alongside the page's code. */
 export const dayPlanQuery = (slug: string, date: string) => ({
-  queryKey: ['day-plan', slug, date],
+  queryKey: lakeKeys.plan(slug, date),
   queryFn: () => lakesApi.plan(slug, date),
 })

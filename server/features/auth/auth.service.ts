@@ -6,7 +6,7 @@ import type {
   User,
 } from '../../../shared/schemas/auth'
 import { NoticedCache, type Changes } from '../../db/changes'
-import { HttpError, loggableError } from '../../http/errors'
+import { HttpError, invalid, loggableError } from '../../http/errors'
 import type { Logger } from '../../logger'
 import type { MailContext } from '../mail/mailer'
 import { mailTemplate } from '../mail/render'
@@ -169,9 +169,7 @@ export function authService(
     async changePassword(user: User, input: PasswordChangeInput): Promise<IssuedSession> {
       const row = await repo.findById(user.id)
       if (!row || !(await verifyPassword(row.passwordHash, input.currentPassword))) {
-        throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
-          currentPassword: 'That is not your current password.',
-        })
+        throw invalid('currentPassword', 'That is not your current password.')
       }
       await repo.setPasswordHash(user.id, await hashPassword(input.newPassword))
       await repo.revokeAllSessions(user.id)

@@ -8,14 +8,11 @@ import { DomainError } from '../../../shared/errors'
 import { shoreIndex } from '../../../shared/geo/fetch'
 import type { LakeGeometry } from '../../../shared/geo/types'
 import type { BankInput, BankView } from '../../../shared/schemas/banks'
-import { HttpError } from '../../http/errors'
+import { conflict, invalid, notFound } from '../../http/errors'
 import type { BankRow, BankValues, BanksRepo } from './banks.repo'
 
 /** A picked point this close to the shore counts as on it, and is moved onto it. */
 export const SNAP_M = SHORE_SNAP_M
-
-const invalid = (field: string, message: string) =>
-  new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
 
 export function toBankView(row: BankRow): BankView {
   return {
@@ -44,14 +41,10 @@ function withExposure(shoreline: LakeGeometry, input: BankInput): BankValues {
       )
     return near.point
   })
-  try {
-    // Saved again on today's shore, a bank flagged by a new outline is whole again.
-    return { ...input, points, exposure: exposureTable(shoreline, points), detachedAt: null }
-  } catch (err) {
-    // Points too close together, on two shores, or too far apart along one make no bank.
-    if (err instanceof DomainError) throw invalid('points', err.message)
-    throw err
-  }
+  // Saved again on today's shore, a bank flagged by a new outline is whole again. Points too close
+  // together, on two shores, or too far apart along one make no bank: a DomainError on `points`,
+  // which the error handler answers as that field's message.
+  return { ...input, points, exposure: exposureTable(shoreline, points), detachedAt: null }
 }
 
 /**
@@ -86,14 +79,12 @@ export async function recomputeOldExposure(repo: BanksRepo, now = () => new Date
 export function banksService(repo: BanksRepo) {
   async function lakeOf(slug: string) {
     const lake = await repo.lake(slug)
-    if (!lake) throw new HttpError(404, 'not_found', 'No such lake.')
+    if (!lake) throw notFound('lake')
     return lake
   }
   const nameTaken = () =>
-    new HttpError(409, 'name_taken', 'You already have a bank of that name on this lake.', {
-      name: 'You already have a bank of that name on this lake.',
-    })
-  const noBank = () => new HttpError(404, 'not_found', 'No such bank.')
+    conflict('name_taken', 'You already have a bank of that name on this lake.', 'name')
+  const noBank = () => notFound('bank')
 
   return {
     async list(userId: string, slug: string) {

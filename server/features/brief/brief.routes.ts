@@ -7,7 +7,7 @@ import {
   LinkToken,
 } from '../../../shared/schemas/brief'
 import { currentUser, requireRole, requireSignIn } from '../../http/access'
-import { HttpError } from '../../http/errors'
+import { HttpError, notFound } from '../../http/errors'
 import { input, validate } from '../../http/validate'
 import type { BriefService, Mailbox } from './brief.service'
 
@@ -68,8 +68,7 @@ export function briefRoutes(
   })
   router.get('/admin/mailbox/:id', validate({ params: MailId }), (req, res) => {
     const found = opts.mailbox!.message(input(MailId, req.params).id)
-    if (!found)
-      throw new HttpError(404, 'not_found', 'No such message (the inbox keeps the latest 500).')
+    if (!found) throw notFound('message', 'No such message (the inbox keeps the latest 500).')
     res.json(found)
   })
   return router

@@ -5,7 +5,7 @@ import type {
   CaughtMail,
 } from '../../../shared/schemas/brief'
 import { HOUR_MS } from '../../../shared/time'
-import { HttpError } from '../../http/errors'
+import { conflict, HttpError, invalid, unauthenticated } from '../../http/errors'
 import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import type { BriefSendsRepo } from './brief-sends.repo'
@@ -45,7 +45,7 @@ export function briefService(deps: {
 
   async function view(userId: string): Promise<BriefSettingsView> {
     const found = await repo.view(userId)
-    if (!found.user) throw new HttpError(401, 'unauthenticated', 'Sign in to continue.')
+    if (!found.user) throw unauthenticated()
     return {
       settings: found.settings,
       email: found.user.email,
@@ -60,9 +60,7 @@ export function briefService(deps: {
     async save(userId: string, settings: BriefSettings): Promise<BriefSettingsView> {
       const followed = settings.lakes && (await repo.followedSlugs(userId, settings.lakes))
       if (settings.lakes && followed!.length !== settings.lakes.length)
-        throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
-          lakes: 'Choose from the lakes you follow.',
-        })
+        throw invalid('lakes', 'Choose from the lakes you follow.')
       await repo.save(userId, settings)
       return view(userId)
     },
@@ -70,8 +68,7 @@ export function briefService(deps: {
     /** E-mails a signed link that confirms the address; it names the address, so a changed one needs a new link. */
     async sendVerification(userId: string): Promise<{ sentTo: string }> {
       const { email, emailVerified } = await view(userId)
-      if (emailVerified)
-        throw new HttpError(409, 'already_verified', `${email} is already confirmed.`)
+      if (emailVerified) throw conflict('already_verified', `${email} is already confirmed.`)
       const token = await signLinkToken(linkKey, {
         purpose: 'verify-email',
         subject: userId,

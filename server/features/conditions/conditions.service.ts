@@ -5,7 +5,7 @@ import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { addDays, localDate, localDayBounds, zonedMidnight } from '../../../shared/time'
 import { NoticedCache, type Changes } from '../../db/changes'
 import type { Db } from '../../db/index'
-import { HttpError } from '../../http/errors'
+import { HttpError, notFound } from '../../http/errors'
 import { prepareJson, type PreparedJson } from '../../http/prepared-json'
 import { lakeReadRepo, type LakeRow } from '../lakes/lake-read.repo'
 import {
@@ -112,7 +112,7 @@ export function conditionsService(deps: {
     now: Date,
   ): Promise<{ window: [number, number]; response: DayPlanResponse }> {
     let view = await repo.planView(slug, date, userId)
-    if (!view) throw new HttpError(404, 'not_found', 'No such lake.')
+    if (!view) throw notFound('lake')
     const window = plannableFrom(date, view.time_zone)
     assertPlannable(window, now)
     if (!view.has_read) {
@@ -184,7 +184,7 @@ export function conditionsService(deps: {
         }
       })
       const { row } = kept
-      if (!row) throw new HttpError(404, 'not_found', 'No such lake.')
+      if (!row) throw notFound('lake')
       if (!kept.answer)
         return prepareJson(JSON.stringify(await refreshLake(await repo.lake(row.id), now)))
       if (kept.holdUntil && now >= kept.holdUntil) {

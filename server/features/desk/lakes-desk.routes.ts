@@ -2,7 +2,7 @@ import { Router } from 'express'
 import { LakeCreateInput, LakeEditInput } from '../../../shared/schemas/desk'
 import { LakeSlugParams } from '../../../shared/schemas/lake-read'
 import { currentUser, requireRole } from '../../http/access'
-import { HttpError } from '../../http/errors'
+import { notFound } from '../../http/errors'
 import { singleUpload } from '../../http/upload'
 import { input, validate } from '../../http/validate'
 import type { LakesDeskService } from './lakes-desk.service'
@@ -22,6 +22,9 @@ export function lakesDeskRoutes(lakes: LakesDeskService): Router {
     res
       .status(201)
       .json(await lakes.create(currentUser(req), input(LakeCreateInput, req.body), text(req)))
+  })
+  router.get('/admin/lakes/:slug', validate({ params: LakeSlugParams }), async (req, res) => {
+    res.json(await lakes.lake(input(LakeSlugParams, req.params).slug))
   })
   router.put(
     '/admin/lakes/:slug',
@@ -45,7 +48,7 @@ export function lakesDeskRoutes(lakes: LakesDeskService): Router {
     validate({ params: LakeSlugParams }),
     async (req, res) => {
       const status = await lakes.recomputeStatus(input(LakeSlugParams, req.params).slug)
-      if (!status) throw new HttpError(404, 'not_found', 'This lake has had no new outline yet.')
+      if (!status) throw notFound('recompute', 'This lake has had no new outline yet.')
       res.json(status)
     },
   )

@@ -5,6 +5,7 @@ import { lakeCenter } from '../../../shared/geo/polygon'
 import type { LakeGeometry } from '../../../shared/geo/types'
 import type { User } from '../../../shared/schemas/auth'
 import type {
+  DeskLake,
   LakeCreateInput,
   LakeEditInput,
   RecomputeStatus,
@@ -12,7 +13,7 @@ import type {
 } from '../../../shared/schemas/desk'
 import { isoOrNull } from '../../../shared/time'
 import type { Db } from '../../db/index'
-import { HttpError } from '../../http/errors'
+import { conflict, notFound } from '../../http/errors'
 import type { Logger } from '../../logger'
 import { audit } from '../audit/audit.repo'
 import { SNAP_M } from '../banks/banks.service'
@@ -36,7 +37,7 @@ export function lakesDeskService(deps: {
 
   async function lakeOf(slug: string) {
     const lake = await repo.bySlug(slug)
-    if (!lake) throw new HttpError(404, 'not_found', 'No such lake.')
+    if (!lake) throw notFound('lake')
     return lake
   }
 
@@ -111,10 +112,7 @@ export function lakesDeskService(deps: {
         areaKm2: stats.areaKm2,
         center: lakeCenter(shoreline),
       })
-      if (!lake)
-        throw new HttpError(409, 'slug_taken', 'Another lake has that slug.', {
-          slug: 'Another lake has that slug.',
-        })
+      if (!lake) throw conflict('slug_taken', 'Another lake has that slug.', 'slug')
       await audit(deps.db, actor, {
         action: 'lake.create',
         targetType: 'lake',
@@ -164,6 +162,10 @@ export function lakesDeskService(deps: {
       return (await status(lake.id))!
     },
 
+    async lake(slug: string): Promise<DeskLake> {
+      const { name, region, timeZone, normalPoolM } = await lakeOf(slug)
+      return { slug, name, region, timeZone, normalPoolM }
+    },
     recomputeStatus: async (slug: string) => status((await lakeOf(slug)).id),
   }
 }

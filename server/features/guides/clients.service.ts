@@ -6,7 +6,7 @@ import {
   type ClientList,
   type ClientView,
 } from '../../../shared/schemas/guides'
-import { fieldMessages, HttpError } from '../../http/errors'
+import { fieldMessages, HttpError, notFound } from '../../http/errors'
 import type { ClientsRepo } from './clients.repo'
 
 type ClientRow = Awaited<ReturnType<ClientsRepo['list']>>[number]
@@ -20,7 +20,7 @@ const view = (row: ClientRow): ClientView => ({
   updatedAt: row.updatedAt.toISOString(),
 })
 
-const notFound = () => new HttpError(404, 'not_found', 'No such client.')
+const noClient = () => notFound('client')
 const taken = (email: string) =>
   new HttpError(409, 'email_taken', `${email} is already one of your clients.`, {
     email: 'Already one of your clients.',
@@ -42,11 +42,11 @@ export function clientsService(repo: ClientsRepo) {
     async update(guideId: string, id: string, input: ClientInput): Promise<ClientView> {
       if (await repo.emailTaken(guideId, input.email, id)) throw taken(input.email)
       const row = await repo.update(guideId, id, input)
-      if (!row) throw notFound()
+      if (!row) throw noClient()
       return view(row)
     },
     async remove(guideId: string, id: string) {
-      if (!(await repo.remove(guideId, id))) throw notFound()
+      if (!(await repo.remove(guideId, id))) throw noClient()
     },
 
     /**

@@ -8,7 +8,7 @@ import type {
   TripView,
 } from '../../../shared/schemas/guides'
 import { addDays, dateLabel, isoOrNull, localDate, localDayBounds } from '../../../shared/time'
-import { HttpError } from '../../http/errors'
+import { conflict, HttpError, invalid, notFound } from '../../http/errors'
 import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import { mailTemplate } from '../mail/render'
@@ -18,9 +18,7 @@ import type { TripsRepo } from './trips.repo'
 
 type TripRow = NonNullable<Awaited<ReturnType<TripsRepo['get']>>>
 
-const notFound = () => new HttpError(404, 'not_found', 'No such trip.')
-const fieldError = (field: string, message: string) =>
-  new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
+const noTrip = () => notFound('trip')
 
 /** A trip is planned, or kept, within this many days of today at its lake. */
 export const TRIP_DAYS_AWAY = 2 * 366
@@ -57,7 +55,7 @@ export function tripsService(deps: {
 
   async function owned(guideId: string, id: string): Promise<TripRow> {
     const trip = await repo.get(id, guideId)
-    if (!trip) throw notFound()
+    if (!trip) throw noTrip()
     return trip
   }
 
@@ -65,7 +63,7 @@ export function tripsService(deps: {
   async function openLink(token: string) {
     const link = await verifyLinkToken(linkKey, 'trip-share', token)
     const share = link && (await repo.share(link.subject))
-    if (!share) throw new HttpError(404, 'not_found', 'This link is not one of ours.')
+    if (!share) throw notFound('link', 'This link is not one of ours.')
     if (share.revokedAt)
       throw new HttpError(410, 'link_revoked', 'Your guide has withdrawn this link.')
     if (share.expiresAt <= now())
@@ -157,16 +155,14 @@ export function tripsService(deps: {
   /** The lake and banks of a trip as typed, checked: the banks must be the guide's, on that lake. */
   async function values(guideId: string, input: TripInput) {
     const lake = await repo.lake(input.lakeSlug)
-    if (!lake) throw fieldError('lakeSlug', 'No such lake.')
+    if (!lake) throw invalid('lakeSlug', 'No such lake.')
     const today = localDate(now(), lake.timeZone)
     if (input.date < addDays(today, -TRIP_DAYS_AWAY) || input.date > addDays(today, TRIP_DAYS_AWAY))
-      throw fieldError('date', 'Choose a day within two years of today.')
+      throw invalid('date', 'Choose a day within two years of today.')
     const lakeId = lake.id
     const found = await repo.ownedBanks(guideId, lakeId, input.bankIds)
     if (found.length !== input.bankIds.length)
-      throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
-        bankIds: 'Choose from your own banks on this lake.',
-      })
+      throw invalid('bankIds', 'Choose from your own banks on this lake.')
     const { lakeSlug: _slug, bankIds, ...rest } = input
     return { values: { ...rest, lakeId }, bankIds }
   }
@@ -193,27 +189,27 @@ export function tripsService(deps: {
     async update(guideId: string, id: string, input: TripInput): Promise<TripView> {
       await owned(guideId, id)
       const v = await values(guideId, input)
-      if (!(await repo.save(guideId, id, v.values, v.bankIds))) throw notFound()
+      if (!(await repo.save(guideId, id, v.values, v.bankIds))) throw noTrip()
       return view(guideId, id)
     },
     async remove(guideId: string, id: string) {
-      if (!(await repo.remove(guideId, id))) throw notFound()
+      if (!(await repo.remove(guideId, id))) throw noTrip()
     },
 
     /** A new link for the trip, good through the end of `expiresOn` at the lake. */
     async share(guideId: string, id: string, expiresOn: string): Promise<ShareView[]> {
       const trip = await owned(guideId, id)
       const today = localDate(now(), trip.timeZone)
-      if (expiresOn < today) throw fieldError('expiresOn', 'Choose a day from today on.')
+      if (expiresOn < today) throw invalid('expiresOn', 'Choose a day from today on.')
       if (expiresOn > addDays(today, SHARE_MAX_DAYS))
-        throw fieldError('expiresOn', 'A link lasts at most a year: choose an earlier day.')
+        throw invalid('expiresOn', 'A link lasts at most a year: choose an earlier day.')
       await repo.createShare(trip.id, localDayBounds(expiresOn, trip.timeZone)[1])
       return shareViews(trip.id, trip.timeZone)
     },
     async revoke(guideId: string, id: string, shareId: string): Promise<ShareView[]> {
       const trip = await owned(guideId, id)
       if (!(await repo.revokeShare(trip.id, shareId, now())))
-        throw new HttpError(404, 'not_found', 'No such link on this trip.')
+        throw notFound('link', 'No such link on this trip.')
       return shareViews(trip.id, trip.timeZone)
     },
 
@@ -226,15 +222,12 @@ export function tripsService(deps: {
     ): Promise<ShareView[]> {
       const trip = await owned(guideId, id)
       const link = await repo.share(shareId)
-      if (!link || link.tripId !== trip.id)
-        throw new HttpError(404, 'not_found', 'No such link on this trip.')
+      if (!link || link.tripId !== trip.id) throw notFound('link', 'No such link on this trip.')
       if (link.revokedAt || link.expiresAt <= now())
-        throw new HttpError(409, 'link_ended', 'This link has ended; make a new one to send.')
+        throw conflict('link_ended', 'This link has ended; make a new one to send.')
       const chosen = await deps.clients.byIds(guideId, clientIds)
       if (chosen.length !== new Set(clientIds).size)
-        throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
-          clientIds: 'Choose from your own clients.',
-        })
+        throw invalid('clientIds', 'Choose from your own clients.')
       const url = await shareUrl(link.id)
       const guide = await deps.profiles.get(guideId)
       const contact = guide && [guide.phone, guide.email].filter(Boolean).join(' or ')

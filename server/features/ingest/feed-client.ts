@@ -1,4 +1,5 @@
 import { request, type Dispatcher } from 'undici'
+import { backoffMs } from '../../lib/backoff'
 
 /** How the jobs talk to the feed: every call bounded in time and retried with backoff and jitter. */
 export interface FetchPolicy {
@@ -30,15 +31,6 @@ export class FeedError extends Error {
 }
 
 const RETRYABLE = new Set<FeedErrorKind>(['timeout', 'network', 'http', 'parse'])
-
-/** Exponential backoff with "equal jitter": half the delay fixed, half random. */
-export function backoffMs(
-  policy: Pick<FetchPolicy, 'baseDelayMs' | 'maxDelayMs'>,
-  attempt: number,
-): number {
-  const ceiling = Math.min(policy.maxDelayMs, policy.baseDelayMs * 2 ** attempt)
-  return ceiling / 2 + (Math.random() * ceiling) / 2
-}
 
 /**
  * One GET through undici's request API: the feed is hit hundreds of times a run, and this costs

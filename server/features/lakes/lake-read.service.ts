@@ -22,7 +22,7 @@ import { isStale, staleAfterMs, type Parameter } from '../../../shared/readings'
 import type { LakeRead, WindHour } from '../../../shared/schemas/lake-read'
 import type { LakeSeries } from '../../../shared/schemas/lake-series'
 import { addDays, localDate } from '../../../shared/time'
-import { HttpError } from '../../http/errors'
+import { notFound } from '../../http/errors'
 import type { LakeReadRepo, LakeRow } from './lake-read.repo'
 
 const DAY = 86_400_000
@@ -145,7 +145,7 @@ export function lakeReadService(repo: LakeReadRepo) {
     /** Hourly series for the charts: gauge means per hour (Secchi estimated from turbidity) and observed weather. */
     async series(slug: string, days: number, now = new Date()): Promise<LakeSeries> {
       const lake = await repo.lakeBySlug(slug)
-      if (!lake) throw new HttpError(404, 'not_found', 'No such lake.')
+      if (!lake) throw notFound('lake')
       const gauge = await repo.gauge(lake.id)
       const start = Math.floor((now.getTime() - days * DAY) / 3_600_000) * 3_600_000
       const { readings, weather } = await repo.hourly(gauge?.id ?? null, lake.id, new Date(start))

@@ -4,7 +4,7 @@ import type { Verdict } from '../../../shared/conditions/safety'
 import type { LakeListQuery } from '../../../shared/schemas/lakes'
 import type { Db } from '../../db/index'
 import { lakes, subscriptions } from '../../db/schema/index'
-import { escapeLike } from '../users/users.repo'
+import { escapeLike } from '../../db/like'
 
 export function lakesRepo(db: Db) {
   return {
@@ -36,6 +36,9 @@ export function lakesRepo(db: Db) {
       ])
       return { rows, total: total?.n ?? 0 }
     },
+
+    names: () =>
+      db.select({ slug: lakes.slug, name: lakes.name }).from(lakes).orderBy(asc(lakes.name)),
 
     /**
      * For a page of lakes: my subscriptions and each lake's one-line read, taken from the cached

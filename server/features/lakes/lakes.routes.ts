@@ -12,6 +12,10 @@ export function lakesRoutes(lakes: LakesService, reads: LakeReadService): Router
   router.get('/lakes', requireSignIn, validate({ query: LakeListQuery }), async (req, res) => {
     res.json(await lakes.list(input(LakeListQuery, req.query), currentUser(req).id))
   })
+  // Pickers list every lake; the paged list above is for the Lakes screen.
+  router.get('/lakes/names', requireSignIn, async (_req, res) => {
+    res.json(await lakes.names())
+  })
   router.get(
     '/lakes/:slug/shoreline',
     requireSignIn,

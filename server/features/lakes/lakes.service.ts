@@ -1,7 +1,7 @@
 import { isStale } from '../../../shared/readings'
 import type { LakeShape } from '../../../shared/schemas/lake-read'
-import type { LakeListQuery, LakePage } from '../../../shared/schemas/lakes'
-import { HttpError } from '../../http/errors'
+import type { LakeListQuery, LakeNames, LakePage } from '../../../shared/schemas/lakes'
+import { notFound } from '../../http/errors'
 import type { LakesRepo } from './lakes.repo'
 
 export function lakesService(repo: LakesRepo) {
@@ -37,15 +37,17 @@ export function lakesService(repo: LakesRepo) {
       return { items, total, page: query.page, pageSize: query.pageSize }
     },
 
+    names: async (): Promise<LakeNames> => ({ items: await repo.names() }),
+
     async shape(slug: string): Promise<LakeShape> {
       const shoreline = await repo.shoreline(slug)
-      if (!shoreline) throw new HttpError(404, 'not_found', 'No such lake.')
+      if (!shoreline) throw notFound('lake')
       return { shoreline }
     },
 
     async setSubscription(userId: string, slug: string, following: boolean) {
       const lakeId = await repo.lakeId(slug)
-      if (!lakeId) throw new HttpError(404, 'not_found', 'No such lake.')
+      if (!lakeId) throw notFound('lake')
       await (following ? repo.subscribe(userId, lakeId) : repo.unsubscribe(userId, lakeId))
     },
   }

@@ -2,7 +2,7 @@ import { parameterForKey, toSi } from '../../../shared/readings'
 import type { User } from '../../../shared/schemas/auth'
 import type { QuarantinePage, QuarantineQuery } from '../../../shared/schemas/quarantine'
 import { isoOrNull } from '../../../shared/time'
-import { HttpError } from '../../http/errors'
+import { conflict, notFound } from '../../http/errors'
 import { audit } from '../audit/audit.repo'
 import { RELEASABLE_REASONS, type QuarantineRepo } from './quarantine.repo'
 
@@ -14,8 +14,7 @@ const resultOf = (raw: unknown) => {
   return typeof result === 'number' && Number.isFinite(result) ? result : null
 }
 
-const gone = () =>
-  new HttpError(404, 'not_found', 'No such row waiting for review (it may have been decided).')
+const gone = () => notFound('row', 'No such row waiting for review (it may have been decided).')
 
 export function quarantineService(repo: QuarantineRepo) {
   return {
@@ -62,8 +61,7 @@ export function quarantineService(repo: QuarantineRepo) {
           si === null ||
           !row.observedAt
         )
-          throw new HttpError(
-            409,
+          throw conflict(
             'not_releasable',
             'This row holds no value that can be stored as a reading; discard it instead.',
           )

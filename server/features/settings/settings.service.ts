@@ -1,6 +1,6 @@
 import { DEFAULT_SETTINGS } from '../../../shared/format'
 import type { Settings } from '../../../shared/schemas/settings'
-import { HttpError } from '../../http/errors'
+import { invalid } from '../../http/errors'
 import type { SettingsRepo } from './settings.repo'
 
 export function settingsService(repo: SettingsRepo) {
@@ -12,9 +12,7 @@ export function settingsService(repo: SettingsRepo) {
       const { homeLakeSlug, ...units } = input
       const homeLakeId = homeLakeSlug ? await repo.lakeId(homeLakeSlug) : null
       if (homeLakeSlug && !homeLakeId) {
-        throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
-          homeLakeSlug: 'No such lake.',
-        })
+        throw invalid('homeLakeSlug', 'No such lake.')
       }
       await repo.save(userId, { ...units, homeLakeId })
       return input

@@ -8,7 +8,7 @@ import type {
 } from '../../../shared/schemas/stations'
 import { PARAMETERS } from '../../../shared/readings'
 import type { Db } from '../../db/index'
-import { HttpError } from '../../http/errors'
+import { conflict, HttpError, invalid, notFound } from '../../http/errors'
 import type { Logger } from '../../logger'
 import { audit } from '../audit/audit.repo'
 import { ingestReadings } from '../ingest/readings.ingest'
@@ -34,9 +34,7 @@ const fields = (s: StationValues) => ({
   active: s.active,
 })
 const taken = () =>
-  new HttpError(409, 'feed_id_taken', 'Another station has that feed identifier.', {
-    feedThingId: 'Another station has that feed identifier.',
-  })
+  conflict('feed_id_taken', 'Another station has that feed identifier.', 'feedThingId')
 
 /** The gauge desk's stations: health, create, edit or deactivate, and a run of ingestion now. */
 export function stationsService(
@@ -45,15 +43,12 @@ export function stationsService(
 ) {
   async function values(input: StationInput): Promise<StationValues> {
     const lakeId = await repo.lakeId(input.lakeSlug)
-    if (!lakeId)
-      throw new HttpError(400, 'invalid_input', 'Some fields need attention.', {
-        lakeSlug: 'No such lake.',
-      })
+    if (!lakeId) throw invalid('lakeSlug', 'No such lake.')
     return { name: input.name, lakeId, feedThingId: input.feedThingId, active: input.active }
   }
   async function station(id: string) {
     const row = await repo.byId(id)
-    if (!row) throw new HttpError(404, 'not_found', 'No such station.')
+    if (!row) throw notFound('station')
     return row
   }
 
@@ -155,11 +150,7 @@ export function stationsService(
     async runNow(actor: Actor, id: string): Promise<StationRunResult> {
       const row = await station(id)
       if (!row.active)
-        throw new HttpError(
-          409,
-          'station_inactive',
-          'This station is deactivated; activate it first.',
-        )
+        throw conflict('station_inactive', 'This station is deactivated; activate it first.')
       if (!deps.feedUrl)
         throw new HttpError(503, 'no_feed', 'This server has no feed to read from.')
       const summary = await ingestReadings(

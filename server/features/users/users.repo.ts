@@ -2,6 +2,7 @@ import { and, count, desc, eq, ilike, type SQL } from 'drizzle-orm'
 import type { Role, User } from '../../../shared/schemas/auth'
 import type { UserListQuery } from '../../../shared/schemas/users'
 import type { Db } from '../../db/index'
+import { escapeLike } from '../../db/like'
 import { users } from '../../db/schema/index'
 import { audit } from '../audit/audit.repo'
 import { publicUserColumns } from '../auth/auth.repo'
@@ -51,7 +52,3 @@ export function usersRepo(db: Db) {
   }
 }
 export type UsersRepo = ReturnType<typeof usersRepo>
-
-export function escapeLike(text: string): string {
-  return text.replace(/[\\%_]/g, (c) => `\\${c}`)
-}

@@ -1,6 +1,6 @@
 import type { User } from '../../../shared/schemas/auth'
 import type { UserListQuery, UserPage, UserRoleInput } from '../../../shared/schemas/users'
-import { HttpError } from '../../http/errors'
+import { conflict, notFound } from '../../http/errors'
 import type { AuthRepo } from '../auth/auth.repo'
 import { toUser } from '../auth/auth.service'
 import type { UsersRepo } from './users.repo'
@@ -15,10 +15,10 @@ export function usersService(repo: UsersRepo, authRepo: AuthRepo) {
     /** A role change ends the user's sessions so the new role applies from their next sign-in. */
     async setRole(actor: User, id: string, input: UserRoleInput): Promise<User> {
       if (actor.id === id && input.role !== 'admin') {
-        throw new HttpError(409, 'own_admin_role', 'You cannot remove your own admin role.')
+        throw conflict('own_admin_role', 'You cannot remove your own admin role.')
       }
       const row = await repo.setRole(actor, id, input.role)
-      if (!row) throw new HttpError(404, 'not_found', 'No such user.')
+      if (!row) throw notFound('user')
       if (actor.id !== id) await authRepo.revokeAllSessions(id)
       return toUser(row)
     },

@@ -1,5 +1,5 @@
-import type { Db } from '../../db/index'
-import type { Logger } from '../../logger'
+import type { Db } from './index'
+import type { Logger } from '../logger'
 
 /**
  * Runs `fn` only if no other process holds the job's PostgreSQL advisory lock; a second runner
