@@ -45,6 +45,10 @@ const DAYS: { name: ScenarioName; day: Verdict; noGo: WindowId[] }[] = [
   { name: 'blow', day: 'no-go', noGo: ['midday', 'afternoon'] },
   { name: 'storm-afternoon', day: 'no-go', noGo: ['midday', 'afternoon'] },
   { name: 'calm-sunny-prespawn', day: 'caution', noGo: [] },
+  { name: 'heat-wave', day: 'no-go', noGo: ['midday', 'afternoon'] },
+  { name: 'cold-front', day: 'caution', noGo: [] },
+  { name: 'rain-event', day: 'go', noGo: [] },
+  { name: 'early-winter-warm-spell', day: 'go', noGo: [] },
 ]
 
 const times = (text: string, part: string) => text.split(part).length - 1
