@@ -47,21 +47,6 @@ export const IdParams = z.object({ id: z.uuid('Not one of yours.') })
 /** The columns a client CSV has, in its header row, in any order. */
 export const CLIENT_CSV_COLUMNS = ['name', 'email', 'phone', 'notes'] as const
 
-/** A CSV row as the import reads it: its line in the file, its values, and what is wrong with it. */
-export const ClientImportRow = z.object({
-  line: z.number().int(),
-  values: z.record(z.string(), z.string()),
-  errors: z.record(z.string(), z.string()),
-})
-export const ClientImportReport = z.object({
-  rows: z.array(ClientImportRow),
-  valid: z.number().int(),
-  invalid: z.number().int(),
-  /** Rows added; 0 for a preview, and for a file with any bad row (nothing is half-imported). */
-  imported: z.number().int(),
-})
-export type ClientImportReport = z.infer<typeof ClientImportReport>
-
 export const TripInput = z.object({
   lakeSlug: z.string().regex(/^[a-z0-9-]{1,60}$/, 'Choose a lake.'),
   date: z.iso.date('Give the date as YYYY-MM-DD.'),

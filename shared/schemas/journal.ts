@@ -206,18 +206,3 @@ export const PhotoParams = z.object({
 export const CatchImportQuery = z.object({
   commit: z.enum(['true', 'false'], { error: 'Say commit=true to import.' }).optional(),
 })
-/** A CSV row as the import reads it: its line in the file, its values, and what is wrong with it. */
-export const CatchImportRow = z.object({
-  line: z.number().int(),
-  values: z.record(z.string(), z.string()),
-  /** By CSV column; `_` for the row as a whole. */
-  errors: z.record(z.string(), z.string()),
-})
-export const CatchImportReport = z.object({
-  rows: z.array(CatchImportRow),
-  valid: z.number().int(),
-  invalid: z.number().int(),
-  /** Catches added; 0 for a preview, and for a file with any bad row (nothing is half-imported). */
-  imported: z.number().int(),
-})
-export type CatchImportReport = z.infer<typeof CatchImportReport>

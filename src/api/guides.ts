@@ -1,5 +1,4 @@
 import type {
-  ClientImportReport,
   ClientList,
   ClientView,
   SharedTrip,
@@ -13,6 +12,7 @@ import type {
 } from '@shared/schemas/guides'
 import type { MaybeRef } from 'vue'
 import { apiCommand, apiRequest, upload } from './http'
+import type { CsvImportReport } from '@shared/schemas/csv-import'
 
 type Shares = { items: ShareView[] }
 
@@ -34,7 +34,7 @@ export const clientsApi = {
   remove: (id: string) => apiCommand(`/guide/clients/${id}`, { method: 'DELETE' }),
   /** A preview (nothing saved) unless `commit`. */
   importCsv: (file: File, commit: boolean) =>
-    apiRequest<ClientImportReport>('/guide/clients/import', {
+    apiRequest<CsvImportReport>('/guide/clients/import', {
       method: 'POST',
       body: upload(file),
       query: { commit: String(commit) },

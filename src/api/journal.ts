@@ -1,5 +1,4 @@
 import type {
-  CatchImportReport,
   CatchInput,
   CatchList,
   CatchView,
@@ -8,6 +7,7 @@ import type {
   PhotoUpload,
 } from '@shared/schemas/journal'
 import { apiCommand, apiRequest, upload } from './http'
+import type { CsvImportReport } from '@shared/schemas/csv-import'
 
 export const journalApi = {
   list: (query: { lake?: string; page?: number; pageSize?: number } = {}) =>
@@ -26,7 +26,7 @@ export const journalApi = {
     }),
   /** A preview (nothing saved) unless `commit`. */
   importCsv: (file: File, commit: boolean) =>
-    apiRequest<CatchImportReport>('/journal/import', {
+    apiRequest<CsvImportReport>('/journal/import', {
       method: 'POST',
       body: upload(file),
       query: { commit: String(commit) },

@@ -2,7 +2,6 @@ import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import {
-  ClientImportReport,
   ClientList,
   ClientView,
   GuideProfileView,
@@ -15,6 +14,7 @@ import { lakes, tripShares } from '../../server/db/schema/index'
 import { signedInAgent, testApp } from '../helpers/app'
 import { startWorld, type World } from '../helpers/world'
 import { linkToken, startTestMail, type TestMail } from '../helpers/mail'
+import { CsvImportReport } from '../../shared/schemas/csv-import'
 
 let ctx: World
 let mail: TestMail
@@ -101,7 +101,7 @@ describe('clients', () => {
       'Cy Hook,known@client.test,,',
       'Di Jig,ana@client.test,,',
     ])
-    const preview = ClientImportReport.parse(
+    const preview = CsvImportReport.parse(
       (
         await guide
           .post('/api/guide/clients/import')

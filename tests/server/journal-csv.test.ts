@@ -2,7 +2,8 @@ import { count, eq } from 'drizzle-orm'
 import Papa from 'papaparse'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { escapeCell, unescapeCell } from '../../shared/journal/csv'
-import { CatchImportReport, CatchList } from '../../shared/schemas/journal'
+import { CsvImportReport } from '../../shared/schemas/csv-import'
+import { CatchList } from '../../shared/schemas/journal'
 import { catches } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
 import { signedInAgent, testApp } from '../helpers/app'
@@ -98,7 +99,7 @@ describe('the journal as CSV', () => {
       angler
         .post(`/api/journal/import${commit ? '?commit=true' : ''}`)
         .attach('file', Buffer.from(csv), 'journal.csv')
-    const preview = CatchImportReport.parse((await upload(lines.join('\n')).expect(200)).body)
+    const preview = CsvImportReport.parse((await upload(lines.join('\n')).expect(200)).body)
     expect(preview).toMatchObject({ valid: 2, invalid: 4, imported: 0 })
     const errors = Object.fromEntries(preview.rows.map((r) => [r.line, r.errors]))
     expect(errors[2]).toEqual({})
@@ -113,7 +114,7 @@ describe('the journal as CSV', () => {
     expect(await countOf('import-note')).toBe(0)
 
     const good = [HEADER, lines[1], lines[2]].join('\r\n')
-    const done = CatchImportReport.parse((await upload(good, true).expect(201)).body)
+    const done = CsvImportReport.parse((await upload(good, true).expect(201)).body)
     expect(done).toMatchObject({ valid: 2, invalid: 0, imported: 2 })
     const list = CatchList.parse((await angler.get('/api/journal/catches').expect(200)).body)
     expect(list.items.map((c) => [c.species, c.lure.family, c.lengthM, c.released])).toEqual([
@@ -121,7 +122,7 @@ describe('the journal as CSV', () => {
       ['largemouth', '=jig', 0.4, true],
     ])
     // The same file again: every row is already in the journal.
-    const again = CatchImportReport.parse((await upload(good).expect(200)).body)
+    const again = CsvImportReport.parse((await upload(good).expect(200)).body)
     expect(again.rows.map((r) => r.errors._)).toEqual([
       'Already in your journal.',
       'Already in your journal.',

@@ -2,12 +2,12 @@ import Papa from 'papaparse'
 import {
   CLIENT_CSV_COLUMNS,
   ClientInput,
-  type ClientImportReport,
   type ClientList,
   type ClientView,
 } from '../../../shared/schemas/guides'
 import { fieldMessages, HttpError, notFound } from '../../http/errors'
 import type { ClientsRepo } from './clients.repo'
+import type { CsvImportReport } from '../../../shared/schemas/csv-import'
 
 type ClientRow = Awaited<ReturnType<ClientsRepo['list']>>[number]
 
@@ -54,7 +54,7 @@ export function clientsService(repo: ClientsRepo) {
      * the same rules as the form and against the guide's list. A preview changes nothing; an import
      * adds every row or, if any row is bad, none.
      */
-    async importCsv(guideId: string, csv: string, commit: boolean): Promise<ClientImportReport> {
+    async importCsv(guideId: string, csv: string, commit: boolean): Promise<CsvImportReport> {
       const parsed = Papa.parse<Record<string, string>>(csv.replace(/^\uFEFF/, ''), {
         header: true,
         skipEmptyLines: 'greedy',

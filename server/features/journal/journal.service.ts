@@ -16,7 +16,6 @@ import type { User } from '../../../shared/schemas/auth'
 import {
   CatchInput,
   type CatchConditions,
-  type CatchImportReport,
   type CatchList,
   type CatchListQuery,
   type CatchView,
@@ -30,6 +29,7 @@ import type { PhotoStore } from './photo-store'
 import { fieldMessages, HttpError } from '../../http/errors'
 import type { CatchListRow, CatchValues, JournalRepo } from './journal.repo'
 import type { LakeRow } from '../lakes/lake-read.repo'
+import type { CsvImportReport } from '../../../shared/schemas/csv-import'
 
 /** A catch logged this far ahead of the server's clock is a wrong clock or a typo. */
 const FUTURE_SLACK_MS = 10 * 60_000
@@ -210,7 +210,7 @@ export function journalService(deps: JournalDeps) {
      * (the same fish twice is refused). A preview changes nothing; an import adds every row or, if
      * any row is bad, none.
      */
-    async importCsv(user: User, csv: string, commit: boolean): Promise<CatchImportReport> {
+    async importCsv(user: User, csv: string, commit: boolean): Promise<CsvImportReport> {
       const parsed = Papa.parse<Record<string, string>>(csv.replace(/^\uFEFF/, ''), {
         header: true,
         skipEmptyLines: 'greedy',

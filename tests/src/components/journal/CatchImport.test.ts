@@ -1,10 +1,10 @@
 import { flushPromises } from '@vue/test-utils'
 import { describe, expect, it, vi } from 'vitest'
-import type { CatchImportReport } from '@shared/schemas/journal'
+import type { CsvImportReport } from '@shared/schemas/csv-import'
 import CatchImport from '@/components/journal/CatchImport.vue'
 import { IMPERIAL, mountAs } from '../mountAs'
 
-const report: CatchImportReport = {
+const report: CsvImportReport = {
   rows: [
     { line: 2, values: { caught_at: '2026-05-04T11:00:00Z', lure: 'jig' }, errors: {} },
     {
