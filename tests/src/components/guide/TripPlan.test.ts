@@ -1,57 +1,13 @@
-import { VueQueryPlugin } from '@tanstack/vue-query'
-import { mount as baseMount } from '@vue/test-utils'
-import { createPinia } from 'pinia'
 import { describe, expect, it } from 'vitest'
-import { dayPlan, type ForecastHour } from '@shared/conditions/day-plan'
-import type { Polygon } from '@shared/geo/types'
 import type { SharedTrip } from '@shared/schemas/guides'
 import TripPlan from '@/components/guide/TripPlan.vue'
+import { IMPERIAL, mountAs } from '../mountAs'
+import { boxLakePlan, WEST_LAYDOWNS, westWindDay } from '../plan-day'
 
-/** Signed out, settings stay at their defaults (°F, ft, mph). */
-const mount: typeof baseMount = (component, options) =>
-  baseMount(component, { ...options, global: { plugins: [createPinia(), VueQueryPlugin] } })
-
-// An invented box lake 9 km east-west; a west wind runs its width onto the east bank.
-const lake: Polygon = {
-  type: 'Polygon',
-  coordinates: [
-    [
-      [-88.1, 35],
-      [-88.0, 35],
-      [-88.0, 35.05],
-      [-88.1, 35.05],
-      [-88.1, 35],
-    ],
-  ],
-}
 // A moderate dawn, then 13 m/s (gusts 18) from the west from 10:00 to the evening.
-const hours: ForecastHour[] = Array.from({ length: 24 }, (_, h) => ({
-  at: new Date(Date.UTC(2026, 3, 10, 5 + h)).toISOString(),
-  windFromDeg: 270,
-  windMs: h >= 10 ? 13 : 4,
-  gustMs: h >= 10 ? 18 : 6,
-  airC: 18,
-  relativeHumidityPct: 60,
-  cloudCoverPct: 40,
-  thunderstormProbabilityPct: 0,
-}))
-const plan = dayPlan({
-  lake,
-  date: '2026-04-10',
-  timeZone: 'America/Chicago',
-  banks: [
-    {
-      id: 'w',
-      name: 'West laydowns',
-      points: [
-        [-88.1, 35.02],
-        [-88.1, 35.03],
-      ],
-      cover: ['wood'],
-      depthM: 2,
-    },
-  ],
-  hourly: hours,
+const plan = boxLakePlan({
+  hours: westWindDay((h) => (h >= 10 ? { windMs: 13, gustMs: 18 } : {})),
+  banks: [{ ...WEST_LAYDOWNS, depthM: 2 }],
   waterC: 15,
   secchiM: 0.5,
   phase: 'pre-spawn',
@@ -74,18 +30,18 @@ const trip: SharedTrip = {
 
 describe('TripPlan, as the client reads it', () => {
   it('names the guide and how to reach them', () => {
-    const wrapper = mount(TripPlan, { props: { trip } })
+    const wrapper = mountAs(IMPERIAL, TripPlan, { props: { trip } })
     const guide = wrapper.find('.guide')
     expect(guide.text()).toBe('Jory Wend · +1 555 0142 · trips@wend.test')
     expect(guide.find('a[href="tel:+15550142"]').exists()).toBe(true)
     expect(guide.find('a[href="mailto:trips@wend.test"]').exists()).toBe(true)
-    expect(mount(TripPlan, { props: { trip: { ...trip, guide: null } } }).text()).not.toContain(
-      'Guide',
-    )
+    expect(
+      mountAs(IMPERIAL, TripPlan, { props: { trip: { ...trip, guide: null } } }).text(),
+    ).not.toContain('Guide')
   })
 
   it('gives the day’s no-go with its reason, in words and shape (WMO Beaufort force 6)', () => {
-    const day = mount(TripPlan, { props: { trip } }).find('.verdict')
+    const day = mountAs(IMPERIAL, TripPlan, { props: { trip } }).find('.verdict')
     expect(day.classes()).toContain('verdict-no-go')
     expect(day.find('.shape').text()).toBe('✕')
     // 13 m/s is 29 mph, 18 m/s 40 mph (NIST SP 811).
@@ -94,7 +50,9 @@ describe('TripPlan, as the client reads it', () => {
   })
 
   it('gives each hazard one line that names its windows', () => {
-    const band = mount(TripPlan, { props: { trip } }).find('[aria-label="Cautions for the day"]')
+    const band = mountAs(IMPERIAL, TripPlan, { props: { trip } }).find(
+      '[aria-label="Cautions for the day"]',
+    )
     const lines = band.findAll('li').map((li) => li.text())
     expect(lines.filter((l) => /Wind \d+ mph/.test(l))).toEqual([
       expect.stringMatching(/^Danger: Midday and afternoon to dusk: Wind 29 mph, gusts 40 mph\./),
@@ -104,7 +62,7 @@ describe('TripPlan, as the client reads it', () => {
   })
 
   it('opens only the leading tackle call of a fishing window, for print to show it and leave out the rest', () => {
-    const wrapper = mount(TripPlan, { props: { trip } })
+    const wrapper = mountAs(IMPERIAL, TripPlan, { props: { trip } })
     const dawn = wrapper.find('[aria-labelledby="window-dawn"]')
     const calls = dawn.findAll('.tackle-call details')
     expect(calls.length).toBeGreaterThan(1)
