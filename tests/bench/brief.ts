@@ -7,13 +7,11 @@ import { sql } from 'drizzle-orm'
 import { pino } from 'pino'
 import { lakeDay, type ForecastHour } from '../../shared/conditions/day-plan'
 import { exposureTable } from '../../shared/conditions/exposure'
-import { lakeCenter } from '../../shared/geo/polygon'
-import type { Polygon } from '../../shared/geo/types'
 import { startCluster } from '../../server/db/cluster'
 import { createDb } from '../../server/db/index'
 import { migrateDb } from '../../server/db/migrate'
-import { lakeDays, lakeReads, lakes } from '../../server/db/schema/index'
-import { DEMO_LAKES, demoShoreline } from '../../server/db/seed/demo-lakes'
+import { insertBenchLakes } from './bench-lakes'
+import { lakeDays, lakeReads } from '../../server/db/schema/index'
 import { tokenKey } from '../../server/features/auth/auth.tokens'
 import { smtpMailer, type Mailer } from '../../server/features/mail/mailer'
 import { sendBriefs } from '../../server/features/brief/send-briefs'
@@ -48,26 +46,7 @@ const linkKey = tokenKey('bench-secret-that-is-long-enough-for-hs256-keys')
 /** The lakes, their cached reads and days (the wind turning a little from lake to lake), and the subscribers. */
 async function seed() {
   await migrateDb(db)
-  const shape = DEMO_LAKES[0]!
-  const shoreline = demoShoreline(shape) as Polygon
-  const center = lakeCenter(shoreline)
-  const shore = shoreline.coordinates[0]!
-  const rows = await db
-    .insert(lakes)
-    .values(
-      Array.from({ length: LAKES }, (_, i) => ({
-        slug: `bench-${i}`,
-        name: `Bench Lake ${i}`,
-        region: 'Bench',
-        timeZone: ZONE,
-        normalPoolM: 100,
-        shoreline,
-        areaKm2: 10,
-        centerLon: center[0],
-        centerLat: center[1],
-      })),
-    )
-    .returning()
+  const { rows, shoreline, center, shore } = await insertBenchLakes(db, LAKES, ZONE)
   for (const [i, lake] of rows.entries()) {
     const hourly: ForecastHour[] = Array.from({ length: 24 }, (_, h) => ({
       at: new Date(Date.UTC(2026, 3, 10, 5 + h)).toISOString(),

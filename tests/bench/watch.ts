@@ -4,13 +4,13 @@ import { fileURLToPath } from 'node:url'
 import { sql } from 'drizzle-orm'
 import { lakeDay, type ForecastHour } from '../../shared/conditions/day-plan'
 import { exposureTable } from '../../shared/conditions/exposure'
-import { lakeCenter } from '../../shared/geo/polygon'
 import type { Polygon } from '../../shared/geo/types'
 import type { WatchConditions } from '../../shared/schemas/watch'
 import { addDays } from '../../shared/time'
 import { startCluster } from '../../server/db/cluster'
 import { createDb } from '../../server/db/index'
 import { migrateDb } from '../../server/db/migrate'
+import { insertBenchLakes } from './bench-lakes'
 import { lakeDays, lakes } from '../../server/db/schema/index'
 import { DEMO_LAKES, demoShoreline } from '../../server/db/seed/demo-lakes'
 import { matchWatches } from '../../server/features/watch/watch-check'
@@ -124,26 +124,7 @@ async function newForecast(shiftHours: number) {
 
 async function seed() {
   await migrateDb(db)
-  const shape = DEMO_LAKES[0]!
-  const shoreline = demoShoreline(shape) as Polygon
-  const center = lakeCenter(shoreline)
-  const shore = shoreline.coordinates[0]!
-  const rows = await db
-    .insert(lakes)
-    .values(
-      Array.from({ length: LAKES }, (_, i) => ({
-        slug: `bench-${i}`,
-        name: `Bench Lake ${i}`,
-        region: 'Bench',
-        timeZone: ZONE,
-        normalPoolM: 100,
-        shoreline,
-        areaKm2: 10,
-        centerLon: center[0],
-        centerLat: center[1],
-      })),
-    )
-    .returning()
+  const { rows, shoreline, shore } = await insertBenchLakes(db, LAKES, ZONE)
   for (const [i, lake] of rows.entries()) {
     await db.insert(lakeDays).values(forecast(shoreline, lake.id, i, 0))
   }

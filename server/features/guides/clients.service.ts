@@ -8,6 +8,7 @@ import {
 import { fieldMessages, HttpError, notFound } from '../../http/errors'
 import type { ClientsRepo } from './clients.repo'
 import type { CsvImportReport } from '../../../shared/schemas/csv-import'
+import { importReport } from '../../lib/csv-import'
 
 type ClientRow = Awaited<ReturnType<ClientsRepo['list']>>[number]
 
@@ -96,18 +97,8 @@ export function clientsService(repo: ClientsRepo) {
         for (const e of parsed.errors.filter((e) => e.row === i)) errors._ = e.message
         return { line, values, errors }
       })
-      const invalid = rows.filter((r) => Object.keys(r.errors).length).length
-      const report = { rows, valid: rows.length - invalid, invalid, imported: 0 }
+      const report = importReport(rows, commit)
       if (!commit) return report
-      if (invalid || !rows.length)
-        throw new HttpError(
-          400,
-          'bad_csv',
-          rows.length
-            ? `${invalid} of ${rows.length} rows need attention; nothing was imported.`
-            : 'The file has no rows.',
-          { file: 'Fix the rows marked and upload the file again.' },
-        )
       await repo.insertAll(guideId, good)
       return { ...report, imported: good.length }
     },

@@ -30,6 +30,7 @@ import { fieldMessages, HttpError } from '../../http/errors'
 import type { CatchListRow, CatchValues, JournalRepo } from './journal.repo'
 import type { LakeRow } from '../lakes/lake-read.repo'
 import type { CsvImportReport } from '../../../shared/schemas/csv-import'
+import { importReport } from '../../lib/csv-import'
 
 /** A catch logged this far ahead of the server's clock is a wrong clock or a typo. */
 const FUTURE_SLACK_MS = 10 * 60_000
@@ -308,18 +309,8 @@ export function journalService(deps: JournalDeps) {
         for (const e of parsed.errors.filter((e) => e.row === i)) errors._ = e.message
         rows.push({ line, values, errors })
       }
-      const invalid = rows.filter((r) => Object.keys(r.errors).length).length
-      const report = { rows, valid: rows.length - invalid, invalid, imported: 0 }
+      const report = importReport(rows, commit)
       if (!commit) return report
-      if (invalid || !rows.length)
-        throw new HttpError(
-          400,
-          'bad_csv',
-          rows.length
-            ? `${invalid} of ${rows.length} rows need attention; nothing was imported.`
-            : 'The file has no rows.',
-          { file: 'Fix the rows marked and upload the file again.' },
-        )
       const all: CatchValues[] = []
       for (const input of good) all.push(await values(user, input))
       await repo.insertAll(user.id, all)
