@@ -119,7 +119,8 @@ export const CAUTION_RULES: CautionRule[] = [
   },
   {
     kind: 'waves',
-    value: (c) => c.waveHeightM,
+    // Judged to a tenth of a metre, as shown: "0.6 m" never reads below the 0.6 m warning.
+    value: (c) => (c.waveHeightM === undefined ? undefined : tenth(c.waveHeightM)),
     level: (m) =>
       m >= WAVE_M.danger
         ? 'danger'

@@ -158,3 +158,11 @@ describe('mergeCautions', () => {
     expect(find(day, 'heat')!.level).toBe('danger')
   })
 })
+
+describe('waves as shown', () => {
+  it('never prints the warning height at a lower level: 0.58 m shows as 0.6 m and is judged so (common practice)', () => {
+    const waves = cautions({ windMs: 5, waveHeightM: 0.58 }).find((c) => c.kind === 'waves')!
+    expect(waves.headline).toMatch(/\(0\.6 m\)/)
+    expect(waves.level).toBe('warning')
+  })
+})
