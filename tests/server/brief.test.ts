@@ -282,7 +282,7 @@ describe('the send job', () => {
     expect(message!.text).not.toContain('Vessandra')
     expect(message!.text).toMatch(/^Water \d+\.\d °C/m)
     expect(message!.text).toMatch(/wind \d+ km\/h from/)
-    expect(message!.text).not.toMatch(/°F|mph|\d ft\b|AM|PM/)
+    expect(message!.text).not.toMatch(/°F|mph|\d ft\b|\b[AP]M\b/)
   })
 
   it('sends nothing to unverified, switched-off, not-today or not-yet subscribers', async () => {
