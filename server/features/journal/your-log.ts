@@ -1,14 +1,21 @@
+import { and, inArray, isNotNull, sql } from 'drizzle-orm'
 import type { LogCatch } from '../../../shared/journal/feedback'
 import type { Db } from '../../db/index'
+import { catches } from '../../db/schema/index'
 
-const LOG_SELECT = `select user_id as "userId",
-    conditions->'clarity'->>'class' as clarity,
-    (conditions->>'waterC')::float8 as "waterC",
-    conditions->>'phase' as phase,
-    conditions->>'timeOfDay' as "timeOfDay",
-    lure->>'family' as family,
-    lure->>'blade' as blade
-  from catches`
+// The conditions and lure are jsonb: their keys are read with the `sql` tag, the rest is the builder's.
+const clarityClass = sql<LogCatch['clarity']>`${catches.conditions}->'clarity'->>'class'`
+const phase = sql<LogCatch['phase']>`${catches.conditions}->>'phase'`
+const LOG_COLUMNS = {
+  userId: catches.userId,
+  clarity: clarityClass,
+  // node-postgres reads a float8 as a number.
+  waterC: sql<number | null>`(${catches.conditions}->>'waterC')::float8`,
+  phase,
+  timeOfDay: sql<string | null>`${catches.conditions}->>'timeOfDay'`,
+  family: sql<string>`${catches.lure}->>'family'`,
+  blade: sql<LogCatch['blade']>`${catches.lure}->>'blade'`,
+}
 
 /**
  * What the Day plan and the brief need of anglers' logs: each catch's clarity, water, phase, time
@@ -21,20 +28,17 @@ export async function logCatches(
 ): Promise<Map<string, LogCatch[]>> {
   const byUser = new Map<string, LogCatch[]>()
   if (!userIds.length) return byUser
-  const { rows } = await db.$client.query<LogCatch & { userId: string }>(
-    only
-      ? {
-          name: 'journal_log_similar',
-          text: `${LOG_SELECT} where user_id = any($1::uuid[])
-            and conditions->'clarity'->>'class' = $2 and conditions->>'phase' = $3`,
-          values: [userIds, only.clarity, only.phase],
-        }
-      : {
-          name: 'journal_log_all',
-          text: `${LOG_SELECT} where user_id = any($1::uuid[]) and conditions is not null`,
-          values: [userIds],
-        },
-  )
+  const rows = await db
+    .select(LOG_COLUMNS)
+    .from(catches)
+    .where(
+      and(
+        inArray(catches.userId, userIds),
+        only
+          ? and(sql`${clarityClass} = ${only.clarity}`, sql`${phase} = ${only.phase}`)
+          : isNotNull(catches.conditions),
+      ),
+    )
   for (const { userId, ...c } of rows) {
     const list = byUser.get(userId) ?? []
     list.push(c)
