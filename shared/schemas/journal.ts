@@ -75,6 +75,11 @@ export const CatchInput = z
     /** A guide logging a catch on one of their trips: the trip's clients see it on the trip page. */
     tripId: z.uuid('Not one of your trips.').nullable().default(null),
     photoId: z.uuid('Upload the photo again.').nullable().default(null),
+    /**
+     * The phone's own id for this catch, made when it was logged: sending it again (a catch kept
+     * on the phone offline, sent when the network came back) finds the catch, never a second one.
+     */
+    clientId: z.uuid('Give the catch id as a UUID.').nullable().default(null),
   })
   .refine((c) => c.lengthM !== null || c.weightKg !== null, {
     message: 'Give the length, the weight, or both.',
@@ -140,6 +145,8 @@ export const CatchView = z.object({
   position: Position.nullable(),
   note: z.string(),
   tripId: z.uuid().nullable(),
+  /** The phone's id for it, when the catch was logged with one. */
+  clientId: z.uuid().nullable(),
   photo: PhotoView.nullable(),
   conditions: CatchConditions.nullable(),
   createdAt: z.iso.datetime(),

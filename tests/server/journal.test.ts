@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto'
 import { count, eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -107,12 +108,52 @@ describe('the catch journal', () => {
     ['a photo never uploaded', { photoId: '00000000-0000-4000-8000-000000000000' }, 'photoId'],
     ['a position off the globe', { position: [200, 10] }, 'position.0'],
     ['released as a word', { released: 'yes' }, 'released'],
+    ['a catch id that is not a UUID', { clientId: 'phone-1' }, 'clientId'],
   ])('refuses %s with a 400 on its field and writes nothing', async (_what, over, field) => {
     const angler = await signedInAgent(app, ctx.db, `bad-${field}-${Math.random()}@journal.test`)
     const before = await catchCount()
     const res = await angler.post('/api/journal/catches').send(aCatch(over)).expect(400)
     expect(res.body.error.fields[field], JSON.stringify(res.body)).toBeTruthy()
     expect(await catchCount()).toBe(before)
+  })
+
+  it('logs a catch sent again with the same clientId once, answering the first one', async () => {
+    const angler = await signedInAgent(app, ctx.db, 'replay@journal.test')
+    const other = await signedInAgent(app, ctx.db, 'replay-other@journal.test')
+    const clientId = randomUUID()
+    const mine = (n: number) =>
+      ctx.db
+        .select({ n: count() })
+        .from(catches)
+        .where(eq(catches.clientId, clientId))
+        .then(([r]) => expect(r!.n).toBe(n))
+
+    const first = CatchView.parse(
+      (await angler.post('/api/journal/catches').send(aCatch({ clientId })).expect(201)).body,
+    )
+    expect(first.clientId).toBe(clientId)
+    // The phone did not hear the answer and sends it again, twice at once: the same catch, 200.
+    const again = await Promise.all(
+      [1, 2].map(() => angler.post('/api/journal/catches').send(aCatch({ clientId }))),
+    )
+    for (const res of again) {
+      expect(res.status).toBe(200)
+      expect(res.body.id).toBe(first.id)
+    }
+    await mine(1)
+    // An edit keeps the id: a late resend still finds the catch.
+    await angler
+      .put(`/api/journal/catches/${first.id}`)
+      .send(aCatch({ released: false }))
+      .expect(200)
+    const late = await angler.post('/api/journal/catches').send(aCatch({ clientId })).expect(200)
+    expect(late.body).toMatchObject({ id: first.id, released: false })
+    await mine(1)
+
+    // Another angler's catch is never found by its id: theirs is a catch of their own.
+    const theirs = await other.post('/api/journal/catches').send(aCatch({ clientId })).expect(201)
+    expect(theirs.body.id).not.toBe(first.id)
+    await mine(2)
   })
 
   it("takes a catch on one of the angler's banks, and a position", async () => {

@@ -10,6 +10,7 @@ import {
   pgTable,
   text,
   timestamp,
+  uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core'
 import { timestamps } from './columns'
@@ -48,9 +49,15 @@ export const catches = pgTable(
     position: jsonb().$type<Position>(),
     note: text().notNull().default(''),
     conditions: jsonb().$type<CatchConditions>(),
+    /**
+     * The id the phone gave the catch when it was logged (offline, it waits on the phone): sent
+     * again, it finds this catch instead of logging the fish twice.
+     */
+    clientId: uuid(),
     ...timestamps,
   },
   (t) => [
+    uniqueIndex('catches_user_client_id_key').on(t.userId, t.clientId),
     // An angler's journal, newest first, and their insights: both read by these two columns.
     index('catches_user_caught_idx').on(t.userId, t.caughtAt.desc()),
     index('catches_trip_idx').on(t.tripId),

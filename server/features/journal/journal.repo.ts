@@ -72,6 +72,11 @@ export function journalRepo(db: Db) {
       const [row] = await listed(and(eq(catches.id, id), eq(catches.userId, userId)))
       return row
     },
+    /** The catch the angler's phone logged with this id, if it has been. */
+    async byClientId(userId: string, clientId: string) {
+      const [row] = await listed(and(eq(catches.userId, userId), eq(catches.clientId, clientId)))
+      return row
+    },
     /** A trip's catches, for its guide's trip page and the clients' shared page. */
     ofTrip: (tripId: string) => listed(eq(catches.tripId, tripId)).orderBy(desc(catches.caughtAt)),
     /** Every catch of an angler, oldest first (export, insights). */
@@ -92,7 +97,11 @@ export function journalRepo(db: Db) {
         .innerJoin(lakes, eq(lakes.id, catches.lakeId))
         .where(and(eq(catches.userId, userId), lakeId ? eq(catches.lakeId, lakeId) : undefined)),
 
-    /** The catch and its photo in one transaction: a photo belongs to one catch at most. */
+    /**
+     * The catch and its photo in one transaction: a photo belongs to one catch at most. A catch
+     * whose `clientId` the angler already logged (the same phone's send, racing) is that one,
+     * with `created: false`, and its photo is left alone.
+     */
     async insert(userId: string, values: CatchValues, photoId: string | null) {
       const taken = new Error('photo taken')
       return db
@@ -100,7 +109,15 @@ export function journalRepo(db: Db) {
           const [row] = await tx
             .insert(catches)
             .values({ ...values, userId })
+            .onConflictDoNothing({ target: [catches.userId, catches.clientId] })
             .returning()
+          if (!row) {
+            const [sent] = await tx
+              .select({ id: catches.id })
+              .from(catches)
+              .where(and(eq(catches.userId, userId), eq(catches.clientId, values.clientId!)))
+            return { id: sent!.id, created: false }
+          }
           if (photoId) {
             const attached = await tx
               .update(catchPhotos)
@@ -116,7 +133,7 @@ export function journalRepo(db: Db) {
             // Another catch took the photo meanwhile: nothing is saved.
             if (!attached.length) throw taken
           }
-          return row!
+          return { id: row.id, created: true }
         })
         .catch((err: unknown) => {
           if (err === taken) return undefined

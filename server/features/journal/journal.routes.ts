@@ -36,7 +36,9 @@ export function journalRoutes(journal: JournalService): Router {
       res.json(await journal.list(currentUser(req).id, input(CatchListQuery, req.query)))
     })
     .post(requireSignIn, validate({ body: CatchInput }), async (req, res) => {
-      res.status(201).json(await journal.create(currentUser(req), input(CatchInput, req.body)))
+      const { created, view } = await journal.create(currentUser(req), input(CatchInput, req.body))
+      // A catch sent again by its phone (the same clientId) is answered as it is: 200, not 201.
+      res.status(created ? 201 : 200).json(view)
     })
   router.get('/journal/export.csv', requireSignIn, async (req, res) => {
     const csv = await journal.exportCsv(currentUser(req).id)

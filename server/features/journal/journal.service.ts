@@ -94,6 +94,7 @@ export function toCatchView(row: CatchListRow, photoUrl: PhotoUrl = ownPhotoUrl)
     position: c.position,
     note: c.note,
     tripId: c.tripId,
+    clientId: c.clientId,
     photo,
     conditions: c.conditions,
     createdAt: c.createdAt.toISOString(),
@@ -329,10 +330,17 @@ export function journalService(deps: JournalDeps) {
       return { total: rows.length, minSample: MIN_SAMPLE, dimensions: insights(rows) }
     },
 
-    async create(user: User, input: CatchInput): Promise<CatchView> {
-      const row = await repo.insert(user.id, await values(user, input), input.photoId)
+    /**
+     * Logs a catch; `created` is false when the angler already logged one with this `clientId`
+     * (a phone sending its kept catch again), which is answered as it is and nothing is added.
+     */
+    async create(user: User, input: CatchInput): Promise<{ created: boolean; view: CatchView }> {
+      const sent = input.clientId ? await repo.byClientId(user.id, input.clientId) : undefined
+      if (sent) return { created: false, view: toCatchView(sent) }
+      const checked = { ...(await values(user, input)), clientId: input.clientId }
+      const row = await repo.insert(user.id, checked, input.photoId)
       if (!row) throw invalid('photoId', 'Upload the photo again.')
-      return view(user.id, row.id)
+      return { created: row.created, view: await view(user.id, row.id) }
     },
 
     async update(user: User, id: string, input: CatchInput): Promise<CatchView> {
