@@ -17,6 +17,10 @@ app.use(pinia)
 app.use(router)
 app.use(VueQueryPlugin, { queryClient })
 app.mount('#app')
+// Catches logged offline wait on the phone; they are sent whenever the network is there.
+void import('./offline/catch-queue').then((m) =>
+  m.sendWhenOnline(() => useAuthStore(pinia).user?.id ?? null),
+)
 // The service worker's code is not needed for the first page: it registers once the page is up.
 if (import.meta.env.PROD && 'serviceWorker' in navigator)
   window.addEventListener(

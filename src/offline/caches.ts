@@ -8,7 +8,7 @@ export const API_CACHE_PREFIX = 'chopline-api-'
 
 /**
  * The GET answers kept for the ramp: who is signed in and their settings (the shell asks before
- * any page), the followed lakes, each lake's read, Day plans, banks and outline, and a shared trip.
+ * any page), the followed lakes, each lake's read, Day plans, banks and outline, and a shared trip with its catches.
  */
 const OFFLINE_READABLE = [
   /^\/api\/me$/,
@@ -19,6 +19,7 @@ const OFFLINE_READABLE = [
   /^\/api\/lakes\/[^/]+\/banks$/,
   /^\/api\/lakes\/[^/]+\/shoreline$/,
   /^\/api\/shared\/trips\/[^/]+$/,
+  /^\/api\/shared\/trips\/[^/]+\/catches$/,
 ]
 
 export function isOfflineReadable(pathname: string): boolean {
