@@ -13,6 +13,7 @@ import { lakeCenter } from '../../shared/geo/polygon'
 import { destination } from '../shared/geo/fixtures'
 import { clientDir } from '../../server/index'
 import { createAppServer } from '../../server/http/server'
+import type { AppDeps } from '../../server/app'
 import { testApp } from './app'
 import { launchBrowser } from './browser'
 import { startTestMail } from './mail'
@@ -22,15 +23,16 @@ import { startWorld } from './world'
 /**
  * The demo data with `days` of Quillmere readings and the weather from the fake feed, as npm start
  * loads them, with the conditions cache refreshed; the built client served as npm start serves it
- * (the same HTTP server), sending mail to the local SMTP stand-in; and Chromium.
+ * (the same HTTP server), sending mail to the local SMTP stand-in; and Chromium. `deps` adds to
+ * the app's (a photo store, for one).
  */
-export async function startE2e(days: number) {
+export async function startE2e(days: number, deps: Partial<AppDeps> = {}) {
   const ctx = await startWorld(days)
   await ctx.feed.close()
   const mail = await startTestMail()
   // npm test runs vite build before the tests.
   const serve = (staticDir: string) =>
-    createAppServer(testApp(ctx.db, { staticDir, mail: mail.mail, mailbox: mail.smtp }))
+    createAppServer(testApp(ctx.db, { staticDir, mail: mail.mail, mailbox: mail.smtp, ...deps }))
   let server = serve(clientDir).listen(0, '127.0.0.1')
   await new Promise((resolve) => server.once('listening', resolve))
   const browser = await launchBrowser()
