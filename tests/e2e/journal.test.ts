@@ -46,8 +46,10 @@ const anglersCatches = async () =>
 /** Waits until the service worker controls the page and has kept who is signed in. */
 async function controlled(page: Page) {
   await expect
+    // The worker installs (precaches every built file) once per browser profile: on a busy
+    // machine that takes a while.
     .poll(() => page.evaluate<boolean>('navigator.serviceWorker.controller !== null'), {
-      timeout: 10_000,
+      timeout: 30_000,
     })
     .toBe(true)
   await page.reload()
