@@ -4,6 +4,7 @@ import exifr from 'exifr'
 import type { BrowserContext, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Position } from '../../shared/geo/types'
+import { addDays, localDate } from '../../shared/time'
 import { catches, catchPhotos, lakes, users } from '../../server/db/schema/index'
 import { cameraPhoto } from '../helpers/camera-photo'
 import { apiSession, startE2e, type E2e } from '../helpers/e2e'
@@ -245,6 +246,63 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     await page.getByRole('list', { name: 'Your catches' }).getByText(/jig/).waitFor()
     expect(await page.getByRole('list', { name: 'Waiting to send' }).count()).toBe(0)
     expect(await anglersCatches()).toBe(before + 1)
+    await page.close()
+  })
+
+  it("lets a guide log a catch from the trip page, and the trip's clients see it on theirs", async () => {
+    const guide = await apiSession(base, 'guide@chopline.test')
+    const bank = await guide<{ id: string }>('POST', '/api/lakes/quillmere/banks', {
+      name: 'Guide cove',
+      points: [shore[40], shore[43]],
+      cover: ['rock'],
+    })
+    const trip = await guide<{ id: string }>('POST', '/api/guide/trips', {
+      lakeSlug: 'quillmere',
+      date: localDate(new Date(), timeZone),
+      meetingPoint: 'South ramp',
+      meetingTime: '06:00',
+      bankIds: [bank.id],
+    })
+    const shares = await guide<{ items: { url: string }[] }>(
+      'POST',
+      `/api/guide/trips/${trip.id}/shares`,
+      { expiresOn: addDays(localDate(new Date(), timeZone), 7) },
+    )
+    const clientUrl = `${base}${new URL(shares.items[0]!.url).pathname}`
+    await guide.into(e2e.browser.context)
+
+    const page = await e2e.browser.context.newPage()
+    await page.setViewportSize({ width: 390, height: 844 })
+    await page.goto(`${base}/guide/trips/${trip.id}`)
+    await page.getByRole('heading', { name: 'Trip on Quillmere Reservoir' }).waitFor()
+    await page.getByText('No catches on this trip yet.').waitFor()
+    await page.getByRole('button', { name: 'Log a catch on this trip' }).click()
+    // The trip's lake, fixed.
+    const form = page.locator('form.catch-form')
+    expect(await form.locator('.n-base-selection-input__content').first().innerText()).toBe(
+      'Quillmere Reservoir',
+    )
+    await page.getByLabel('Length').fill('19')
+    await page.getByLabel('Lure').fill('crankbait')
+    await page.getByLabel('Note').fill('Client landed it off the cove')
+    await page.getByRole('heading', { name: 'Catches on this trip' }).click()
+    await page.getByRole('button', { name: 'Log catch' }).click()
+    await page.getByText('Catch logged.').waitFor()
+    const listed = page.getByRole('list', { name: 'Catches on this trip' })
+    await listed.getByText(/crankbait/).waitFor()
+
+    const [logged] = await e2e.db
+      .select()
+      .from(catches)
+      .where(eq(catches.note, 'Client landed it off the cove'))
+    expect(logged?.tripId).toBe(trip.id)
+
+    // The client's page, opened from the share link: the fish is there.
+    await page.goto(clientUrl)
+    await page.getByRole('heading', { name: 'Your trip on Quillmere Reservoir' }).waitFor()
+    const theirs = page.getByRole('list', { name: 'Fish caught on this trip' })
+    await theirs.getByText(/crankbait/).waitFor()
+    expect(await theirs.innerText()).toMatch(/largemouth bass/)
     await page.close()
   })
 })
