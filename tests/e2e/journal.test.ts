@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Position } from '../../shared/geo/types'
 import { addDays, localDate } from '../../shared/time'
 import { catches, catchPhotos, lakes, users } from '../../server/db/schema/index'
+import { expectAccessible } from '../helpers/axe'
 import { cameraPhoto } from '../helpers/camera-photo'
 import { apiSession, startE2e, type E2e } from '../helpers/e2e'
 import { startTestS3, type TestS3 } from '../helpers/s3'
@@ -142,6 +143,7 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     const when = await page.getByLabel('When').inputValue()
     expect(when).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/)
 
+    await expectAccessible(page, 'Log a catch')
     await page.getByLabel('Length').fill('17.5')
     await page.getByLabel('Lure').fill('spinnerbait')
     await page.getByRole('heading', { name: 'Catch journal' }).click()
@@ -165,6 +167,7 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     // Conditions attached by the server from the stored readings, not typed.
     const conditions = page.locator('dl.catch-conditions')
     await conditions.waitFor()
+    await expectAccessible(page, 'Catch entry')
     expect(
       await conditions.locator('dt', { hasText: 'Water' }).locator('+ dd').innerText(),
     ).toMatch(/^\d+(\.\d)? °[FC]$/)
@@ -222,7 +225,8 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     await page.getByRole('button', { name: 'Log catch' }).click()
     const waiting = page.getByRole('list', { name: 'Waiting to send' })
     await waiting.getByText('Waiting to send').waitFor()
-    expect(await waiting.getByText('jig').isVisible()).toBe(true)
+    expect(await waiting.getByText(/jig/).isVisible()).toBe(true)
+    await expectAccessible(page, 'Journal, offline')
 
     // A reload with no network: the catch is still on the phone, still waiting.
     await page.reload()
@@ -290,6 +294,7 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     await page.getByText('Catch logged.').waitFor()
     const listed = page.getByRole('list', { name: 'Catches on this trip' })
     await listed.getByText(/crankbait/).waitFor()
+    await expectAccessible(page, 'Trip with its catches')
 
     const [logged] = await e2e.db
       .select()
@@ -303,6 +308,7 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     const theirs = page.getByRole('list', { name: 'Fish caught on this trip' })
     await theirs.getByText(/crankbait/).waitFor()
     expect(await theirs.innerText()).toMatch(/largemouth bass/)
+    await expectAccessible(page, 'Shared trip with its catches')
     await page.close()
   })
 })

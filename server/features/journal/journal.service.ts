@@ -26,7 +26,7 @@ import {
 } from '../../../shared/schemas/journal'
 import { processPhoto, takenInstant } from './photo-process'
 import type { PhotoStore } from './photo-store'
-import { fieldMessages, HttpError } from '../../http/errors'
+import { fieldMessages, HttpError, invalid, notFound } from '../../http/errors'
 import type { CatchListRow, CatchValues, JournalRepo } from './journal.repo'
 import type { LakeRow } from '../lakes/lake-read.repo'
 import type { CsvImportReport } from '../../../shared/schemas/csv-import'
@@ -36,8 +36,6 @@ import { importReport } from '../../lib/csv-import'
 const FUTURE_SLACK_MS = 10 * 60_000
 const EARLIEST = Date.parse('1990-01-01T00:00:00Z')
 
-const invalid = (field: string, message: string) =>
-  new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
 /** At most this many rows in one import. */
 export const MAX_CATCH_IMPORT_ROWS = 2000
 
@@ -66,7 +64,7 @@ const byColumn = (fields: Record<string, string>) =>
 const sameFish = (caughtAt: Date, lakeSlug: string, species: string, family: string) =>
   `${caughtAt.getTime()} ${lakeSlug} ${species} ${family.trim().toLowerCase()}`
 
-const noCatch = () => new HttpError(404, 'not_found', 'No such catch in your journal.')
+const noCatch = () => notFound('catch', 'No such catch in your journal.')
 
 /** Where a photo's copies are served from, for its angler or for a trip's clients. */
 export type PhotoUrl = (photoId: string, size: 'display' | 'thumb') => string
@@ -172,7 +170,7 @@ export function journalService(deps: JournalDeps) {
       throw new HttpError(503, 'photos_unavailable', 'Photos cannot be stored here just now.')
     return deps.photos
   }
-  const noPhoto = () => new HttpError(404, 'not_found', 'No such photo.')
+  const noPhoto = () => notFound('photo')
   const keyOf = (photo: { displayKey: string; thumbKey: string }, size: 'display' | 'thumb') =>
     size === 'display' ? photo.displayKey : photo.thumbKey
 
@@ -185,7 +183,7 @@ export function journalService(deps: JournalDeps) {
   return {
     async list(userId: string, query: CatchListQuery): Promise<CatchList> {
       const lake = query.lake ? await repo.lakeBySlug(query.lake) : undefined
-      if (query.lake && !lake) throw new HttpError(404, 'not_found', 'No such lake.')
+      if (query.lake && !lake) throw notFound('lake')
       const { rows, total } = await repo.list(userId, lake?.id, query.page, query.pageSize)
       return {
         items: rows.map((r) => toCatchView(r)),
@@ -357,8 +355,7 @@ export function journalService(deps: JournalDeps) {
 
     /** A guide's catches on one of their trips; another guide's trip is a 404. */
     async tripCatches(guideId: string, tripId: string): Promise<{ items: CatchView[] }> {
-      if (!(await repo.ownTrip(guideId, tripId)))
-        throw new HttpError(404, 'not_found', 'No such trip.')
+      if (!(await repo.ownTrip(guideId, tripId))) throw notFound('trip')
       return { items: (await repo.ofTrip(tripId)).map((r) => toCatchView(r)) }
     },
 
@@ -367,7 +364,7 @@ export function journalService(deps: JournalDeps) {
      * link, and no positions (where a guide's fish came from stays the guide's).
      */
     async sharedCatches(token: string): Promise<{ items: CatchView[] }> {
-      if (!deps.sharedTrip) throw new HttpError(404, 'not_found', 'This link is not one of ours.')
+      if (!deps.sharedTrip) throw notFound('trip', 'This link is not one of ours.')
       const trip = await deps.sharedTrip(token)
       const url: PhotoUrl = (id, size) => `/api/shared/trips/${token}/photos/${id}/${size}`
       return {
