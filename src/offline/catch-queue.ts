@@ -138,9 +138,13 @@ export function sendQueuedCatches(userId: string): Promise<void> {
   return sending
 }
 
+/** While catches wait and the browser says it is online (one bar at the ramp), trying again this often. */
+const RETRY_MS = 60_000
+
 /**
  * Keeps the signed-in angler's waiting catches in `queuedCatches` and sends them whenever the
- * network is there: now, when it returns, and when someone signs in.
+ * network is there: now, when it returns, when someone signs in, and every minute while some
+ * wait with the browser online (a send that failed on a weak signal).
  */
 export function sendWhenOnline(userId: () => string | null) {
   if (typeof indexedDB === 'undefined') return
@@ -155,4 +159,9 @@ export function sendWhenOnline(userId: () => string | null) {
     },
     { immediate: true },
   )
+  setInterval(() => {
+    const who = userId()
+    if (who && online.value && queuedCatches.value.some((q) => !q.problem))
+      void sendQueuedCatches(who)
+  }, RETRY_MS)
 }
