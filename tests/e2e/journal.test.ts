@@ -120,7 +120,9 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     const before = await totalOf()
 
     // Taken two hours ago at the lake, on the shore of the angler's bank.
-    const taken = lakeClock(new Date(Date.now() - 2 * 3_600_000))
+    const takenAt = new Date(Date.now() - 2 * 3_600_000)
+    takenAt.setUTCSeconds(0, 0)
+    const taken = lakeClock(takenAt)
     const jpeg = await cameraPhoto({ at: taken.exif, gps: shore[21] })
     expect(await exifr.gps(jpeg)).toBeTruthy()
 
@@ -140,8 +142,12 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     expect(await chosen.allInnerTexts()).toEqual(
       expect.arrayContaining(['Quillmere Reservoir', 'Heron shelf']),
     )
-    const when = await page.getByLabel('When').inputValue()
-    expect(when).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/)
+    // "When" holds the camera's moment on the phone's own clock, not the time the form opened.
+    const cameraMoment = await page.evaluate<string>(`(() => {
+      const d = new Date(${takenAt.getTime()})
+      return new Date(d.getTime() - d.getTimezoneOffset() * 60000).toISOString().slice(0, 16)
+    })()`)
+    expect(await page.getByLabel('When').inputValue()).toBe(cameraMoment)
 
     await expectAccessible(page, 'Log a catch')
     await page.getByLabel('Length').fill('17.5')
