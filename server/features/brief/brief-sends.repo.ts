@@ -6,6 +6,7 @@ import type { BriefDelivery, BriefUnits } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { isoOrNull } from '../../../shared/time'
 import type { Db } from '../../db/index'
+import { RANKED_BANK } from '../banks/banks.repo'
 import { banks, briefSends, briefSettings, userSettings, users } from '../../db/schema/index'
 
 /** A claimed brief: this subscriber's brief for this local date is ours to send. */
@@ -167,16 +168,7 @@ export function briefSendsRepo(db: Db) {
     /** The subscribers' banks with their stored exposure tables. */
     banks: (userIds: string[]) =>
       db
-        .select({
-          userId: banks.userId,
-          lakeId: banks.lakeId,
-          id: banks.id,
-          name: banks.name,
-          points: banks.points,
-          cover: banks.cover,
-          depthM: banks.depthM,
-          exposure: banks.exposure,
-        })
+        .select({ userId: banks.userId, lakeId: banks.lakeId, ...RANKED_BANK })
         .from(banks)
         .where(inArray(banks.userId, userIds))
         .orderBy(banks.name),
