@@ -1,7 +1,6 @@
 import { and, desc, eq, inArray, lt, lte, ne, or, sql, type SQL } from 'drizzle-orm'
 import { DEFAULT_SETTINGS } from '../../../shared/format'
 import type { LakeDay } from '../../../shared/conditions/day-plan'
-import type { Bank } from '../../../shared/conditions/ranking'
 import type { BriefDelivery, BriefUnits } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { isoOrNull } from '../../../shared/time'
