@@ -96,7 +96,8 @@ export default defineConfig({
           name: 'e2e',
           environment: 'node',
           include: ['tests/e2e/**/*.test.ts'],
-          globalSetup: ['tests/setup/postgres.ts'],
+          // Chromium first: without it (and not root to install it) the run stops with the command.
+          globalSetup: ['tests/setup/chromium.ts', 'tests/setup/postgres.ts'],
           testTimeout: 60_000,
           hookTimeout: 60_000,
         },

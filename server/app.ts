@@ -21,6 +21,7 @@ import { briefRoutes } from './features/brief/brief.routes'
 import { briefService, type Mailbox } from './features/brief/brief.service'
 import { conditionsRoutes } from './features/conditions/conditions.routes'
 import { conditionsFor } from './features/conditions/conditions.service'
+import { healthRepo } from './features/health/health.repo'
 import { healthRoutes } from './features/health/health.routes'
 import { clientsRepo } from './features/guides/clients.repo'
 import { clientsService } from './features/guides/clients.service'
@@ -153,7 +154,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(cookieParser())
   api.use(sameOrigin(deps.appOrigin))
   api.use(sessionMiddleware(auth))
-  api.use(healthRoutes(deps.db))
+  api.use(healthRoutes(healthRepo(deps.db)))
   api.use(authRoutes(auth, { secureCookies: deps.secureCookies, limits }))
   api.use(usersRoutes(usersService(usersRepo(deps.db), authRepo(deps.db))))
   api.use(lakesRoutes(lakesService(lakesRepo(deps.db)), lakeReadService(lakeReadRepo(deps.db))))

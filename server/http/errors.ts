@@ -32,6 +32,27 @@ export const invalid = (field: string, message: string) => invalidFields({ [fiel
 export const conflict = (code: string, message: string, field?: string) =>
   new HttpError(409, code, message, field ? { [field]: message } : undefined)
 
+/** 410: what a link named is gone for good (withdrawn, expired). */
+export const gone = (code: string, message: string) => new HttpError(410, code, message)
+
+/** 503: the server cannot do this just now (a service down, too busy); the message says what to do. */
+export const unavailable = (code: string, message: string, fields?: Record<string, string>) =>
+  new HttpError(503, code, message, fields)
+
+/** A refused file: the message, and the `file` field's (the message again unless `fix`); 400 unless `status`. */
+export const badFile = (code: string, message: string, fix = message, status = 400) =>
+  new HttpError(status, code, message, { file: fix })
+
+/** 400 `bad_csv`: a CSV that cannot be imported as it is. */
+export const badCsv = (message: string, fix: string) => badFile('bad_csv', message, fix)
+
+/** 400 `bad_csv` for a header row that lacks `missing` of the file's `columns`. */
+export const missingColumns = (missing: string[], columns: readonly string[]) =>
+  badCsv(
+    `The header row needs ${missing.join(', ')}.`,
+    `The first row must name the columns: ${columns.join(', ')}.`,
+  )
+
 export const unauthenticated = () => new HttpError(401, 'unauthenticated', 'Sign in to continue.')
 export const forbidden = () => new HttpError(403, 'forbidden', 'Your account cannot do this.')
 

@@ -1,7 +1,7 @@
 import multer from 'multer'
 import type { RequestHandler } from 'express'
 import { z } from 'zod'
-import { HttpError } from './errors'
+import { badFile, HttpError } from './errors'
 
 /** `?commit=true` saves an upload; without it the upload is only checked and reported. */
 export const ImportQuery = z.object({ commit: z.enum(['true', 'false']).default('false') })
@@ -21,16 +21,21 @@ export function singleUpload(opts: { maxBytes: number; extensions: string[] }): 
       // A name that could climb out of a folder, or hide: refused, though it is never used as a path.
       if (/[/\\]|\.\.|^\./.test(name) || [...name].some((c) => c.charCodeAt(0) < 32))
         return done(
-          new HttpError(400, 'bad_file_name', `"${name.slice(0, 60)}" is not a plain file name.`, {
-            file: 'Rename the file and try again.',
-          }),
+          badFile(
+            'bad_file_name',
+            `"${name.slice(0, 60)}" is not a plain file name.`,
+            'Rename the file and try again.',
+          ),
         )
       const ext = name.toLowerCase().slice(name.lastIndexOf('.'))
       if (!opts.extensions.includes(ext))
         return done(
-          new HttpError(415, 'unsupported_file', `Upload a ${opts.extensions.join(' or ')} file.`, {
-            file: `Upload a ${opts.extensions.join(' or ')} file.`,
-          }),
+          badFile(
+            'unsupported_file',
+            `Upload a ${opts.extensions.join(' or ')} file.`,
+            undefined,
+            415,
+          ),
         )
       done(null, true)
     },
@@ -43,25 +48,14 @@ export function singleUpload(opts: { maxBytes: number; extensions: string[] }): 
             ? `The file is larger than ${Math.round(opts.maxBytes / 1024)} kB.`
             : 'Send one file, in the field "file".'
         return next(
-          new HttpError(err.code === 'LIMIT_FILE_SIZE' ? 413 : 400, 'bad_upload', message, {
-            file: message,
-          }),
+          badFile('bad_upload', message, message, err.code === 'LIMIT_FILE_SIZE' ? 413 : 400),
         )
       }
       if (err instanceof HttpError) return next(err)
       // busboy's own: a body cut short, a bad part header, no boundary. The sender's fault.
       if (err)
-        return next(
-          new HttpError(400, 'bad_upload', 'The upload could not be read; send the file again.', {
-            file: 'The upload could not be read; send the file again.',
-          }),
-        )
-      if (!req.file)
-        return next(
-          new HttpError(400, 'bad_upload', 'Choose a file to upload.', {
-            file: 'Choose a file to upload.',
-          }),
-        )
+        return next(badFile('bad_upload', 'The upload could not be read; send the file again.'))
+      if (!req.file) return next(badFile('bad_upload', 'Choose a file to upload.'))
       next()
     })
   }

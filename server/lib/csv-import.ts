@@ -1,5 +1,5 @@
 import type { CsvImportReport } from '../../shared/schemas/csv-import'
-import { HttpError } from '../http/errors'
+import { badCsv } from '../http/errors'
 
 /**
  * An import's report from its rows. A preview returns it as is; a commit goes on only when every
@@ -8,13 +8,11 @@ import { HttpError } from '../http/errors'
 export function importReport(rows: CsvImportReport['rows'], commit: boolean): CsvImportReport {
   const invalid = rows.filter((r) => Object.keys(r.errors).length).length
   if (commit && (invalid || !rows.length))
-    throw new HttpError(
-      400,
-      'bad_csv',
+    throw badCsv(
       rows.length
         ? `${invalid} of ${rows.length} rows need attention; nothing was imported.`
         : 'The file has no rows.',
-      { file: 'Fix the rows marked and upload the file again.' },
+      'Fix the rows marked and upload the file again.',
     )
   return { rows, valid: rows.length - invalid, invalid, imported: 0 }
 }

@@ -6,7 +6,19 @@ import type {
   BriefDelivery,
   BriefSettings,
 } from '@shared/schemas/brief'
+import type { MaybeRef } from 'vue'
 import { apiRequest } from './http'
+
+const ADMIN = ['admin'] as const
+export const briefKeys = {
+  settings: ['brief'] as const,
+  /** The admin's Mail page: undelivered briefs, caught mail, and the watch alerts sent. */
+  deliveries: (status: MaybeRef<string>) => [...ADMIN, 'brief-deliveries', status] as const,
+  mailbox: [...ADMIN, 'mailbox'] as const,
+  mail: (id: MaybeRef<number | null>) => [...ADMIN, 'mailbox', id] as const,
+  alerts: [...ADMIN, 'alerts'] as const,
+  pushbox: [...ADMIN, 'pushbox'] as const,
+}
 
 type SentTo = { sentTo: string }
 type Verified = { email: string }

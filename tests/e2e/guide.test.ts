@@ -2,7 +2,7 @@ import { join } from 'node:path'
 import { chromium } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { expectAccessible } from '../helpers/axe'
-import { artifactsDir, CHROMIUM_ARGS } from '../helpers/browser'
+import { artifactsDir, CHROMIUM_ARGS, CHROMIUM_PATH } from '../helpers/browser'
 import { startE2e, type E2e } from '../helpers/e2e'
 import { openFromNav } from '../helpers/nav'
 import { signInAs } from '../helpers/signin'
@@ -58,7 +58,7 @@ describe('a guide shares a trip in Chromium', () => {
 
     // The client: another browser, no account, no cookies.
     const other = await chromium.launch({
-      executablePath: '/usr/bin/chromium',
+      executablePath: CHROMIUM_PATH,
       args: CHROMIUM_ARGS,
     })
     try {

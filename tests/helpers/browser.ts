@@ -6,6 +6,9 @@ import { chromium, type BrowserContext } from 'playwright-core'
 
 export const artifactsDir = fileURLToPath(new URL('../e2e/artifacts', import.meta.url))
 
+/** Debian's Chromium (package `chromium`); `tests/setup/chromium.ts` makes sure it is there. */
+export const CHROMIUM_PATH = '/usr/bin/chromium'
+
 /** Headless, no first-run work, and no network beyond loopback (this machine has none). */
 export const CHROMIUM_ARGS = [
   '--headless',
@@ -27,7 +30,7 @@ export async function launchBrowser(): Promise<{
   mkdirSync(artifactsDir, { recursive: true })
   const profile = mkdtempSync(join(tmpdir(), 'chopline-chromium-'))
   const context = await chromium.launchPersistentContext(profile, {
-    executablePath: '/usr/bin/chromium',
+    executablePath: CHROMIUM_PATH,
     headless: true,
     viewport: { width: 390, height: 844 },
     args: CHROMIUM_ARGS,

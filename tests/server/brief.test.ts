@@ -11,7 +11,7 @@ import {
   CaughtMailList,
   type BriefSettings,
 } from '../../shared/schemas/brief'
-import { DAY_MS, localDate } from '../../shared/time'
+import { addDays, DAY_MS, localDate } from '../../shared/time'
 import {
   briefSends,
   briefSettings,
@@ -361,6 +361,25 @@ describe('the send job', () => {
     expect(await run(at)).toMatchObject({ retrying: 1 })
     expect(await run(new Date(at.getTime() + 2 * 60_000))).toMatchObject({ sent: 1 })
     expect(inbox('flaky@example.test')).toHaveLength(1)
+  })
+
+  it('gives up a brief still waiting to retry once its local day has passed, and says why', async () => {
+    await subscriber('late@example.test')
+    await subscriber('punctual@example.test')
+    mail.smtp.controls.refuse.set('late@example.test', 'temporary')
+    const today = localDate(feed.now(), 'America/Chicago')
+    expect(await run(chicago(today, '05:05'))).toMatchObject({ sent: 1, retrying: 1 })
+    // Past midnight in Chicago, before the next 05:00: yesterday's retry is over, and the sent one stays sent.
+    expect(await run(chicago(addDays(today, 1), '00:30'))).toMatchObject({ claimed: 0 })
+    const rows = await ctx.db
+      .select({ email: users.email, status: briefSends.status, lastError: briefSends.lastError })
+      .from(briefSends)
+      .innerJoin(users, eq(users.id, briefSends.userId))
+    expect(rows.find((r) => r.email === 'punctual@example.test')).toMatchObject({ status: 'sent' })
+    const late = rows.find((r) => r.email === 'late@example.test')!
+    expect(late.status).toBe('failed')
+    expect(late.lastError).toMatch(/The day passed before it could be sent\.$/)
+    expect(inbox('late@example.test')).toHaveLength(0)
   })
 })
 

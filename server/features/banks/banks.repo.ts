@@ -6,6 +6,16 @@ import { banks, lakes } from '../../db/schema/index'
 export type BankRow = typeof banks.$inferSelect
 export type BankValues = Omit<typeof banks.$inferInsert, 'id' | 'userId' | 'lakeId'>
 
+/** What ranking a bank reads (`Bank` in shared/conditions/ranking.ts, with a null depth): no geometry work. */
+export const RANKED_BANK = {
+  id: banks.id,
+  name: banks.name,
+  points: banks.points,
+  cover: banks.cover,
+  depthM: banks.depthM,
+  exposure: banks.exposure,
+}
+
 export function banksRepo(db: Db) {
   const owned = (userId: string, lakeId: string, id: string) =>
     and(eq(banks.id, id), eq(banks.userId, userId), eq(banks.lakeId, lakeId))

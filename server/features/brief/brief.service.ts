@@ -5,7 +5,7 @@ import type {
   CaughtMail,
 } from '../../../shared/schemas/brief'
 import { HOUR_MS } from '../../../shared/time'
-import { conflict, HttpError, invalid, unauthenticated } from '../../http/errors'
+import { conflict, HttpError, invalid, unauthenticated, unavailable } from '../../http/errors'
 import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import type { BriefSendsRepo } from './brief-sends.repo'
@@ -86,8 +86,7 @@ export function briefService(deps: {
           }),
         })
       } catch {
-        throw new HttpError(
-          503,
+        throw unavailable(
           'mail_unavailable',
           'The confirmation e-mail could not be sent just now. Try again in a few minutes.',
         )

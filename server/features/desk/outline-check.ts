@@ -1,5 +1,5 @@
 import { Worker } from 'node:worker_threads'
-import { HttpError } from '../../http/errors'
+import { badFile, unavailable } from '../../http/errors'
 import type { OutlineCheckAnswer } from './outline-check.worker'
 
 export type OutlineChecked = Extract<OutlineCheckAnswer, { ok: true }>
@@ -9,7 +9,7 @@ const tsxApi = import.meta.resolve('tsx/esm/api')
 const entry = new URL('./outline-check.worker.ts', import.meta.url).href
 const bootstrap = `import(${JSON.stringify(tsxApi)}).then(({ register }) => { register(); return import(${JSON.stringify(entry)}) })`
 
-const badFile = (message: string) => new HttpError(400, 'bad_geojson', message, { file: message })
+const badGeojson = (message: string) => badFile('bad_geojson', message)
 
 /**
  * Checks an uploaded outline (JSON, GeoJSON shape, `assertPlausibleShoreline`) in a worker thread
@@ -22,7 +22,7 @@ export function outlineChecker(opts: { timeLimitMs: number; concurrent?: number 
   let running = 0
   return async function checkOutline(text: string): Promise<OutlineChecked> {
     if (running >= concurrent)
-      throw new HttpError(503, 'busy', 'Other outlines are being checked. Try again in a minute.')
+      throw unavailable('busy', 'Other outlines are being checked. Try again in a minute.')
     running++
     try {
       const answer = await new Promise<OutlineCheckAnswer>((resolve, reject) => {
@@ -34,8 +34,7 @@ export function outlineChecker(opts: { timeLimitMs: number; concurrent?: number 
         const timer = setTimeout(() => {
           void worker.terminate()
           reject(
-            new HttpError(
-              503,
+            unavailable(
               'outline_check_timeout',
               `Checking the outline took longer than ${Math.round(opts.timeLimitMs / 1000)} s. Simplify it, or try again later.`,
               { file: 'Checking this outline took too long.' },
@@ -55,7 +54,7 @@ export function outlineChecker(opts: { timeLimitMs: number; concurrent?: number 
           reject(new Error('The outline check stopped without an answer.'))
         })
       })
-      if (!answer.ok) throw badFile(answer.message)
+      if (!answer.ok) throw badGeojson(answer.message)
       return answer
     } finally {
       running--

@@ -5,7 +5,7 @@ import {
   type ClientList,
   type ClientView,
 } from '../../../shared/schemas/guides'
-import { fieldMessages, HttpError, notFound } from '../../http/errors'
+import { badCsv, conflict, fieldMessages, missingColumns, notFound } from '../../http/errors'
 import type { ClientsRepo } from './clients.repo'
 import type { CsvImportReport } from '../../../shared/schemas/csv-import'
 import { importReport } from '../../lib/csv-import'
@@ -23,9 +23,7 @@ const view = (row: ClientRow): ClientView => ({
 
 const noClient = () => notFound('client')
 const taken = (email: string) =>
-  new HttpError(409, 'email_taken', `${email} is already one of your clients.`, {
-    email: 'Already one of your clients.',
-  })
+  conflict('email_taken', `${email} is already one of your clients.`, 'email')
 
 /** A client list is small: a CSV of more than this many rows is refused rather than read. */
 export const MAX_IMPORT_ROWS = 2000
@@ -63,18 +61,11 @@ export function clientsService(repo: ClientsRepo) {
       })
       const columns = parsed.meta.fields ?? []
       const missing = ['name', 'email'].filter((c) => !columns.includes(c))
-      if (missing.length)
-        throw new HttpError(400, 'bad_csv', `The header row needs ${missing.join(' and ')}.`, {
-          file: `The first row must name the columns: ${CLIENT_CSV_COLUMNS.join(', ')}.`,
-        })
+      if (missing.length) throw missingColumns(missing, CLIENT_CSV_COLUMNS)
       if (parsed.data.length > MAX_IMPORT_ROWS)
-        throw new HttpError(
-          400,
-          'bad_csv',
+        throw badCsv(
           `Import at most ${MAX_IMPORT_ROWS} clients at a time.`,
-          {
-            file: `Split the file: at most ${MAX_IMPORT_ROWS} rows.`,
-          },
+          `Split the file: at most ${MAX_IMPORT_ROWS} rows.`,
         )
       const known = new Set((await repo.list(guideId)).map((c) => c.email))
       const seen = new Map<string, number>()

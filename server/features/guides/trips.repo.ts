@@ -2,6 +2,7 @@ import { and, asc, count, desc, eq, inArray } from 'drizzle-orm'
 import type { LakeDay } from '../../../shared/conditions/day-plan'
 import type { TripInput } from '../../../shared/schemas/guides'
 import type { Db } from '../../db/index'
+import { RANKED_BANK } from '../banks/banks.repo'
 import {
   banks,
   lakeDays,
@@ -69,14 +70,7 @@ export function tripsRepo(db: Db) {
 
     tripBanks: (tripId: string) =>
       db
-        .select({
-          id: banks.id,
-          name: banks.name,
-          points: banks.points,
-          cover: banks.cover,
-          depthM: banks.depthM,
-          exposure: banks.exposure,
-        })
+        .select(RANKED_BANK)
         .from(tripBanks)
         .innerJoin(banks, eq(banks.id, tripBanks.bankId))
         .where(eq(tripBanks.tripId, tripId))

@@ -8,7 +8,7 @@ import type {
   TripView,
 } from '../../../shared/schemas/guides'
 import { addDays, dateLabel, isoOrNull, localDate, localDayBounds } from '../../../shared/time'
-import { conflict, HttpError, invalid, notFound } from '../../http/errors'
+import { conflict, gone, invalid, notFound } from '../../http/errors'
 import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import { mailTemplate } from '../mail/render'
@@ -64,16 +64,11 @@ export function tripsService(deps: {
     const link = await verifyLinkToken(linkKey, 'trip-share', token)
     const share = link && (await repo.share(link.subject))
     if (!share) throw notFound('link', 'This link is not one of ours.')
-    if (share.revokedAt)
-      throw new HttpError(410, 'link_revoked', 'Your guide has withdrawn this link.')
+    if (share.revokedAt) throw gone('link_revoked', 'Your guide has withdrawn this link.')
     if (share.expiresAt <= now())
-      throw new HttpError(
-        410,
-        'link_expired',
-        'This link has expired. Ask your guide for a new one.',
-      )
+      throw gone('link_expired', 'This link has expired. Ask your guide for a new one.')
     const trip = await repo.get(share.tripId, null)
-    if (!trip) throw new HttpError(410, 'link_revoked', 'This trip has been cancelled.')
+    if (!trip) throw gone('link_revoked', 'This trip has been cancelled.')
     return { trip, share }
   }
 

@@ -1,8 +1,8 @@
 import Papa from 'papaparse'
 import { PARAMETER_KEYS, type Parameter } from '../../../shared/readings'
-import type { ReadingsImportReport } from '../../../shared/schemas/stations'
+import { READINGS_CSV_COLUMNS, type ReadingsImportReport } from '../../../shared/schemas/stations'
 import type { Db } from '../../db/index'
-import { HttpError } from '../../http/errors'
+import { missingColumns } from '../../http/errors'
 import { ingestRepo, type DatastreamRow, type PageCommit } from '../ingest/ingest.repo'
 import { validatePage } from '../ingest/validate-page'
 import { isPlainText } from '../../../shared/schemas/text'
@@ -37,10 +37,7 @@ export async function importReadingsCsv(
   const missing = ['parameter', 'observed_at', 'value'].filter(
     (c) => !(parsed.meta.fields ?? []).includes(c),
   )
-  if (missing.length)
-    throw new HttpError(400, 'bad_csv', `The header row needs ${missing.join(', ')}.`, {
-      file: 'The first row must name the columns: parameter, observed_at, value, unit.',
-    })
+  if (missing.length) throw missingColumns(missing, READINGS_CSV_COLUMNS)
   const repo = ingestRepo(db)
   const streams = new Map(
     (await repo.datastreamsOf(stationId)).map((d) => [d.parameter as string, d]),

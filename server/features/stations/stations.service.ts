@@ -8,7 +8,7 @@ import type {
 } from '../../../shared/schemas/stations'
 import { PARAMETERS } from '../../../shared/readings'
 import type { Db } from '../../db/index'
-import { conflict, HttpError, invalid, notFound } from '../../http/errors'
+import { conflict, invalid, notFound, unavailable } from '../../http/errors'
 import type { Logger } from '../../logger'
 import { audit } from '../audit/audit.repo'
 import { ingestReadings } from '../ingest/readings.ingest'
@@ -151,8 +151,7 @@ export function stationsService(
       const row = await station(id)
       if (!row.active)
         throw conflict('station_inactive', 'This station is deactivated; activate it first.')
-      if (!deps.feedUrl)
-        throw new HttpError(503, 'no_feed', 'This server has no feed to read from.')
+      if (!deps.feedUrl) throw unavailable('no_feed', 'This server has no feed to read from.')
       const summary = await ingestReadings(
         { db: deps.db, feedUrl: deps.feedUrl, log: deps.log },
         { stationId: id },
