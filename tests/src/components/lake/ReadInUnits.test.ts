@@ -77,6 +77,26 @@ describe('the season line', () => {
   })
 })
 
+describe('the pressure', () => {
+  /** 1016.2 hPa, falling 1.2 hPa in three hours. */
+  const falling = (): LakeRead => ({
+    ...sampleRead(lake, NOW),
+    pressure: { hPa: 1016.2, changeHpa3h: -1.2, label: 'falling slowly' },
+  })
+
+  it('reads in inches of mercury to a US reader (NIST SP 811: 1 inHg = 3386.38 Pa)', () => {
+    const text = mountAs(IMPERIAL, SkyPanel, { props: { read: falling() } }).text()
+    expect(text).toContain('30.01 inHg, falling slowly (−0.04 inHg in 3 h)')
+    expect(text).not.toContain('hPa')
+  })
+
+  it('reads in hectopascals to a metric reader', () => {
+    const text = mountAs(METRIC, SkyPanel, { props: { read: falling() } }).text()
+    expect(text).toContain('1016 hPa, falling slowly (−1.2 hPa in 3 h)')
+    expect(text).not.toContain('inHg')
+  })
+})
+
 describe('the lake outline', () => {
   const shoreline = {
     type: 'Polygon' as const,
