@@ -23,6 +23,7 @@ import {
 /** "12 min ago", "3 h ago": how old a reading is. */
 export function age(iso: string, now = Date.now()): string {
   const min = Math.max(0, Math.round((now - Date.parse(iso)) / 60_000))
+  if (min < 1) return 'just now'
   if (min < 90) return `${min} min ago`
   return min < 2880 ? `${Math.round(min / 60)} h ago` : `${Math.round(min / 1440)} days ago`
 }
@@ -121,6 +122,8 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
           ? 'steady'
           : `${perDay > 0 ? 'warming' : 'cooling'} ${tempChange(Math.abs(perDay))}/day`,
     length: lengthText,
+    /** A wave height to the tenth of a metre the cautions judge it at: 0.58 m reads as 2.0 ft. */
+    wave: (m: number) => lengthText(Math.round(m * 10) / 10),
     signedLength: (m: number) =>
       `${m >= 0 ? '+' : '−'}${Math.abs(lengthOf(m)).toFixed(1)} ${s.length}`,
     /** Longer distances (fetch): miles with feet, kilometres with metres. */

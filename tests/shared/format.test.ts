@@ -55,6 +55,12 @@ describe('makeFormat', () => {
     expect(metric.pressureChange(2.04)).toBe('+2.0 hPa')
   })
 
+  it('says a reading of this minute is just now, not 0 min ago', () => {
+    const now = Date.parse('2026-05-06T10:00:00Z')
+    expect(makeFormat().age('2026-05-06T09:59:50Z', now)).toBe('just now')
+    expect(makeFormat().age('2026-05-06T09:58:00Z', now)).toBe('2 min ago')
+  })
+
   it('words a day against today at the lake', () => {
     const now = new Date('2026-05-06T03:00:00Z') // still May 5 in Chicago
     const f = makeFormat()
