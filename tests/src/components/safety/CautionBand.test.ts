@@ -22,4 +22,13 @@ describe('CautionBand', () => {
     expect(text).toContain('70 °F and 50 °F thresholds')
     expect(text).not.toMatch(/m\/s|km\/h|\bkt\b|\d m\b|°C/)
   })
+
+  it('keeps each figure with its unit on one line, the words read unchanged', () => {
+    const wrapper = mountAs(METRIC, CautionBand, { props: { cautions: list } })
+    const figures = wrapper.findAll('.figure').map((x) => x.text())
+    expect(figures).toContain('28.8 km/h')
+    expect(figures).toContain('21.1 °C')
+    expect(figures).toContain('12.0 °C')
+    expect(wrapper.text()).toContain('force 5 from 28.8 km/h, force 6 from 38.9 km/h')
+  })
 })
