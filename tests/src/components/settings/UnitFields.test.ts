@@ -16,7 +16,7 @@ describe('UnitFields', () => {
     }
     const text = mountAs(IMPERIAL, Form).text()
     expect(text).toContain('Depth, rain and pressure')
-    expect(text).toContain('ft, in, inHg')
-    expect(text).toContain('m, mm, hPa')
+    expect(text).toContain('feet (in, inHg)')
+    expect(text).toContain('metres (mm, hPa)')
   })
 })
