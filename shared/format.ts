@@ -1,11 +1,5 @@
 import { compassName } from './conditions/exposure'
-import {
-  cautionWords,
-  limitC,
-  verdictOf,
-  windFigure,
-  type CautionUnits,
-} from './conditions/safety'
+import { cautionWords, limitC, verdictOf, windFigure, type CautionUnits } from './conditions/safety'
 import type { Settings } from './schemas/settings'
 import { addDays, dateLabel, dateTimeFormat, localDate } from './time'
 import {

@@ -51,7 +51,11 @@ export interface CautionUnits {
    * The limits a caution's source quotes, as the values are shown against them: wind and waves
    * to a tenth of the unit, a temperature limit given in °F (°C for a °C reader where it starts).
    */
-  limit: { speed: (ms: number) => string; length: (m: number) => string; tempF: (f: number) => string }
+  limit: {
+    speed: (ms: number) => string
+    length: (m: number) => string
+    tempF: (f: number) => string
+  }
 }
 
 const tenth = (x: number) => Math.round(x * 10) / 10
@@ -105,9 +109,7 @@ const WIND_LIMITS = [...new Set(Object.values(WIND_MS))]
 export function windFigure(ms: number, toUnit: (ms: number) => number): string {
   const judged = tenth(ms)
   const whole = Math.round(toUnit(judged))
-  const astray = WIND_LIMITS.some(
-    (limit) => judged >= limit !== whole >= tenth(toUnit(limit)),
-  )
+  const astray = WIND_LIMITS.some((limit) => judged >= limit !== whole >= tenth(toUnit(limit)))
   return astray ? figure(toUnit(judged)) : String(whole)
 }
 /** Waves for a small boat (common practice): 1 ft a chop, 2 ft rough, 3 ft dangerous. */

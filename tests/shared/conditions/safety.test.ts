@@ -230,7 +230,13 @@ describe('wind as shown', () => {
         // A light wind with a gust: the gust limits (force 6, force 7, gale) decide.
         const gust = figure(f.speed(ms))
         const byGust =
-          gust >= l.gale ? 'danger' : gust >= l.force7 ? 'warning' : gust >= l.force6 ? 'caution' : null
+          gust >= l.gale
+            ? 'danger'
+            : gust >= l.force7
+              ? 'warning'
+              : gust >= l.force6
+                ? 'caution'
+                : null
         expect(levelOf(cautions({ windMs: 3, gustMs: ms })), `gust ${ms} m/s as ${gust}`).toBe(
           byGust,
         )
