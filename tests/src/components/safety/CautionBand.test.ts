@@ -30,5 +30,7 @@ describe('CautionBand', () => {
     expect(figures).toContain('21.1 °C')
     expect(figures).toContain('12.0 °C')
     expect(wrapper.text()).toContain('force 5 from 28.8 km/h, force 6 from 38.9 km/h')
+    // The message, a space, then its source in brackets.
+    expect(wrapper.text()).toMatch(/do not cross open water\. \(WMO Beaufort scale/)
   })
 })
