@@ -31,7 +31,8 @@ const span = (lo: number, hi: number | undefined, each: (x: number) => string) =
 
 /**
  * Measurements written into the engine's words (tackle reasons, sizes: "about 2 ft of visibility",
- * "runs 1-1.5 m", "the mid 40s °F") restated in a person's units; text without them is unchanged.
+ * "runs 1-1.5 m", "the mid 40s °F", a front's "fell 3.5 hPa") restated in a person's units; text
+ * without them is unchanged.
  */
 function unitsInText(text: string, s: Settings): string {
   const imperial = s.length === 'ft'
@@ -47,6 +48,9 @@ function unitsInText(text: string, s: Settings): string {
         return `${span(lo, hi, (i) => String(Math.round((i * 25.4) / 5) * 5))} mm`
       return all
     })
+    .replace(/\b(\d+(?:\.\d+)?) hPa\b/g, (all, n) =>
+      imperial ? `${(Number(n) / HPA_PER_INHG).toFixed(2)} inHg` : all,
+    )
     .replace(/\b(?:the )?mid[- ](\d)0s °F/g, (all, tens) =>
       s.temperature === 'C' ? `about ${Math.round(fToC(Number(tens) * 10 + 5))} °C` : all,
     )

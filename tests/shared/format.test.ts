@@ -53,6 +53,12 @@ describe('makeFormat', () => {
     expect(f.pressureChange(-1.2)).toBe('−0.04 inHg')
     expect(f.pressureChange(0.05)).toBe('0.00 inHg')
     expect(metric.pressureChange(2.04)).toBe('+2.0 hPa')
+    // A front as the engine words it, restated for a US reader.
+    const front = 'Pressure fell 3.5 hPa, then rose 7.5 hPa, with the wind now from 300°.'
+    expect(f.prose(front)).toBe(
+      'Pressure fell 0.10 inHg, then rose 0.22 inHg, with the wind now from 300°.',
+    )
+    expect(metric.prose(front)).toBe(front)
   })
 
   it('says a reading of this minute is just now, not 0 min ago', () => {
