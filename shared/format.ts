@@ -1,12 +1,23 @@
 import { compassName } from './conditions/exposure'
-import { cautionWords, verdictOf, type CautionUnits } from './conditions/safety'
+import { cautionWords, limitC, verdictOf, windFigure, type CautionUnits } from './conditions/safety'
 import type { Settings } from './schemas/settings'
 import { addDays, dateLabel, dateTimeFormat, localDate } from './time'
-import { cToF, fToC, ftToM, M_PER_FT, mToFt, msToKmh, msToKnots, msToMph } from './units'
+import {
+  cToF,
+  fToC,
+  ftToM,
+  HPA_PER_INHG,
+  M_PER_FT,
+  mToFt,
+  msToKmh,
+  msToKnots,
+  msToMph,
+} from './units'
 
 /** "12 min ago", "3 h ago": how old a reading is. */
 export function age(iso: string, now = Date.now()): string {
   const min = Math.max(0, Math.round((now - Date.parse(iso)) / 60_000))
+  if (min < 1) return 'just now'
   if (min < 90) return `${min} min ago`
   return min < 2880 ? `${Math.round(min / 60)} h ago` : `${Math.round(min / 1440)} days ago`
 }
@@ -20,7 +31,8 @@ const span = (lo: number, hi: number | undefined, each: (x: number) => string) =
 
 /**
  * Measurements written into the engine's words (tackle reasons, sizes: "about 2 ft of visibility",
- * "runs 1-1.5 m", "the mid 40s °F") restated in a person's units; text without them is unchanged.
+ * "runs 1-1.5 m", "the mid 40s °F", a front's "fell 3.5 hPa") restated in a person's units; text
+ * without them is unchanged.
  */
 function unitsInText(text: string, s: Settings): string {
   const imperial = s.length === 'ft'
@@ -36,6 +48,9 @@ function unitsInText(text: string, s: Settings): string {
         return `${span(lo, hi, (i) => String(Math.round((i * 25.4) / 5) * 5))} mm`
       return all
     })
+    .replace(/\b(\d+(?:\.\d+)?) hPa\b/g, (all, n) =>
+      imperial ? `${(Number(n) / HPA_PER_INHG).toFixed(2)} inHg` : all,
+    )
     .replace(/\b(?:the )?mid[- ](\d)0s °F/g, (all, tens) =>
       s.temperature === 'C' ? `about ${Math.round(fToC(Number(tens) * 10 + 5))} °C` : all,
     )
@@ -65,13 +80,24 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
   const tempChange = (c: number) =>
     s.temperature === 'F' ? `${((c * 9) / 5).toFixed(1)} °F` : `${c.toFixed(1)} °C`
   const lengthOf = (m: number) => (s.length === 'ft' ? mToFt(m) : m)
-  const speedText = (ms: number) => `${Math.round(toSpeed(ms))} ${speedUnit}`
+  /** Whole numbers, or a tenth beside a wind limit (see windFigure): the level and the figure agree. */
+  const speedText = (ms: number) => `${windFigure(ms, toSpeed)} ${speedUnit}`
   const lengthText = (m: number) => `${lengthOf(m).toFixed(1)} ${s.length}`
+  const imperial = s.length === 'ft'
+  /** Pressure follows lengths: inches of mercury with feet, hectopascals with metres. */
+  const toPressure = (hPa: number) => (imperial ? hPa / HPA_PER_INHG : hPa)
+  const pressureUnit = imperial ? 'inHg' : 'hPa'
+  const pressureDigits = imperial ? 2 : 0
   const cautionUnits: CautionUnits = {
     speed: speedText,
     length: lengthText,
     // A tenth of a degree, as cautions are judged: 49.8 °F reads as a warning, 50.0 °F not.
     temp: (c) => (s.temperature === 'F' ? `${cToF(c).toFixed(1)} °F` : `${c.toFixed(1)} °C`),
+    limit: {
+      speed: (ms) => `${short(toSpeed(ms))} ${speedUnit}`,
+      length: (m) => `${short(lengthOf(m))} ${s.length}`,
+      tempF: (f) => (s.temperature === 'F' ? `${short(f)} °F` : `${short(limitC(f))} °C`),
+    },
   }
   return {
     settings: s,
@@ -94,13 +120,23 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
           ? 'steady'
           : `${perDay > 0 ? 'warming' : 'cooling'} ${tempChange(Math.abs(perDay))}/day`,
     length: lengthText,
+    /** A wave height to the tenth of a metre the cautions judge it at: 0.58 m reads as 2.0 ft. */
+    wave: (m: number) => lengthText(Math.round(m * 10) / 10),
     signedLength: (m: number) =>
       `${m >= 0 ? '+' : '−'}${Math.abs(lengthOf(m)).toFixed(1)} ${s.length}`,
     /** Longer distances (fetch): miles with feet, kilometres with metres. */
     distance: (m: number) =>
       s.length === 'ft' ? `${(m / 1609.344).toFixed(1)} mi` : `${(m / 1000).toFixed(1)} km`,
     speed: speedText,
-    /** A caution's headline and message in these units. */
+    /** Sea-level pressure: "30.01 inHg" or "1016 hPa". */
+    pressure: (hPa: number) => `${toPressure(hPa).toFixed(pressureDigits)} ${pressureUnit}`,
+    /** A change of pressure: "+0.04 inHg" or "+1.2 hPa". */
+    pressureChange: (hPa: number) => {
+      const x = Number(toPressure(hPa).toFixed(imperial ? 2 : 1))
+      const sign = x > 0 ? '+' : x < 0 ? '−' : ''
+      return `${sign}${Math.abs(x).toFixed(imperial ? 2 : 1)} ${pressureUnit}`
+    },
+    /** A caution's headline, message and source in these units. */
     caution: (c: Parameters<typeof cautionWords>[0]) => cautionWords(c, cautionUnits),
     /** The verdict of some cautions, its reasons in these units. */
     verdict: (cautions: Parameters<typeof cautionWords>[0][]) =>

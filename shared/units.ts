@@ -3,6 +3,8 @@ export const M_PER_FT = 0.3048
 export const MS_PER_MPH = 0.44704
 export const MS_PER_KNOT = 1852 / 3600
 export const MS_PER_KMH = 1 / 3.6
+/** Inch of mercury (32 °F) = 3386.38 Pa (NIST SP 811, appendix B.8). */
+export const HPA_PER_INHG = 33.8638
 
 export const cToF = (c: number) => (c * 9) / 5 + 32
 export const fToC = (f: number) => ((f - 32) * 5) / 9

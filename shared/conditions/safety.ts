@@ -1,5 +1,5 @@
 import { assertFinite } from '../errors'
-import { cToF, msToKmh, msToKnots, mToFt } from '../units'
+import { cToF, fToC, M_PER_FT, msToKmh, msToKnots, mToFt } from '../units'
 import { heatIndexC, windChillC } from './weather'
 
 export type CautionLevel = 'info' | 'caution' | 'warning' | 'danger'
@@ -42,16 +42,45 @@ export interface CautionInput {
 
 /** How a caution writes a number: by default in both unit systems, as cautions kept for everyone. */
 export interface CautionUnits {
+  /** A wind speed as `windFigure` prints it. */
   speed: (ms: number) => string
   length: (m: number) => string
   /** To a tenth of a degree: cautions are judged on the value as shown. */
   temp: (c: number) => string
+  /**
+   * The limits a caution's source quotes, as the values are shown against them: wind and waves
+   * to a tenth of the unit, a temperature limit given in °F (°C for a °C reader where it starts).
+   */
+  limit: {
+    speed: (ms: number) => string
+    length: (m: number) => string
+    tempF: (f: number) => string
+  }
+}
+
+const tenth = (x: number) => Math.round(x * 10) / 10
+/** A tenth without a trailing ".0": 17.9, 1, 0.3. */
+const figure = (x: number) => String(tenth(x))
+
+/**
+ * Where a °F limit starts for a °C reader: the lowest tenth of a degree Celsius whose °F shows
+ * at the limit or above (103 °F starts at 39.5 °C, as 39.4 °C shows as 102.9 °F).
+ */
+export function limitC(f: number): number {
+  let c = tenth(fToC(f) - 0.2)
+  while (tenth(cToF(c)) < f) c = tenth(c + 0.1)
+  return c
 }
 
 export const BOTH_UNITS: CautionUnits = {
-  speed: (ms) => `${Math.round(msToKnots(ms))} kt (${Math.round(msToKmh(ms))} km/h)`,
+  speed: (ms) => `${windFigure(ms, msToKnots)} kt (${windFigure(ms, msToKmh)} km/h)`,
   length: (m) => `${mToFt(m).toFixed(1)} ft (${m.toFixed(1)} m)`,
   temp: (c) => `${cToF(c).toFixed(1)} °F (${c.toFixed(1)} °C)`,
+  limit: {
+    speed: (ms) => `${figure(msToKnots(ms))} kt (${figure(msToKmh(ms))} km/h)`,
+    length: (m) => `${figure(mToFt(m))} ft (${figure(m)} m)`,
+    tempF: (f) => `${figure(f)} °F (${figure(limitC(f))} °C)`,
+  },
 }
 
 /**
@@ -68,6 +97,20 @@ export const WIND_MS = {
   gustCaution: 10.8,
   gustWarning: 13.9,
   gustDanger: 17.2,
+}
+const WIND_LIMITS = [...new Set(Object.values(WIND_MS))]
+
+/**
+ * A wind speed as people read it, judged as the wind cautions judge it (to 0.1 m/s): a whole
+ * number in their unit, or a tenth where the whole number would stand on the other side of a
+ * wind limit than the speed does, the limits being shown to a tenth. So 7.9 m/s, below the 8.0 m/s
+ * warning (17.9 mph), prints as 17.7 mph, never as the 18 mph that 8.0 m/s prints as.
+ */
+export function windFigure(ms: number, toUnit: (ms: number) => number): string {
+  const judged = tenth(ms)
+  const whole = Math.round(toUnit(judged))
+  const astray = WIND_LIMITS.some((limit) => judged >= limit !== whole >= tenth(toUnit(limit)))
+  return astray ? figure(toUnit(judged)) : String(whole)
 }
 /** Waves for a small boat (common practice): 1 ft a chop, 2 ft rough, 3 ft dangerous. */
 export const WAVE_M = { caution: 0.3, warning: 0.6, danger: 0.9 }
@@ -88,18 +131,23 @@ interface CautionRule {
   headline: (value: number, c: CautionInput, u: CautionUnits) => string
   /** What to do, by level. */
   advice: Levels
-  source: string
+  /** Where the limits come from, quoting them in the reader's units. */
+  source: (u: CautionUnits) => string
 }
 
-const gustOf = (c: CautionInput) => Math.max(c.gustMs ?? 0, c.windMs)
-const tenth = (x: number) => Math.round(x * 10) / 10
+/** The wind and gust as judged and shown, to 0.1 m/s. */
+const windOf = (c: CautionInput) => tenth(c.windMs)
+const gustOf = (c: CautionInput) => tenth(Math.max(c.gustMs ?? 0, c.windMs))
+/** A temperature as a °F reader sees it, from the tenth of a °C it is judged on. */
+const shownF = (c: number) => tenth(cToF(c))
 const GET_OFF = 'Do not launch; if you are out, get off the water by the shortest sheltered route.'
 
 /** Each caution is a row: what it judges, at what level, what it says and where that comes from. */
 export const CAUTION_RULES: CautionRule[] = [
   {
     kind: 'wind',
-    value: (c) => c.windMs,
+    // Judged to 0.1 m/s, as shown (see windFigure): a speed never prints at a level it is not.
+    value: windOf,
     level: (ms, c) => {
       const gust = gustOf(c)
       if (ms >= WIND_MS.danger || gust >= WIND_MS.gustDanger) return 'danger'
@@ -114,8 +162,8 @@ export const CAUTION_RULES: CautionRule[] = [
         'Rough for a small boat: fish near the launch and in sheltered coves, and do not cross open water.',
       danger: `Dangerous for small boats. ${GET_OFF}`,
     },
-    source:
-      'WMO Beaufort scale (force 5 from 8.0 m/s, force 6 from 10.8 m/s, gale from 17.2 m/s); limits for small boats on inland lakes are common practice',
+    source: ({ limit: { speed } }) =>
+      `WMO Beaufort scale (force 5 from ${speed(WIND_MS.warning)}, force 6 from ${speed(WIND_MS.danger)}, force 7 from ${speed(WIND_MS.gustWarning)}, gale from ${speed(WIND_MS.gustDanger)}); the ${speed(WIND_MS.caution)} caution and limits for small boats on inland lakes are common practice`,
   },
   {
     kind: 'waves',
@@ -136,8 +184,8 @@ export const CAUTION_RULES: CautionRule[] = [
         'Rough for a small boat: stay in the lee, slow down, and avoid long runs across open water.',
       danger: `Waves that can swamp a small boat. ${GET_OFF}`,
     },
-    source:
-      'Common practice for small boats (1, 2 and 3 ft); NWS small craft advisories on the Great Lakes start at 4 ft',
+    source: ({ limit: { length } }) =>
+      `Common practice for small boats (${length(WAVE_M.caution)}, ${length(WAVE_M.warning)} and ${length(WAVE_M.danger)}); NWS small craft advisories on the Great Lakes start at ${length(4 * M_PER_FT)}`,
   },
   {
     kind: 'lightning',
@@ -158,13 +206,14 @@ export const CAUTION_RULES: CautionRule[] = [
         'When thunder roars, go indoors: plan to be off the water before storms build, and wait 30 minutes after the last thunder.',
       danger: `Storms are likely. ${GET_OFF} When thunder roars, go indoors, and wait 30 minutes after the last thunder.`,
     },
-    source: 'NWS lightning safety; NWS chance-of-precipitation wording',
+    source: () => 'NWS lightning safety; NWS chance-of-precipitation wording',
   },
   {
     kind: 'cold-water',
     // Judged on the value as shown, to a tenth of a degree, so one number never reads at two levels.
     value: (c) => (c.waterC === undefined ? undefined : tenth(c.waterC)),
-    level: (c) => (c < 10 ? 'warning' : cToF(c) < 70 ? 'caution' : null),
+    // Against °F limits as a °F reader sees the tenth: 21.1 °C shows as 70.0 °F, no caution.
+    level: (c) => (shownF(c) < 50 ? 'warning' : shownF(c) < 70 ? 'caution' : null),
     headline: (c, _i, u) => `Water ${u.temp(c)}`,
     advice: {
       caution:
@@ -173,13 +222,15 @@ export const CAUTION_RULES: CautionRule[] = [
         'Very cold water: a fall brings cold shock within a minute (1-10-1). Wear the life jacket zipped, clip on the kill-switch lanyard, and do not fish alone.',
       danger: GET_OFF,
     },
-    source: '1-10-1 principle; 70 °F and 50 °F thresholds from memory',
+    source: ({ limit: { tempF } }) =>
+      `1-10-1 principle; ${tempF(70)} and ${tempF(50)} thresholds from memory`,
   },
   {
     kind: 'heat',
-    value: (c) => c.heatIndexC,
+    // Judged to a tenth of a degree, as shown, against the bands as a °F reader sees the tenth.
+    value: (c) => (c.heatIndexC === undefined ? undefined : tenth(c.heatIndexC)),
     level: (c) => {
-      const hi = cToF(c)
+      const hi = shownF(c)
       return hi >= 103 ? 'danger' : hi >= 90 ? 'warning' : hi >= 80 ? 'caution' : null
     },
     headline: (c, _i, u) => `Heat index ${u.temp(c)}`,
@@ -190,11 +241,12 @@ export const CAUTION_RULES: CautionRule[] = [
       danger:
         'Heat stroke is likely with long exposure: stay off the open water in the heat of the day, and fish the early hours only.',
     },
-    source: 'NWS heat index risk bands (80, 90, 103 °F)',
+    source: ({ limit: { tempF } }) =>
+      `NWS heat index risk bands (${tempF(80)}, ${tempF(90)}, ${tempF(103)})`,
   },
   {
     kind: 'wind-chill',
-    value: (c) => c.windChillC,
+    value: (c) => (c.windChillC === undefined ? undefined : tenth(c.windChillC)),
     level: (wc) => (wc <= -28 ? 'danger' : wc <= -10 ? 'warning' : wc <= 0 ? 'caution' : null),
     headline: (c, _i, u) => `Wind chill ${u.temp(c)}`,
     advice: {
@@ -202,7 +254,8 @@ export const CAUTION_RULES: CautionRule[] = [
       warning: 'Colder still at running speed: cover all skin; frostbite comes within 30 minutes.',
       danger: 'Frostbite comes within minutes, faster at running speed: stay off the water.',
     },
-    source: 'NWS wind chill (2001); -28 °C frostbite threshold from memory',
+    source: ({ limit: { tempF } }) =>
+      `NWS wind chill (2001); ${tempF(cToF(-28))} frostbite threshold from memory`,
   },
 ]
 
@@ -224,17 +277,23 @@ function worse(a: Caution, b: Caution): boolean {
   return sign * ((a.value ?? 0) - (b.value ?? 0)) > 0
 }
 
-/** A caution's headline and message in some units; a day's caution keeps the windows it names. */
+/**
+ * A caution's headline, message and source in some units; a day's caution keeps the windows it
+ * names.
+ */
 export function cautionWords(
-  c: Pick<Caution, 'kind' | 'level' | 'value' | 'gustMs' | 'when' | 'headline' | 'message'>,
+  c: Pick<
+    Caution,
+    'kind' | 'level' | 'value' | 'gustMs' | 'when' | 'headline' | 'message' | 'source'
+  >,
   units: CautionUnits,
-): { headline: string; message: string } {
+): { headline: string; message: string; source: string } {
   const rule = CAUTION_RULES.find((r) => r.kind === c.kind)
   if (!rule || c.value === undefined || c.level === 'info')
-    return { headline: c.headline, message: c.message }
+    return { headline: c.headline, message: c.message, source: c.source }
   const bare = rule.headline(c.value, { windMs: c.value, gustMs: c.gustMs }, units)
   const headline = c.when ? `${c.when}: ${bare}` : bare
-  return { headline, message: `${headline}. ${rule.advice[c.level]}` }
+  return { headline, message: `${headline}. ${rule.advice[c.level]}`, source: rule.source(units) }
 }
 
 /** Cautions for the worst of the conditions, most serious first, always ending with the deferral to local authority. */
@@ -261,9 +320,11 @@ export function cautions(conditions: CautionInput, units: CautionUnits = BOTH_UN
       level,
       value,
       ...(rule.kind === 'wind' && { gustMs: gustOf(conditions) }),
-      source: rule.source,
     }
-    found.push({ ...caution, ...cautionWords({ ...caution, headline: '', message: '' }, units) })
+    found.push({
+      ...caution,
+      ...cautionWords({ ...caution, headline: '', message: '', source: '' }, units),
+    })
   }
   found.sort((a, b) => RANK[a.level] - RANK[b.level])
   return [...found, AUTHORITY_CAUTION]

@@ -19,9 +19,11 @@ import { apiSession, startE2eScenario, type E2eBank, type E2eScenario } from '..
 
 /**
  * The named scenario days as people read them: the Lake read, the Day plan and the shared trip
- * page in Chromium, and the morning brief as it was mailed, in feet and °F on a phone and in
- * metres and °C on a desktop. What the pages say is compared with what the API answers, worded
- * by `makeFormat(settings)` as the screens word it.
+ * page in Chromium, and the morning brief as it was mailed. Each day is read twice, once in each
+ * unit system, one on a phone and one on a desktop, the pairing alternating from day to day, so
+ * both unit systems are read at both sizes without reading every day four times
+ * (`E2E_ALL_PASSES=1` reads each day in all four). What the pages say is compared with what the
+ * API answers, worded by `makeFormat(settings)` as the screens word it.
  */
 
 const METRIC: Settings = {
@@ -120,180 +122,192 @@ async function expectWindow(
   return verdict.verdict
 }
 
-describe.each(DAYS)('the $name day, as read', ({ name, day, noGo }) => {
-  const scenario = SCENARIOS[name]
-  let e2e: E2e
-  let page: Page
-  let tripPath: string
-  type E2e = E2eScenario
+type Pass = { units: 'imperial' | 'metric'; settings: Settings; size: keyof typeof SIZES }
+const IMPERIAL_PHONE: Pass = { units: 'imperial', settings: DEFAULT_SETTINGS, size: 'phone' }
+const METRIC_DESKTOP: Pass = { units: 'metric', settings: METRIC, size: 'desktop' }
+const METRIC_PHONE: Pass = { units: 'metric', settings: METRIC, size: 'phone' }
+const IMPERIAL_DESKTOP: Pass = { units: 'imperial', settings: DEFAULT_SETTINGS, size: 'desktop' }
+/** Day by day, imperial on a phone and metric on a desktop, then the other way round. */
+const passesOf = (i: number): Pass[] =>
+  process.env.E2E_ALL_PASSES
+    ? [IMPERIAL_PHONE, METRIC_PHONE, IMPERIAL_DESKTOP, METRIC_DESKTOP]
+    : i % 2
+      ? [METRIC_PHONE, IMPERIAL_DESKTOP]
+      : [IMPERIAL_PHONE, METRIC_DESKTOP]
 
-  beforeAll(async () => {
-    e2e = await startE2eScenario(name, BANKS)
-    // The guide's trip on the day with their three banks, shared by link through the API.
-    const guide = await apiSession(e2e.base, 'guide@chopline.test')
-    const trip = await guide<{ id: string }>('POST', '/api/guide/trips', {
-      lakeSlug: scenario.lake,
-      date: scenario.day,
-      meetingPoint: 'North ramp',
-      meetingTime: '06:30',
-      bankIds: e2e.bankIds['guide@chopline.test'],
-      tackle: '',
-      notes: '',
-    })
-    const shares = await guide<{ items: ShareView[] }>(
-      'POST',
-      `/api/guide/trips/${trip.id}/shares`,
-      { expiresOn: scenario.day },
-    )
-    tripPath = new URL(shares.items[0]!.url).pathname
-    await (await apiSession(e2e.base, 'angler@chopline.test')).into(e2e.browser.context)
-    page = await e2e.browser.context.newPage()
-  }, 60_000)
-  afterAll(async () => {
-    await e2e?.close()
-  })
+describe.each(DAYS.map((d, i) => ({ ...d, passes: passesOf(i) })))(
+  'the $name day, as read',
+  ({ name, day, noGo, passes }) => {
+    const scenario = SCENARIOS[name]
+    let e2e: E2e
+    let page: Page
+    let tripPath: string
+    type E2e = E2eScenario
 
-  const passes = [
-    { units: 'imperial', settings: DEFAULT_SETTINGS, size: 'phone' },
-    { units: 'metric', settings: METRIC, size: 'desktop' },
-  ] as const
-
-  for (const { units, settings, size } of passes) {
-    const f = makeFormat(settings)
-    const shot = (what: string) =>
-      page.screenshot({
-        path: join(artifactsDir, `scenario-${name}-${what}-${units}-${size}.png`),
-        fullPage: true,
+    beforeAll(async () => {
+      e2e = await startE2eScenario(name, BANKS)
+      // The guide's trip on the day with their three banks, shared by link through the API.
+      const guide = await apiSession(e2e.base, 'guide@chopline.test')
+      const trip = await guide<{ id: string }>('POST', '/api/guide/trips', {
+        lakeSlug: scenario.lake,
+        date: scenario.day,
+        meetingPoint: 'North ramp',
+        meetingTime: '06:30',
+        bankIds: e2e.bankIds['guide@chopline.test'],
+        tackle: '',
+        notes: '',
       })
+      const shares = await guide<{ items: ShareView[] }>(
+        'POST',
+        `/api/guide/trips/${trip.id}/shares`,
+        { expiresOn: scenario.day },
+      )
+      tripPath = new URL(shares.items[0]!.url).pathname
+      await (await apiSession(e2e.base, 'angler@chopline.test')).into(e2e.browser.context)
+      page = await e2e.browser.context.newPage()
+    }, 60_000)
+    afterAll(async () => {
+      await e2e?.close()
+    })
 
-    it(`the Lake read, Day plan and shared trip in ${units} units on a ${size}`, async () => {
-      if (settings !== DEFAULT_SETTINGS) {
+    for (const { units, settings, size } of passes) {
+      const f = makeFormat(settings)
+      const shot = (what: string) =>
+        page.screenshot({
+          path: join(artifactsDir, `scenario-${name}-${what}-${units}-${size}.png`),
+          fullPage: true,
+        })
+
+      it(`the Lake read, Day plan and shared trip in ${units} units on a ${size}`, async () => {
+        // The pass before may have left the other units.
         const angler = await apiSession(e2e.base, 'angler@chopline.test')
         await angler('PUT', '/api/me/settings', settings)
-      }
-      await page.setViewportSize(SIZES[size])
-      const api = async <T>(path: string) =>
-        (await (await page.request.get(`${e2e.base}${path}`)).json()) as T
+        await page.setViewportSize(SIZES[size])
+        const api = async <T>(path: string) =>
+          (await (await page.request.get(`${e2e.base}${path}`)).json()) as T
 
-      // The Lake read: the next 12 hours' verdict and cautions.
-      await page.goto(`${e2e.base}/lakes/${scenario.lake}`)
-      await page.getByRole('heading', { level: 1 }).waitFor()
-      const read = await api<LakeRead>(`/api/lakes/${scenario.lake}/read`)
-      const readVerdict = f.verdict(read.cautions)
-      const badge = page.locator('.verdict', { hasText: 'Next 12 hours' })
-      expect(await badge.getAttribute('class')).toContain(`verdict-${readVerdict.verdict}`)
-      expect(await badge.innerText()).toContain(VERDICT_LABELS[readVerdict.verdict])
-      await expectCautionsOnce(
-        page.getByRole('region', { name: 'Safety cautions, next 12 hours' }),
-        read.cautions,
-        f,
-        'Lake read',
-      )
-      if (name === 'blow') expect(readVerdict.verdict).toBe('no-go')
-      await expectAccessible(page, `${name} Lake read`)
-      await shot('lake-read')
-
-      // The Day plan: each window's verdict, cautions, banks and calls.
-      await page.goto(`${e2e.base}/lakes/${scenario.lake}/plan/${scenario.day}`)
-      await page.getByRole('heading', { name: /^Day plan · / }).waitFor()
-      const answer = await api<DayPlanResponse>(`/api/lakes/${scenario.lake}/plan/${scenario.day}`)
-      const plan = answer.plan!
-      await page
-        .locator('section.plan-window')
-        .nth(plan.windows.length - 1)
-        .waitFor()
-      const dayBadge = page.locator('.verdict', { hasText: 'The day' })
-      expect(await dayBadge.getAttribute('class')).toContain(`verdict-${day}`)
-      expect(f.verdict(plan.cautions).verdict).toBe(day)
-      const verdicts: Partial<Record<WindowId, Verdict>> = {}
-      for (const w of plan.windows.filter((x) => x.weather))
-        verdicts[w.id] = await expectWindow(page, w, f, 'Day plan', true)
-      expect(
-        Object.entries(verdicts)
-          .filter(([, v]) => v === 'no-go')
-          .map(([id]) => id),
-      ).toEqual(noGo)
-      await expect
-        .poll(() => page.getByRole('region', { name: 'About these cautions' }).innerText())
-        .toMatch(/boating law/)
-      await expectAccessible(page, `${name} Day plan`)
-      await shot('day-plan')
-
-      // The shared trip: the day's cautions once each, naming their windows; the windows below.
-      await page.goto(`${e2e.base}${tripPath}`)
-      await page.getByRole('heading', { name: /^Your trip on / }).waitFor()
-      const trip = await api<SharedTrip>(`/api${tripPath.replace('/trip/', '/shared/trips/')}`)
-      const tripBadge = page.locator('.trip-plan > .verdict')
-      expect(await tripBadge.getAttribute('class')).toContain(`verdict-${day}`)
-      await expectCautionsOnce(
-        page.getByRole('region', { name: 'Cautions for the day' }),
-        trip.cautions,
-        f,
-        'Shared trip',
-      )
-      const tripText = await page.locator('.caution-band').innerText()
-      for (const c of trip.cautions.filter((x) => x.when)) expect(tripText).toContain(c.when)
-      for (const w of trip.plan!.windows.filter((x) => x.weather))
-        await expectWindow(page, w, f, 'Shared trip', false)
-      await expectAccessible(page, `${name} shared trip`)
-      await shot('shared-trip')
-    })
-
-    it(`the morning brief in ${units} units, text and HTML`, async () => {
-      // The brief of the day, as the job sends it a little after 05:00 at the lake.
-      await e2e.db.delete(briefSends)
-      e2e.mail.smtp.clear()
-      const at = new Date(scenarioClock(scenario).getTime() + 10 * 60_000)
-      await runSendBriefs({
-        db: e2e.db,
-        log: pino({ level: 'silent' }),
-        mail: e2e.mail.mail,
-        sessionSecret: TEST_SECRET,
-        now: () => at,
-      })
-      const brief = e2e.mail.smtp.messages().find((m) => m.to.includes('angler@chopline.test'))
-      expect(brief, 'the demo angler’s brief').toBeDefined()
-      const plan = (
-        (await (
-          await page.request.get(`${e2e.base}/api/lakes/${scenario.lake}/plan/${scenario.day}`)
-        ).json()) as DayPlanResponse
-      ).plan!
-
-      const mail = await e2e.browser.context.newPage()
-      await mail.setViewportSize(SIZES[size])
-      await mail.setContent(brief!.html!)
-      const html = await mail.locator('body').innerText()
-      for (const [part, text] of [
-        ['text', brief!.text],
-        ['HTML', html],
-      ] as const) {
-        const dayVerdict = f.verdict(plan.cautions).verdict
-        expect(text, `${part}: the day`).toContain(VERDICT_LABELS[dayVerdict])
-        for (const c of plan.cautions.filter((x) => x.kind !== 'authority')) {
-          const message = f.caution(c).message
-          expect(times(text, message), `${part}: ${message}`).toBe(1)
-        }
-        for (const w of plan.windows.filter((x) => x.weather)) {
-          expect(text, `${part}: ${w.label}`).toContain(w.label)
-        }
-        expect(times(text, 'Do not launch in this window'), `${part}: no-go windows`).toBe(
-          noGo.length,
+        // The Lake read: the next 12 hours' verdict and cautions.
+        await page.goto(`${e2e.base}/lakes/${scenario.lake}`)
+        await page.getByRole('heading', { level: 1 }).waitFor()
+        const read = await api<LakeRead>(`/api/lakes/${scenario.lake}/read`)
+        const readVerdict = f.verdict(read.cautions)
+        const badge = page.locator('.verdict', { hasText: 'Next 12 hours' })
+        expect(await badge.getAttribute('class')).toContain(`verdict-${readVerdict.verdict}`)
+        expect(await badge.innerText()).toContain(VERDICT_LABELS[readVerdict.verdict])
+        await expectCautionsOnce(
+          page.getByRole('region', { name: 'Safety cautions, next 12 hours' }),
+          read.cautions,
+          f,
+          'Lake read',
         )
-        if (part === 'text')
-          for (const w of plan.windows.filter((x) => x.weather)) {
-            const v = f.verdict(w.cautions).verdict
-            expect(text).toContain(`${w.label} (`)
-            expect(text).toContain(`${VERDICT_SHAPES[v]} ${VERDICT_LABELS[v]}`)
-          }
-      }
-      // The units of the reader, not the other system's.
-      const other = settings === DEFAULT_SETTINGS ? /km\/h|°C/ : /mph|°F/
-      expect(brief!.text).not.toMatch(other)
-      await mail.screenshot({
-        path: join(artifactsDir, `scenario-${name}-brief-email-${units}-${size}.png`),
-        fullPage: true,
+        if (name === 'blow') expect(readVerdict.verdict).toBe('no-go')
+        await expectAccessible(page, `${name} Lake read`)
+        await shot('lake-read')
+
+        // The Day plan: each window's verdict, cautions, banks and calls.
+        await page.goto(`${e2e.base}/lakes/${scenario.lake}/plan/${scenario.day}`)
+        await page.getByRole('heading', { name: /^Day plan · / }).waitFor()
+        const answer = await api<DayPlanResponse>(
+          `/api/lakes/${scenario.lake}/plan/${scenario.day}`,
+        )
+        const plan = answer.plan!
+        await page
+          .locator('section.plan-window')
+          .nth(plan.windows.length - 1)
+          .waitFor()
+        const dayBadge = page.locator('.verdict', { hasText: 'The day' })
+        expect(await dayBadge.getAttribute('class')).toContain(`verdict-${day}`)
+        expect(f.verdict(plan.cautions).verdict).toBe(day)
+        const verdicts: Partial<Record<WindowId, Verdict>> = {}
+        for (const w of plan.windows.filter((x) => x.weather))
+          verdicts[w.id] = await expectWindow(page, w, f, 'Day plan', true)
+        expect(
+          Object.entries(verdicts)
+            .filter(([, v]) => v === 'no-go')
+            .map(([id]) => id),
+        ).toEqual(noGo)
+        await expect
+          .poll(() => page.getByRole('region', { name: 'About these cautions' }).innerText())
+          .toMatch(/boating law/)
+        await expectAccessible(page, `${name} Day plan`)
+        await shot('day-plan')
+
+        // The shared trip: the day's cautions once each, naming their windows; the windows below.
+        await page.goto(`${e2e.base}${tripPath}`)
+        await page.getByRole('heading', { name: /^Your trip on / }).waitFor()
+        const trip = await api<SharedTrip>(`/api${tripPath.replace('/trip/', '/shared/trips/')}`)
+        const tripBadge = page.locator('.trip-plan > .verdict')
+        expect(await tripBadge.getAttribute('class')).toContain(`verdict-${day}`)
+        await expectCautionsOnce(
+          page.getByRole('region', { name: 'Cautions for the day' }),
+          trip.cautions,
+          f,
+          'Shared trip',
+        )
+        const tripText = await page.locator('.caution-band').innerText()
+        for (const c of trip.cautions.filter((x) => x.when)) expect(tripText).toContain(c.when)
+        for (const w of trip.plan!.windows.filter((x) => x.weather))
+          await expectWindow(page, w, f, 'Shared trip', false)
+        await expectAccessible(page, `${name} shared trip`)
+        await shot('shared-trip')
       })
-      await mail.close()
-    })
-  }
-})
+
+      it(`the morning brief in ${units} units, text and HTML`, async () => {
+        // The brief of the day, as the job sends it a little after 05:00 at the lake.
+        await e2e.db.delete(briefSends)
+        e2e.mail.smtp.clear()
+        const at = new Date(scenarioClock(scenario).getTime() + 10 * 60_000)
+        await runSendBriefs({
+          db: e2e.db,
+          log: pino({ level: 'silent' }),
+          mail: e2e.mail.mail,
+          sessionSecret: TEST_SECRET,
+          now: () => at,
+        })
+        const brief = e2e.mail.smtp.messages().find((m) => m.to.includes('angler@chopline.test'))
+        expect(brief, 'the demo angler’s brief').toBeDefined()
+        const plan = (
+          (await (
+            await page.request.get(`${e2e.base}/api/lakes/${scenario.lake}/plan/${scenario.day}`)
+          ).json()) as DayPlanResponse
+        ).plan!
+
+        const mail = await e2e.browser.context.newPage()
+        await mail.setViewportSize(SIZES[size])
+        await mail.setContent(brief!.html!)
+        const html = await mail.locator('body').innerText()
+        for (const [part, text] of [
+          ['text', brief!.text],
+          ['HTML', html],
+        ] as const) {
+          const dayVerdict = f.verdict(plan.cautions).verdict
+          expect(text, `${part}: the day`).toContain(VERDICT_LABELS[dayVerdict])
+          for (const c of plan.cautions.filter((x) => x.kind !== 'authority')) {
+            const message = f.caution(c).message
+            expect(times(text, message), `${part}: ${message}`).toBe(1)
+          }
+          for (const w of plan.windows.filter((x) => x.weather)) {
+            expect(text, `${part}: ${w.label}`).toContain(w.label)
+          }
+          expect(times(text, 'Do not launch in this window'), `${part}: no-go windows`).toBe(
+            noGo.length,
+          )
+          if (part === 'text')
+            for (const w of plan.windows.filter((x) => x.weather)) {
+              const v = f.verdict(w.cautions).verdict
+              expect(text).toContain(`${w.label} (`)
+              expect(text).toContain(`${VERDICT_SHAPES[v]} ${VERDICT_LABELS[v]}`)
+            }
+        }
+        // The units of the reader, not the other system's.
+        const other = settings === DEFAULT_SETTINGS ? /km\/h|°C/ : /mph|°F/
+        expect(brief!.text).not.toMatch(other)
+        await mail.screenshot({
+          path: join(artifactsDir, `scenario-${name}-brief-email-${units}-${size}.png`),
+          fullPage: true,
+        })
+        await mail.close()
+      })
+    }
+  },
+)

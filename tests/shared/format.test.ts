@@ -45,6 +45,28 @@ describe('makeFormat', () => {
     expect(f.dateTime('2026-04-10T18:05:00Z', 'UTC')).toBe('Apr 10, 2026, 6:05 PM')
   })
 
+  it('gives pressure in inches of mercury with feet and hectopascals with metres (NIST SP 811: 1 inHg (32 °F) = 3386.38 Pa)', () => {
+    const f = makeFormat()
+    expect(f.pressure(1016.2)).toBe('30.01 inHg') // 1016.2 / 33.8638
+    expect(f.pressure(1013.25)).toBe('29.92 inHg') // the standard atmosphere
+    expect(metric.pressure(1016.2)).toBe('1016 hPa')
+    expect(f.pressureChange(-1.2)).toBe('−0.04 inHg')
+    expect(f.pressureChange(0.05)).toBe('0.00 inHg')
+    expect(metric.pressureChange(2.04)).toBe('+2.0 hPa')
+    // A front as the engine words it, restated for a US reader.
+    const front = 'Pressure fell 3.5 hPa, then rose 7.5 hPa, with the wind now from 300°.'
+    expect(f.prose(front)).toBe(
+      'Pressure fell 0.10 inHg, then rose 0.22 inHg, with the wind now from 300°.',
+    )
+    expect(metric.prose(front)).toBe(front)
+  })
+
+  it('says a reading of this minute is just now, not 0 min ago', () => {
+    const now = Date.parse('2026-05-06T10:00:00Z')
+    expect(makeFormat().age('2026-05-06T09:59:50Z', now)).toBe('just now')
+    expect(makeFormat().age('2026-05-06T09:58:00Z', now)).toBe('2 min ago')
+  })
+
   it('words a day against today at the lake', () => {
     const now = new Date('2026-05-06T03:00:00Z') // still May 5 in Chicago
     const f = makeFormat()

@@ -7,6 +7,7 @@ import {
   type CautionHour,
 } from '../../../shared/conditions/safety'
 import { heatIndexC } from '../../../shared/conditions/weather'
+import { DEFAULT_SETTINGS, makeFormat } from '../../../shared/format'
 import { cToF, fToC, MS_PER_KNOT } from '../../../shared/units'
 
 const kinds = (c: ReturnType<typeof cautions>) => c.map((x) => `${x.kind}:${x.level}`)
@@ -164,5 +165,126 @@ describe('waves as shown', () => {
     const waves = cautions({ windMs: 5, waveHeightM: 0.58 }).find((c) => c.kind === 'waves')!
     expect(waves.headline).toMatch(/\(0\.6 m\)/)
     expect(waves.level).toBe('warning')
+  })
+})
+
+describe('wind as shown', () => {
+  const units = ['mph', 'kmh', 'knots'] as const
+  const reader = (speed: (typeof units)[number]) =>
+    makeFormat({ ...DEFAULT_SETTINGS, speed, temperature: 'C', length: 'm' })
+  /** The figure of "17.7 mph", "25.2 km/h", "21 kt". */
+  const figure = (text: string) => Number(/^(-?\d+(?:\.\d+)?) /.exec(text)![1])
+  /** The limits the source quotes, in the reader's unit: force 5, 6, 7, gale and the caution. */
+  function limits(f: ReturnType<typeof makeFormat>) {
+    const wind = find(cautions({ windMs: 9 }), 'wind')!
+    const n = (re: RegExp) => Number(re.exec(f.caution(wind).source)![1])
+    return {
+      caution: n(/the (\d+(?:\.\d+)?) \S+ caution/),
+      force5: n(/force 5 from (\d+(?:\.\d+)?)/),
+      force6: n(/force 6 from (\d+(?:\.\d+)?)/),
+      force7: n(/force 7 from (\d+(?:\.\d+)?)/),
+      gale: n(/gale from (\d+(?:\.\d+)?)/),
+    }
+  }
+  const levelOf = (c: ReturnType<typeof cautions>) => find(c, 'wind')?.level ?? null
+
+  it('never prints a speed just below a limit as the figure of one at it: 7.9 m/s is 17.7 mph, 8.0 m/s 18 mph (WMO Beaufort force 5 from 8.0 m/s; NIST SP 811: 1 mph = 0.44704 m/s)', () => {
+    const mph = reader('mph')
+    expect(mph.speed(7.9)).toBe('17.7 mph')
+    expect(levelOf(cautions({ windMs: 7.9 }))).toBe('caution')
+    expect(mph.speed(8.0)).toBe('18 mph')
+    expect(levelOf(cautions({ windMs: 8.0 }))).toBe('warning')
+    // 7.96 m/s is judged as the 8.0 m/s it shows as.
+    expect(levelOf(cautions({ windMs: 7.96 }))).toBe('warning')
+    expect(mph.speed(7.96)).toBe('18 mph')
+    // Whole numbers away from a limit.
+    expect(mph.speed(0.44704 * 12)).toBe('12 mph')
+    // km/h: 7.0 m/s is 25.2 km/h exactly (1 km/h = 1/3.6 m/s), the caution limit.
+    expect(reader('kmh').speed(7.0)).toBe('25.2 km/h')
+    expect(reader('kmh').speed(6.9)).toBe('25 km/h')
+    // knots: force 6 from 10.8 m/s is 21.0 kt (1 kt = 1852/3600 m/s).
+    expect(reader('knots').speed(10.7)).toBe('20.8 kt')
+    expect(levelOf(cautions({ windMs: 10.7 }))).toBe('warning')
+    expect(reader('knots').speed(10.8)).toBe('21 kt')
+    expect(levelOf(cautions({ windMs: 10.8 }))).toBe('danger')
+  })
+
+  it.each(units)(
+    'in %s, the figure shown and the limits quoted always give the level the caution has (WMO Beaufort scale; common practice)',
+    (unit) => {
+      const f = reader(unit)
+      const l = limits(f)
+      for (let cms = 500; cms <= 2000; cms += 1) {
+        const ms = cms / 100
+        // Sustained wind, gusts no stronger: the wind limits decide.
+        const shown = figure(f.speed(ms))
+        const byFigure =
+          shown >= l.force6
+            ? 'danger'
+            : shown >= l.force5
+              ? 'warning'
+              : shown >= l.caution
+                ? 'caution'
+                : null
+        expect(levelOf(cautions({ windMs: ms })), `${ms} m/s shown as ${shown}`).toBe(byFigure)
+        // A light wind with a gust: the gust limits (force 6, force 7, gale) decide.
+        const gust = figure(f.speed(ms))
+        const byGust =
+          gust >= l.gale
+            ? 'danger'
+            : gust >= l.force7
+              ? 'warning'
+              : gust >= l.force6
+                ? 'caution'
+                : null
+        expect(levelOf(cautions({ windMs: 3, gustMs: ms })), `gust ${ms} m/s as ${gust}`).toBe(
+          byGust,
+        )
+      }
+    },
+  )
+})
+
+describe('a caution’s source in the reader’s units', () => {
+  const metric = makeFormat({ ...DEFAULT_SETTINGS, temperature: 'C', length: 'm', speed: 'kmh' })
+  const imperial = makeFormat(DEFAULT_SETTINGS)
+  const all = cautions({
+    windMs: 9,
+    waveHeightM: 0.7,
+    waterC: 12,
+    heatIndexC: 33,
+    windChillC: -3,
+  }).filter((c) => c.kind !== 'authority')
+
+  it('quotes the limits in km/h, metres and °C to a metric reader, and in mph, feet and °F to a US one (NIST SP 811 factors)', () => {
+    const sourceOf = (f: typeof metric, kind: string) => f.caution(find(all, kind)!).source
+    expect(sourceOf(metric, 'wind')).toMatch(/force 5 from 28\.8 km\/h/) // 8.0 m/s × 3.6
+    expect(sourceOf(imperial, 'wind')).toMatch(/force 5 from 17\.9 mph/) // 8.0 / 0.44704
+    expect(sourceOf(metric, 'waves')).toMatch(/\(0\.3 m, 0\.6 m and 0\.9 m\)/)
+    expect(sourceOf(imperial, 'waves')).toMatch(/\(1 ft, 2 ft and 3 ft\).*4 ft/)
+    expect(sourceOf(metric, 'cold-water')).toMatch(/21\.1 °C and 10 °C/) // 70 °F, 50 °F
+    expect(sourceOf(imperial, 'cold-water')).toMatch(/70 °F and 50 °F/)
+    expect(sourceOf(imperial, 'heat')).toMatch(/80 °F, 90 °F, 103 °F/) // NWS heat index bands
+    expect(sourceOf(metric, 'wind-chill')).toMatch(/-28 °C frostbite/)
+    expect(sourceOf(imperial, 'wind-chill')).toMatch(/-18\.4 °F frostbite/)
+    for (const c of all) {
+      expect(metric.caution(c).source, c.kind).not.toMatch(/m\/s|mph|\bkt\b|\bft\b|°F/)
+      expect(imperial.caution(c).source, c.kind).not.toMatch(/m\/s|km\/h|\bkt\b|\d m\b|°C/)
+    }
+  })
+
+  it('never prints a temperature at a level its band does not start at: 32.2 °C shows as 90.0 °F and is the 90 °F band, 21.1 °C shows as 70.0 °F and is no caution (NWS heat index bands; 70 °F from memory)', () => {
+    const heat = find(cautions({ windMs: 2, heatIndexC: 32.2 }), 'heat')!
+    expect(imperial.caution(heat).headline).toBe('Heat index 90.0 °F')
+    expect(heat.level).toBe('warning')
+    expect(metric.caution(heat).source).toMatch(/32\.2 °C/)
+    expect(find(cautions({ windMs: 2, heatIndexC: 32.1 }), 'heat')!.level).toBe('caution')
+    // 103 °F is 39.44 °C, but 39.4 °C shows as 102.9 °F: for a °C reader the band starts at 39.5.
+    expect(find(cautions({ windMs: 2, heatIndexC: 39.4 }), 'heat')!.level).toBe('warning')
+    expect(find(cautions({ windMs: 2, heatIndexC: 39.5 }), 'heat')!.level).toBe('danger')
+    expect(metric.caution(heat).source).toMatch(/39\.5 °C/)
+    expect(find(cautions({ windMs: 2, waterC: 21.1 }), 'cold-water')).toBeUndefined()
+    const cool = find(cautions({ windMs: 2, waterC: 21.0 }), 'cold-water')!
+    expect(imperial.caution(cool).headline).toBe('Water 69.8 °F')
   })
 })

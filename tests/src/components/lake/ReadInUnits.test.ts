@@ -4,6 +4,9 @@ import type { DayPlanResponse } from '@shared/schemas/day-plan'
 import LakeOutline from '@/components/lake/LakeOutline.vue'
 import SkyPanel from '@/components/lake/SkyPanel.vue'
 import WaterStrip from '@/components/lake/WaterStrip.vue'
+import WindPanel from '@/components/lake/WindPanel.vue'
+import { cautions } from '@shared/conditions/safety'
+import { makeFormat } from '@shared/format'
 import TackleCallItem from '@/components/plan/TackleCallItem.vue'
 import { sampleRead } from '../../../helpers/lake-read-fixture'
 import { IMPERIAL, METRIC, mountAs } from '../mountAs'
@@ -74,6 +77,41 @@ describe('the season line', () => {
     const text = mountAs(METRIC, SkyPanel, { props: { read: sampleRead(lake, NOW) } }).text()
     expect(text).toContain('5-day mean 12.2 °C, warming 0.4 °C/day')
     expect(text).not.toContain('°F')
+  })
+})
+
+describe('the pressure', () => {
+  /** 1016.2 hPa, falling 1.2 hPa in three hours. */
+  const falling = (): LakeRead => ({
+    ...sampleRead(lake, NOW),
+    pressure: { hPa: 1016.2, changeHpa3h: -1.2, label: 'falling slowly' },
+  })
+
+  it('reads in inches of mercury to a US reader (NIST SP 811: 1 inHg = 3386.38 Pa)', () => {
+    const text = mountAs(IMPERIAL, SkyPanel, { props: { read: falling() } }).text()
+    expect(text).toContain('30.01 inHg, falling slowly (−0.04 inHg in 3 h)')
+    expect(text).not.toContain('hPa')
+  })
+
+  it('reads in hectopascals to a metric reader', () => {
+    const text = mountAs(METRIC, SkyPanel, { props: { read: falling() } }).text()
+    expect(text).toContain('1016 hPa, falling slowly (−1.2 hPa in 3 h)')
+    expect(text).not.toContain('inHg')
+  })
+})
+
+describe('the wind panel', () => {
+  it('gives the 12-hour wave at the figure its caution shows: 0.58 m is 2.0 ft in both (common practice: 2 ft waves a warning)', () => {
+    const wave = 0.58
+    const read: LakeRead = {
+      ...sampleRead(lake, NOW),
+      windNow: { at: NOW, windMs: 6, gustMs: 9, windFromDeg: 200 },
+      openWaterWaveM: wave,
+    }
+    const text = mountAs(IMPERIAL, WindPanel, { props: { read } }).text()
+    expect(text).toContain('Waves to 2.0 ft on open water in the next 12 hours')
+    const caution = cautions({ windMs: 6, waveHeightM: wave }).find((c) => c.kind === 'waves')!
+    expect(makeFormat(IMPERIAL).caution(caution).headline).toContain('2.0 ft')
   })
 })
 
