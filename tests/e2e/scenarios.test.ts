@@ -103,6 +103,10 @@ async function expectWindow(
       )
   }
   const text = await section.innerText()
+  // A passed front is said in the window, its pressures in the reader's units.
+  if (w.weather?.coldFront)
+    expect(text).toContain(`After a cold front: ${f.prose(w.weather.coldFront)}`)
+  else expect(text).not.toContain('After a cold front')
   const banks = await section.locator('.ranked-bank strong').allInnerTexts()
   const calls = await section.locator('.tackle-call summary').allInnerTexts()
   if (verdict.verdict === 'no-go') {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { makeFormat } from '@shared/format'
 import PlanWindow from '@/components/plan/PlanWindow.vue'
-import { IMPERIAL, mountAs } from '../mountAs'
+import { IMPERIAL, METRIC, mountAs } from '../mountAs'
 import { boxLakePlan, EAST_ROCKS, westWindDay } from '../plan-day'
 
 // Calm, cold dawn; two hours of a 13 m/s blow at midday; a slight chance of storms after.
@@ -51,6 +51,29 @@ describe('PlanWindow', () => {
     expect(wrapper.find('.verdict-caution').text()).toContain('Go with caution')
     expect(wrapper.find('.verdict-caution').text()).toContain('Water 49.8 °F')
     expect(wrapper.find('.banks').text()).toContain('East rocks')
+  })
+
+  it('says a cold front has passed, with the pressure in the reader’s units (NIST SP 811: 1 inHg = 33.8638 hPa)', () => {
+    const dawn = windowOf('dawn')
+    const window = {
+      ...dawn,
+      weather: {
+        ...dawn.weather!,
+        coldFront: 'Pressure fell 4.2 hPa, then rose 3.4 hPa, with the wind now from 315°.',
+      },
+    }
+    const props = { window, timeZone: 'America/Chicago', banksSaved: 1 }
+    const imperial = mountAs(IMPERIAL, PlanWindow, { props }).find('.front').text()
+    expect(imperial).toContain('After a cold front: Pressure fell 0.12 inHg, then rose 0.10 inHg')
+    expect(mountAs(METRIC, PlanWindow, { props }).find('.front').text()).toContain(
+      'Pressure fell 4.2 hPa, then rose 3.4 hPa',
+    )
+    // No front, no line.
+    expect(
+      mountAs(IMPERIAL, PlanWindow, { props: { ...props, window: dawn } })
+        .find('.front')
+        .exists(),
+    ).toBe(false)
   })
 
   it('leaves the cautions to the page when it says so', () => {
