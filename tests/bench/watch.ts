@@ -51,6 +51,7 @@ const KINDS: WatchConditions[] = [
     phases: [],
     windows: [],
     notNoGo: true,
+    daysAhead: null,
   },
   {
     wind: { onto: false, min: 5, max: 12, unit: 'mph' },
@@ -58,6 +59,7 @@ const KINDS: WatchConditions[] = [
     phases: ['pre-spawn'],
     windows: [],
     notNoGo: true,
+    daysAhead: null,
   },
   {
     wind: { onto: true, min: 10, max: 15, unit: 'knots' },
@@ -65,14 +67,16 @@ const KINDS: WatchConditions[] = [
     phases: [],
     windows: ['dawn'],
     notNoGo: true,
+    daysAhead: null,
   },
-  { wind: null, clarity: ['clear'], phases: [], windows: [], notNoGo: true },
+  { wind: null, clarity: ['clear'], phases: [], windows: [], notNoGo: true, daysAhead: null },
   {
     wind: { onto: false, min: 0, max: 30, unit: 'kmh' },
     clarity: [],
     phases: ['spawn'],
     windows: [],
     notNoGo: false,
+    daysAhead: null,
   },
 ]
 
@@ -174,6 +178,7 @@ async function timedRun() {
     watches: result.watches,
     claimed: result.claimed.length,
     cleared: result.cleared,
+    phases: result.phases,
   }
 }
 
@@ -212,6 +217,13 @@ try {
     'alerts claimed again': unchanged.claimed,
     'forecast a day along, most windows change (ms)': Math.round(dayAlong.ms),
     'alerts claimed / cleared, a day along': `${dayAlong.claimed} / ${dayAlong.cleared}`,
+    'fresh run: lakes judged / watches read / bank tables / judging / writes waited (ms)': [
+      large.phases.lakes,
+      large.phases.read,
+      large.phases.tables,
+      large.phases.judge,
+      large.phases.write,
+    ].join(' / '),
     'µs per watch, 10,000': perWatchSmall.toFixed(1),
     'µs per watch, 100,000': perWatchLarge.toFixed(1),
     'per-watch cost, 100,000 vs 10,000': ratio.toFixed(2),
@@ -223,6 +235,7 @@ try {
       bench: 'watch',
       watches: large.watches,
       freshMs: Math.round(large.ms),
+      freshPhasesMs: large.phases,
       unchangedMs: Math.round(unchanged.ms),
       claimed: large.claimed,
       cleared: large.cleared,

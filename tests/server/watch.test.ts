@@ -106,6 +106,7 @@ describeScenario('blow', (get) => {
       phases: [],
       windows: [],
       notNoGo: true,
+      daysAhead: null,
     })
     const guide = await signIn('guide')
     await guide.delete(`/api/watches/${made.id}`).expect(404)
@@ -189,6 +190,37 @@ describeScenario('blow', (get) => {
     await check()
     expect(await alertsOf(any.id)).toContain(`${w.dateOf(1)} midday #1 sent`)
     await angler.delete(`/api/watches/${any.id}`).expect(204)
+  })
+
+  it('keeps to the days ahead it was given: one day ahead tells today’s dawn, not tomorrow’s', async () => {
+    const angler = await signIn('angler')
+    const today = Watch.parse(
+      (
+        await angler
+          .post('/api/watches')
+          .send(
+            watchBody({
+              name: 'Today only',
+              conditions: { wind: { onto: true, min: 8, max: 20, unit: 'mph' }, daysAhead: 1 },
+            } as Partial<WatchInput>),
+          )
+          .expect(201)
+      ).body,
+    )
+    expect(today.conditions.daysAhead).toBe(1)
+    await check()
+    // The same windows as the point's watch above, cut to the lake's today (day 0).
+    expect(await alertsOf(today.id)).toEqual([`${w.dateOf(0)} dawn #1 sent`])
+    const tooFar = await angler
+      .post('/api/watches')
+      .send(
+        watchBody({
+          conditions: { wind: null, daysAhead: 9 },
+        } as Partial<WatchInput>),
+      )
+      .expect(400)
+    expect(tooFar.body.error.fields['conditions.daysAhead']).toMatch(/At most 7/)
+    await angler.delete(`/api/watches/${today.id}`).expect(204)
   })
 
   it('claims each window once when two runners match the same watch at the same time', async () => {

@@ -8,7 +8,9 @@ import {
   type CompiledWatch,
   type TripAlarm,
   type WatchedWindow,
+  type WatchMatch,
 } from '../../../shared/conditions/watch'
+import type { WatchConditions } from '../../../shared/schemas/watch'
 import { addDays, localDate } from '../../../shared/time'
 import type { Db } from '../../db/index'
 import { watchRepo, type AlertKey, type WatchRepo, type WatchRow } from './watch.repo'
@@ -17,6 +19,8 @@ import { watchRepo, type AlertKey, type WatchRepo, type WatchRow } from './watch
 export const WATCH_PAGE = 10_000
 
 interface LakeWindows {
+  /** The lake's local today: a watch's `daysAhead` counts from it. */
+  today: string
   /** Each with its episode key, `date/window`. */
   windows: (WatchedWindow & { key: string })[]
   /** Each stored date's alarm for a trip on it, or null when the day is fine. */
@@ -30,9 +34,10 @@ interface LakeWindows {
  */
 function lakeWindows(rows: Awaited<ReturnType<WatchRepo['lakeDays']>>, now: Date) {
   const lakes = new Map<string, LakeWindows>()
-  for (const { lakeId, date, day } of rows) {
+  for (const { lakeId, timeZone, date, day } of rows) {
     let lake = lakes.get(lakeId)
-    if (!lake) lakes.set(lakeId, (lake = { windows: [], days: new Map() }))
+    if (!lake)
+      lakes.set(lakeId, (lake = { today: localDate(now, timeZone), windows: [], days: new Map() }))
     const plan = planForBanks(day, [])
     lake.days.set(date, tripAlarm({ verdict: plan.verdict.verdict, cautions: plan.cautions }))
     for (const w of plan.windows)
@@ -50,6 +55,52 @@ function lakeWindows(rows: Awaited<ReturnType<WatchRepo['lakeDays']>>, now: Date
   return lakes
 }
 
+/**
+ * One set of conditions judged on one lake's windows, once per run however many watches share
+ * it: whether each window meets everything but the bank, and the match of a lake-wide watch.
+ */
+interface ConditionsOnLake {
+  compiled: CompiledWatch
+  /** Per window of the lake: the bank-free conditions and the watch's days ahead hold. */
+  holds: boolean[]
+  /** Per window: the match of a watch on the whole lake. */
+  lakeMatch: (WatchMatch | null)[]
+  anyHolds: boolean
+}
+
+/**
+ * The judging of a run: each distinct set of conditions (by its stored text) is compiled and
+ * judged on each lake once, so a run's cost is the watches' episodes plus a bank's table where a
+ * bank-free condition holds, not every watch against every window.
+ */
+export class RunJudge {
+  private readonly groups = new Map<string, ConditionsOnLake>()
+
+  constructor(readonly lakes: Map<string, LakeWindows>) {}
+
+  on(lakeId: string, conditions: string): ConditionsOnLake | undefined {
+    const key = `${lakeId} ${conditions}`
+    let group = this.groups.get(key)
+    if (group) return group
+    const lake = this.lakes.get(lakeId)
+    if (!lake) return undefined
+    const parsed = JSON.parse(conditions) as WatchConditions
+    const compiled = compileWatch(parsed)
+    const until = parsed.daysAhead ? addDays(lake.today, parsed.daysAhead) : null
+    const holds = lake.windows.map(
+      (w) => (!until || w.date < until) && meetsLakeConditions(compiled, w),
+    )
+    group = {
+      compiled,
+      holds,
+      lakeMatch: lake.windows.map((w, i) => (holds[i] ? judgeWindow(compiled, w, null) : null)),
+      anyHolds: holds.includes(true),
+    }
+    this.groups.set(key, group)
+    return group
+  }
+}
+
 /** What one page of watches changes: alerts to claim and to clear, and the episodes to store. */
 export interface PageDiff {
   fresh: (AlertKey & { match: object })[]
@@ -64,14 +115,13 @@ export interface PageDiff {
  */
 export function diffPage(
   page: WatchRow[],
-  lakes: Map<string, LakeWindows>,
+  judge: RunJudge,
   tables: Map<string, ExposureTable>,
   fromDate: string,
-  compiled_: Map<WatchRow, CompiledWatch> = new Map(),
 ): PageDiff {
   const diff: PageDiff = { fresh: [], gone: [], changed: [] }
   for (const watch of page) {
-    const lake = lakes.get(watch.lakeId)
+    const lake = judge.lakes.get(watch.lakeId)
     if (!lake) continue
     const episodes: Record<string, number> = {}
     let changed = false
@@ -100,9 +150,20 @@ export function diffPage(
           lake.days.get(watch.tripDate) ?? null,
         )
     } else {
-      const compiled = compiled_.get(watch) ?? compileWatch(watch.conditions)
+      const group = judge.on(watch.lakeId, watch.conditions)!
       const bank = watch.bankId ? (tables.get(watch.bankId) ?? null) : null
-      for (const w of lake.windows) judged(w.key, w.date, w.id, judgeWindow(compiled, w, bank))
+      lake.windows.forEach((w, i) =>
+        judged(
+          w.key,
+          w.date,
+          w.id,
+          !group.holds[i]
+            ? null
+            : watch.bankId
+              ? judgeWindow(group.compiled, w, bank)
+              : group.lakeMatch[i]!,
+        ),
+      )
     }
     if (changed) diff.changed.push({ id: watch.id, episodes })
   }
@@ -110,25 +171,27 @@ export function diffPage(
 }
 
 /** The banks whose tables a page needs: those of watches whose other conditions hold somewhere. */
-function banksNeeded(
-  page: WatchRow[],
-  lakes: Map<string, LakeWindows>,
-  compiled_: Map<WatchRow, CompiledWatch>,
-): string[] {
+function banksNeeded(page: WatchRow[], judge: RunJudge): string[] {
   const ids = new Set<string>()
   for (const watch of page) {
     if (!watch.bankId || watch.kind === 'trip' || ids.has(watch.bankId)) continue
-    const windows = lakes.get(watch.lakeId)?.windows ?? []
-    const compiled = compileWatch(watch.conditions)
-    compiled_.set(watch, compiled)
     // A window with an open episode must be judged whole too, to tell when it stops.
     if (
-      windows.some((w) => meetsLakeConditions(compiled, w)) ||
+      judge.on(watch.lakeId, watch.conditions)?.anyHolds ||
       Object.values(watch.episodes).some((n) => n > 0)
     )
       ids.add(watch.bankId)
   }
   return [...ids]
+}
+
+/** Where a run's time went, in milliseconds (reading and writing overlap). */
+export interface MatchPhases {
+  lakes: number
+  read: number
+  tables: number
+  judge: number
+  write: number
 }
 
 /**
@@ -140,13 +203,21 @@ function banksNeeded(
 export async function matchWatches(
   db: Db,
   opts: { now: Date; leaseUntil: Date; pageSize?: number },
-): Promise<{ watches: number; claimed: AlertKey[]; cleared: number }> {
+): Promise<{ watches: number; claimed: AlertKey[]; cleared: number; phases: MatchPhases }> {
   const repo = watchRepo(db)
   const { now } = opts
+  const phases: MatchPhases = { lakes: 0, read: 0, tables: 0, judge: 0, write: 0 }
+  let at = performance.now()
+  const lap = (phase: keyof MatchPhases) => {
+    const t = performance.now()
+    phases[phase] += t - at
+    at = t
+  }
   // Trips and episodes from yesterday on (UTC): every lake's local today is inside.
   const fromDate = addDays(localDate(now, 'UTC'), -1)
   await repo.ensureTripWatches(fromDate)
-  const lakes = lakeWindows(await repo.lakeDays(now), now)
+  const judge = new RunJudge(lakeWindows(await repo.lakeDays(now), now))
+  lap('lakes')
   const claimed: AlertKey[] = []
   let cleared = 0
   let watches = 0
@@ -154,21 +225,24 @@ export async function matchWatches(
   let after = '00000000-0000-0000-0000-000000000000'
   for (;;) {
     const page = await repo.watchPage(after, opts.pageSize ?? WATCH_PAGE)
+    lap('read')
     if (!page.length) break
     watches += page.length
     after = page.at(-1)!.id
-    const compiled = new Map<WatchRow, CompiledWatch>()
-    const needed = banksNeeded(page, lakes, compiled)
+    const needed = banksNeeded(page, judge)
+    lap('judge')
     const tables = new Map(
       needed.length ? (await repo.bankTables(needed)).map((b) => [b.id, b.exposure]) : [],
     )
-    const { fresh, gone, changed } = diffPage(page, lakes, tables, fromDate, compiled)
+    lap('tables')
+    const { fresh, gone, changed } = diffPage(page, judge, tables, fromDate)
+    lap('judge')
     const previous = writing
     writing = (async () => {
       // Claims first: an episode is stored only once its alert row exists (or another runner's does).
       const [won, ended] = await Promise.all([
         fresh.length ? repo.claimNew(fresh, now, opts.leaseUntil) : [],
-        gone.length ? repo.clear(gone, now).then((r) => r.rowCount ?? 0) : 0,
+        gone.length ? repo.clear(gone, now) : 0,
       ])
       if (changed.length) await repo.saveEpisodes(changed)
       await previous
@@ -177,5 +251,7 @@ export async function matchWatches(
     })()
   }
   await writing
-  return { watches, claimed, cleared }
+  lap('write')
+  for (const k of Object.keys(phases) as (keyof MatchPhases)[]) phases[k] = Math.round(phases[k])
+  return { watches, claimed, cleared, phases }
 }
