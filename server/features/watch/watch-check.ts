@@ -74,14 +74,16 @@ interface ConditionsOnLake {
  * bank-free condition holds, not every watch against every window.
  */
 export class RunJudge {
-  private readonly groups = new Map<string, ConditionsOnLake>()
+  /** Lake id → conditions text → the judging; two levels, so a watch's text is hashed once. */
+  private readonly groups = new Map<string, Map<string, ConditionsOnLake>>()
 
   constructor(readonly lakes: Map<string, LakeWindows>) {}
 
   on(lakeId: string, conditions: string): ConditionsOnLake | undefined {
-    const key = `${lakeId} ${conditions}`
-    let group = this.groups.get(key)
-    if (group) return group
+    let onLake = this.groups.get(lakeId)
+    if (!onLake) this.groups.set(lakeId, (onLake = new Map()))
+    const found = onLake.get(conditions)
+    if (found) return found
     const lake = this.lakes.get(lakeId)
     if (!lake) return undefined
     const parsed = JSON.parse(conditions) as WatchConditions
@@ -90,13 +92,13 @@ export class RunJudge {
     const holds = lake.windows.map(
       (w) => (!until || w.date < until) && meetsLakeConditions(compiled, w),
     )
-    group = {
+    const group = {
       compiled,
       holds,
       lakeMatch: lake.windows.map((w, i) => (holds[i] ? judgeWindow(compiled, w, null) : null)),
       anyHolds: holds.includes(true),
     }
-    this.groups.set(key, group)
+    onLake.set(conditions, group)
     return group
   }
 }

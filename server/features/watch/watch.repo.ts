@@ -1,5 +1,4 @@
 import { and, asc, desc, eq, gt, inArray, sql } from 'drizzle-orm'
-import type { LakeDay } from '../../../shared/conditions/day-plan'
 import type { ExposureTable } from '../../../shared/conditions/exposure'
 import type { SentAlert, Watch, WatchConditions } from '../../../shared/schemas/watch'
 import type { Db } from '../../db/index'
@@ -76,7 +75,6 @@ const TRIP_CONDITIONS: WatchConditions = {
   notNoGo: false,
   daysAhead: null,
 }
-
 
 /** Columns of a batch of alert keys, each one array parameter, for `unnest`. */
 function keyColumns(keys: AlertKey[]) {
@@ -266,7 +264,9 @@ export function watchRepo(db: Db) {
         .select({
           id: banks.id,
           facing: sql<number>`(${banks.exposure}->>'facingDeg')::float8`,
-          fetch: sql<number[]>`jsonb_path_query_array(${banks.exposure}, '$.rows[*].effectiveFetchM')`,
+          fetch: sql<
+            number[]
+          >`jsonb_path_query_array(${banks.exposure}, '$.rows[*].effectiveFetchM')`,
         })
         .from(banks)
         .where(inArray(banks.id, ids))
