@@ -13,7 +13,8 @@ import { migrateDb } from '../../server/db/migrate'
 import { insertBenchLakes } from './bench-lakes'
 import { lakeDays, lakes } from '../../server/db/schema/index'
 import { DEMO_LAKES, demoShoreline } from '../../server/db/seed/demo-lakes'
-import { matchWatches } from '../../server/features/watch/watch-check'
+import { matchWatches, WATCH_PAGE } from '../../server/features/watch/watch-check'
+import { watchRepo } from '../../server/features/watch/watch.repo'
 
 /**
  * 100,000 watches (10,000 anglers × 10: on their banks and lake-wide, five kinds of conditions)
@@ -172,14 +173,34 @@ async function activateFirst(n: number) {
 
 async function timedRun() {
   const t0 = performance.now()
+  const cpu0 = process.cpuUsage()
   const result = await matchWatches(db, { now: NOW, leaseUntil: new Date(NOW.getTime() + 600_000) })
+  const cpu = process.cpuUsage(cpu0)
   return {
     ms: performance.now() - t0,
+    cpuMs: (cpu.user + cpu.system) / 1000,
     watches: result.watches,
     claimed: result.claimed.length,
     cleared: result.cleared,
     phases: result.phases,
   }
+}
+
+/**
+ * The baseline, on the same machine at the same moment: every active watch read page by page
+ * through the matcher's own query, and nothing judged or written. The machine is shared, so the
+ * matcher is also given as a multiple of this.
+ */
+async function readOnly() {
+  const repo = watchRepo(db)
+  const t0 = performance.now()
+  let after = '00000000-0000-0000-0000-000000000000'
+  for (;;) {
+    const page = await repo.watchPage(after, WATCH_PAGE)
+    if (!page.length) break
+    after = page.at(-1)!.id
+  }
+  return performance.now() - t0
 }
 
 try {
@@ -197,6 +218,7 @@ try {
   const cold = await timedRun()
   await newForecast(3)
   const large = await timedRun()
+  const readMs = await readOnly()
   const unchanged = await timedRun()
   await newForecast(27)
   const dayAlong = await timedRun()
@@ -211,6 +233,9 @@ try {
     'first run ever, every watch new (ms)': Math.round(cold.ms),
     'alerts claimed, first run': cold.claimed,
     'large run, fresh forecast 3 h along (ms)': Math.round(large.ms),
+    'large run, this process’s CPU (ms)': Math.round(large.cpuMs),
+    'baseline: reading the 100,000 watches only (ms)': Math.round(readMs),
+    'large run / reading only': (large.ms / readMs).toFixed(2),
     'alerts claimed, fresh forecast': large.claimed,
     'alerts cleared, fresh forecast': large.cleared,
     'large run again, nothing changed (ms)': Math.round(unchanged.ms),
@@ -236,6 +261,9 @@ try {
       watches: large.watches,
       freshMs: Math.round(large.ms),
       freshPhasesMs: large.phases,
+      freshCpuMs: Math.round(large.cpuMs),
+      baselineReadMs: Math.round(readMs),
+      ratioFreshToRead: Number((large.ms / readMs).toFixed(2)),
       unchangedMs: Math.round(unchanged.ms),
       claimed: large.claimed,
       cleared: large.cleared,

@@ -125,11 +125,14 @@ export function diffPage(
   for (const watch of page) {
     const lake = judge.lakes.get(watch.lakeId)
     if (!lake) continue
-    const episodes: Record<string, number> = {}
+    // The row's own object, freshly parsed: changed in place. `date/window` keys sort by date.
+    const episodes = watch.episodes
     let changed = false
-    for (const [key, n] of Object.entries(watch.episodes))
-      if (key.slice(0, 10) >= fromDate) episodes[key] = n
-      else changed = true
+    for (const key in episodes)
+      if (key < fromDate) {
+        delete episodes[key]
+        changed = true
+      }
     const judged = (key: string, date: string, windowId: string, match: object | null) => {
       const last = episodes[key] ?? 0
       if (match && last <= 0) {
