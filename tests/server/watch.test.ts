@@ -223,6 +223,35 @@ describeScenario('blow', (get) => {
     await angler.delete(`/api/watches/${today.id}`).expect(204)
   })
 
+  it('names the bank’s side of the wind on a watch that does not ask for it onto the bank', async () => {
+    const angler = await signIn('angler')
+    const cove = Watch.parse(
+      (
+        await angler
+          .post('/api/watches')
+          .send(
+            watchBody({
+              name: 'Cove in any wind',
+              bankId: lee,
+              conditions: { wind: { onto: false, min: 8, max: 20, unit: 'mph' } },
+            } as Partial<WatchInput>),
+          )
+          .expect(201)
+      ).body,
+    )
+    await check()
+    // Day 0's dawn: 6 m/s (14 mph) from 200°, straight off the south cove's shore (it faces 200°
+    // from the centre), so the cove is in the lee; the window matches all the same.
+    const [dawn] = await w.db
+      .select()
+      .from(watchAlerts)
+      .where(and(eq(watchAlerts.watchId, cove.id), eq(watchAlerts.date, w.dateOf(0))))
+    expect(dawn).toMatchObject({ windowId: 'dawn', match: { exposure: 'lee' } })
+    const told = mailFor('Cove in any wind').find((m) => m.text.includes('#window-dawn'))!
+    expect(told.text).toContain('in the lee at South cove')
+    await angler.delete(`/api/watches/${cove.id}`).expect(204)
+  })
+
   it('claims each window once when two runners match the same watch at the same time', async () => {
     const angler = await signIn('angler')
     const twin = Watch.parse(

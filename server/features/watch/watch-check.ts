@@ -103,17 +103,31 @@ export class RunJudge {
   }
 }
 
+/**
+ * The match of a bank watch that does not ask for wind onto its bank: the bank only colours the
+ * alert's words (its exposure), so its table is read only for the windows this run claims.
+ */
+const BANK_WORDS_LATER = Object.freeze({})
+
 /** What one page of watches changes: alerts to claim and to clear, and the episodes to store. */
 export interface PageDiff {
   fresh: (AlertKey & { match: object })[]
   gone: AlertKey[]
   changed: { id: string; episodes: Record<string, number> }[]
+  /** Fresh alerts whose match waits for their bank's table (`BANK_WORDS_LATER`). */
+  later: {
+    alert: AlertKey & { match: object }
+    bankId: string
+    compiled: CompiledWatch
+    window: WatchedWindow
+  }[]
 }
 
 /**
  * Judges a page of watches against the lakes' windows and compares the result with each watch's
  * episodes: a window that begins matching opens the next episode, one that stops closes it.
- * Episodes of dates before `fromDate` are dropped. `tables` holds the banks' exposure tables.
+ * Episodes of dates before `fromDate` are dropped. `tables` holds the exposure tables of the
+ * banks whose watches ask for wind onto them.
  */
 export function diffPage(
   page: WatchRow[],
@@ -121,7 +135,7 @@ export function diffPage(
   tables: Map<string, ExposureTable>,
   fromDate: string,
 ): PageDiff {
-  const diff: PageDiff = { fresh: [], gone: [], changed: [] }
+  const diff: PageDiff = { fresh: [], gone: [], changed: [], later: [] }
   for (const watch of page) {
     const lake = judge.lakes.get(watch.lakeId)
     if (!lake) continue
@@ -133,17 +147,21 @@ export function diffPage(
         delete episodes[key]
         changed = true
       }
+    /** Compares a window's match with its last episode; true when it opened a new one. */
     const judged = (key: string, date: string, windowId: string, match: object | null) => {
       const last = episodes[key] ?? 0
       if (match && last <= 0) {
         episodes[key] = -last + 1
         diff.fresh.push({ watchId: watch.id, date, windowId, episode: -last + 1, match })
         changed = true
-      } else if (!match && last > 0) {
+        return true
+      }
+      if (!match && last > 0) {
         episodes[key] = -last
         diff.gone.push({ watchId: watch.id, date, windowId, episode: last })
         changed = true
       }
+      return false
     }
     if (watch.kind === 'trip') {
       // The trip's day is judged while the forecast holds it; a past day is left as it was.
@@ -155,37 +173,38 @@ export function diffPage(
           lake.days.get(watch.tripDate) ?? null,
         )
     } else {
-      const group = judge.on(watch.lakeId, watch.conditions)!
-      const bank = watch.bankId ? (tables.get(watch.bankId) ?? null) : null
-      lake.windows.forEach((w, i) =>
-        judged(
-          w.key,
-          w.date,
-          w.id,
-          !group.holds[i]
-            ? null
-            : watch.bankId
-              ? judgeWindow(group.compiled, w, bank)
-              : group.lakeMatch[i]!,
-        ),
-      )
+      const { compiled, holds, lakeMatch } = judge.on(watch.lakeId, watch.conditions)!
+      const { bankId } = watch
+      const onto = compiled.wind?.onto ?? false
+      lake.windows.forEach((w, i) => {
+        const match = !holds[i]
+          ? null
+          : !bankId
+            ? lakeMatch[i]!
+            : onto
+              ? judgeWindow(compiled, w, tables.get(bankId) ?? null)
+              : BANK_WORDS_LATER
+        if (judged(w.key, w.date, w.id, match) && match === BANK_WORDS_LATER)
+          diff.later.push({ alert: diff.fresh.at(-1)!, bankId: bankId!, compiled, window: w })
+      })
     }
     if (changed) diff.changed.push({ id: watch.id, episodes })
   }
   return diff
 }
 
-/** The banks whose tables a page needs: those of watches whose other conditions hold somewhere. */
+/**
+ * The banks whose tables a page needs to judge: those of watches asking for wind onto the bank
+ * whose other conditions hold somewhere.
+ */
 function banksNeeded(page: WatchRow[], judge: RunJudge): string[] {
   const ids = new Set<string>()
   for (const watch of page) {
     if (!watch.bankId || watch.kind === 'trip' || ids.has(watch.bankId)) continue
+    const group = judge.on(watch.lakeId, watch.conditions)
+    if (!group?.compiled.wind?.onto) continue
     // A window with an open episode must be judged whole too, to tell when it stops.
-    if (
-      judge.on(watch.lakeId, watch.conditions)?.anyHolds ||
-      Object.values(watch.episodes).some((n) => n > 0)
-    )
-      ids.add(watch.bankId)
+    if (group.anyHolds || Object.values(watch.episodes).some((n) => n > 0)) ids.add(watch.bankId)
   }
   return [...ids]
 }
@@ -240,7 +259,14 @@ export async function matchWatches(
       needed.length ? (await repo.bankTables(needed)).map((b) => [b.id, b.exposure]) : [],
     )
     lap('tables')
-    const { fresh, gone, changed } = diffPage(page, judge, tables, fromDate)
+    const { fresh, gone, changed, later } = diffPage(page, judge, tables, fromDate)
+    lap('judge')
+    const more = [...new Set(later.map((l) => l.bankId))].filter((id) => !tables.has(id))
+    if (more.length) for (const b of await repo.bankTables(more)) tables.set(b.id, b.exposure)
+    lap('tables')
+    // The window holds without the bank, so it matches with it: the bank adds its exposure.
+    for (const l of later)
+      l.alert.match = judgeWindow(l.compiled, l.window, tables.get(l.bankId) ?? null)!
     lap('judge')
     const previous = writing
     writing = (async () => {
