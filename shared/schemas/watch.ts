@@ -31,6 +31,14 @@ export const WatchConditions = z.object({
   windows: z.array(z.enum(WATCH_WINDOWS)).default([]),
   /** Only windows whose verdict is go or caution. */
   notNoGo: z.boolean().default(true),
+  /** Only windows of the next this many days, today the first; null: every day forecast. */
+  daysAhead: z
+    .number()
+    .int('Whole days.')
+    .min(1, 'At least 1 day.')
+    .max(7, 'At most 7 days: the forecast reaches no further.')
+    .nullable()
+    .default(null),
 })
 export type WatchConditions = z.infer<typeof WatchConditions>
 

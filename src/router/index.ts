@@ -138,6 +138,8 @@ const router = createRouter({
       path: '/watches',
       name: 'watches',
       component: () => import('@/views/WatchesView.vue'),
+      // "Watch this bank": a new watch starts on `?lake=slug&bank=id`.
+      props: (route) => ({ lake: route.query.lake, bank: route.query.bank }),
       meta: { role: 'angler', title: 'Watches' },
     },
     {

@@ -1,4 +1,5 @@
-import { rmSync } from 'node:fs'
+import { readdirSync, readFileSync, rmSync } from 'node:fs'
+import { loadavg } from 'node:os'
 import { performance } from 'node:perf_hooks'
 import { fileURLToPath } from 'node:url'
 import { sql } from 'drizzle-orm'
@@ -13,7 +14,8 @@ import { migrateDb } from '../../server/db/migrate'
 import { insertBenchLakes } from './bench-lakes'
 import { lakeDays, lakes } from '../../server/db/schema/index'
 import { DEMO_LAKES, demoShoreline } from '../../server/db/seed/demo-lakes'
-import { matchWatches } from '../../server/features/watch/watch-check'
+import { matchWatches, WATCH_PAGE } from '../../server/features/watch/watch-check'
+import { watchRepo } from '../../server/features/watch/watch.repo'
 
 /**
  * 100,000 watches (10,000 anglers × 10: on their banks and lake-wide, five kinds of conditions)
@@ -51,6 +53,7 @@ const KINDS: WatchConditions[] = [
     phases: [],
     windows: [],
     notNoGo: true,
+    daysAhead: null,
   },
   {
     wind: { onto: false, min: 5, max: 12, unit: 'mph' },
@@ -58,6 +61,7 @@ const KINDS: WatchConditions[] = [
     phases: ['pre-spawn'],
     windows: [],
     notNoGo: true,
+    daysAhead: null,
   },
   {
     wind: { onto: true, min: 10, max: 15, unit: 'knots' },
@@ -65,14 +69,16 @@ const KINDS: WatchConditions[] = [
     phases: [],
     windows: ['dawn'],
     notNoGo: true,
+    daysAhead: null,
   },
-  { wind: null, clarity: ['clear'], phases: [], windows: [], notNoGo: true },
+  { wind: null, clarity: ['clear'], phases: [], windows: [], notNoGo: true, daysAhead: null },
   {
     wind: { onto: false, min: 0, max: 30, unit: 'kmh' },
     clarity: [],
     phases: ['spawn'],
     windows: [],
     notNoGo: false,
+    daysAhead: null,
   },
 ]
 
@@ -166,15 +172,62 @@ async function activateFirst(n: number) {
   await db.execute(sql`vacuum analyze watch_alerts`)
 }
 
+/**
+ * CPU time PostgreSQL's processes have used (the postmaster and its children, from /proc, so
+ * Linux only), in ms. With this process's own, a run's cost that does not grow when others load
+ * the shared machine the way its wall time does.
+ */
+function postgresCpuMs() {
+  const postmaster = Number(readFileSync(`${dataDir}/postmaster.pid`, 'utf8').split('\n')[0])
+  let ticks = 0
+  for (const pid of readdirSync('/proc')) {
+    if (!/^\d+$/.test(pid)) continue
+    let stat: string
+    try {
+      stat = readFileSync(`/proc/${pid}/stat`, 'utf8')
+    } catch {
+      continue // gone meanwhile
+    }
+    // After the command in parentheses: state, ppid, …; utime and stime are fields 14 and 15.
+    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
+    if (Number(pid) === postmaster || Number(fields[1]) === postmaster)
+      ticks += Number(fields[11]) + Number(fields[12])
+  }
+  return ticks * 10 // USER_HZ is 100 on Linux
+}
+
 async function timedRun() {
   const t0 = performance.now()
+  const pg0 = postgresCpuMs()
+  const cpu0 = process.cpuUsage()
   const result = await matchWatches(db, { now: NOW, leaseUntil: new Date(NOW.getTime() + 600_000) })
+  const cpu = process.cpuUsage(cpu0)
   return {
     ms: performance.now() - t0,
+    cpuMs: (cpu.user + cpu.system) / 1000,
+    pgCpuMs: postgresCpuMs() - pg0,
     watches: result.watches,
     claimed: result.claimed.length,
     cleared: result.cleared,
+    phases: result.phases,
   }
+}
+
+/**
+ * The baseline, on the same machine at the same moment: every active watch read page by page
+ * through the matcher's own query, and nothing judged or written. The machine is shared, so the
+ * matcher is also given as a multiple of this.
+ */
+async function readOnly() {
+  const repo = watchRepo(db)
+  const t0 = performance.now()
+  let after = '00000000-0000-0000-0000-000000000000'
+  for (;;) {
+    const page = await repo.watchPage(after, WATCH_PAGE)
+    if (!page.length) break
+    after = page.at(-1)!.id
+  }
+  return performance.now() - t0
 }
 
 try {
@@ -192,6 +245,7 @@ try {
   const cold = await timedRun()
   await newForecast(3)
   const large = await timedRun()
+  const readMs = await readOnly()
   const unchanged = await timedRun()
   await newForecast(27)
   const dayAlong = await timedRun()
@@ -206,12 +260,23 @@ try {
     'first run ever, every watch new (ms)': Math.round(cold.ms),
     'alerts claimed, first run': cold.claimed,
     'large run, fresh forecast 3 h along (ms)': Math.round(large.ms),
+    'large run, CPU: this process / PostgreSQL (ms)': `${Math.round(large.cpuMs)} / ${large.pgCpuMs}`,
+    'machine load (1-minute average) at the end': loadavg()[0]!.toFixed(1),
+    'baseline: reading the 100,000 watches only (ms)': Math.round(readMs),
+    'large run / reading only': (large.ms / readMs).toFixed(2),
     'alerts claimed, fresh forecast': large.claimed,
     'alerts cleared, fresh forecast': large.cleared,
     'large run again, nothing changed (ms)': Math.round(unchanged.ms),
     'alerts claimed again': unchanged.claimed,
     'forecast a day along, most windows change (ms)': Math.round(dayAlong.ms),
     'alerts claimed / cleared, a day along': `${dayAlong.claimed} / ${dayAlong.cleared}`,
+    'fresh run: lakes judged / watches read / bank tables / judging / writes waited (ms)': [
+      large.phases.lakes,
+      large.phases.read,
+      large.phases.tables,
+      large.phases.judge,
+      large.phases.write,
+    ].join(' / '),
     'µs per watch, 10,000': perWatchSmall.toFixed(1),
     'µs per watch, 100,000': perWatchLarge.toFixed(1),
     'per-watch cost, 100,000 vs 10,000': ratio.toFixed(2),
@@ -223,6 +288,12 @@ try {
       bench: 'watch',
       watches: large.watches,
       freshMs: Math.round(large.ms),
+      freshPhasesMs: large.phases,
+      freshCpuMs: Math.round(large.cpuMs),
+      freshPgCpuMs: large.pgCpuMs,
+      loadAvg1m: Number(loadavg()[0]!.toFixed(1)),
+      baselineReadMs: Math.round(readMs),
+      ratioFreshToRead: Number((large.ms / readMs).toFixed(2)),
       unchangedMs: Math.round(unchanged.ms),
       claimed: large.claimed,
       cleared: large.cleared,

@@ -106,6 +106,7 @@ describeScenario('blow', (get) => {
       phases: [],
       windows: [],
       notNoGo: true,
+      daysAhead: null,
     })
     const guide = await signIn('guide')
     await guide.delete(`/api/watches/${made.id}`).expect(404)
@@ -189,6 +190,66 @@ describeScenario('blow', (get) => {
     await check()
     expect(await alertsOf(any.id)).toContain(`${w.dateOf(1)} midday #1 sent`)
     await angler.delete(`/api/watches/${any.id}`).expect(204)
+  })
+
+  it('keeps to the days ahead it was given: one day ahead tells today’s dawn, not tomorrow’s', async () => {
+    const angler = await signIn('angler')
+    const today = Watch.parse(
+      (
+        await angler
+          .post('/api/watches')
+          .send(
+            watchBody({
+              name: 'Today only',
+              conditions: { wind: { onto: true, min: 8, max: 20, unit: 'mph' }, daysAhead: 1 },
+            } as Partial<WatchInput>),
+          )
+          .expect(201)
+      ).body,
+    )
+    expect(today.conditions.daysAhead).toBe(1)
+    await check()
+    // The same windows as the point's watch above, cut to the lake's today (day 0).
+    expect(await alertsOf(today.id)).toEqual([`${w.dateOf(0)} dawn #1 sent`])
+    const tooFar = await angler
+      .post('/api/watches')
+      .send(
+        watchBody({
+          conditions: { wind: null, daysAhead: 9 },
+        } as Partial<WatchInput>),
+      )
+      .expect(400)
+    expect(tooFar.body.error.fields['conditions.daysAhead']).toMatch(/At most 7/)
+    await angler.delete(`/api/watches/${today.id}`).expect(204)
+  })
+
+  it('names the bank’s side of the wind on a watch that does not ask for it onto the bank', async () => {
+    const angler = await signIn('angler')
+    const cove = Watch.parse(
+      (
+        await angler
+          .post('/api/watches')
+          .send(
+            watchBody({
+              name: 'Cove in any wind',
+              bankId: lee,
+              conditions: { wind: { onto: false, min: 8, max: 20, unit: 'mph' } },
+            } as Partial<WatchInput>),
+          )
+          .expect(201)
+      ).body,
+    )
+    await check()
+    // Day 0's dawn: 6 m/s (14 mph) from 200°, straight off the south cove's shore (it faces 200°
+    // from the centre), so the cove is in the lee; the window matches all the same.
+    const [dawn] = await w.db
+      .select()
+      .from(watchAlerts)
+      .where(and(eq(watchAlerts.watchId, cove.id), eq(watchAlerts.date, w.dateOf(0))))
+    expect(dawn).toMatchObject({ windowId: 'dawn', match: { exposure: 'lee' } })
+    const told = mailFor('Cove in any wind').find((m) => m.text.includes('#window-dawn'))!
+    expect(told.text).toContain('in the lee at South cove')
+    await angler.delete(`/api/watches/${cove.id}`).expect(204)
   })
 
   it('claims each window once when two runners match the same watch at the same time', async () => {

@@ -1,11 +1,9 @@
 import type { Watch, WatchInput, WatchPatch } from '../../../shared/schemas/watch'
 import { verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
-import { HttpError } from '../../http/errors'
+import { conflict, HttpError, invalid, notFound as noSuch } from '../../http/errors'
 import type { WatchRepo, WatchValues } from './watch.repo'
 
-const notFound = () => new HttpError(404, 'not_found', 'No such watch.')
-const invalid = (field: string, message: string) =>
-  new HttpError(400, 'invalid_input', 'Some fields need attention.', { [field]: message })
+const notFound = () => noSuch('watch')
 
 /** An angler's watches: each query is scoped to its owner, so another's watch is a 404. */
 export function watchService(deps: { repo: WatchRepo; linkKey: TokenKey }) {
@@ -47,8 +45,7 @@ export function watchService(deps: { repo: WatchRepo; linkKey: TokenKey }) {
       const kind = await repo.kindOf(userId, id)
       if (!kind) throw notFound()
       if (kind === 'trip')
-        throw new HttpError(
-          409,
+        throw conflict(
           'trip_watch',
           'A trip’s watch follows its trip: pause it or change how you are told.',
         )
