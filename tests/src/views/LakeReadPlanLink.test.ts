@@ -29,6 +29,7 @@ async function linkAt(now: string) {
     routes: [
       { path: '/lakes/:slug', component: LakeReadView },
       { path: '/lakes/:slug/plan/:date', name: 'day-plan', component: { render: () => null } },
+      { path: '/watches', name: 'watches', component: { render: () => null } },
     ],
   })
   await router.push('/lakes/quiet-pond')
@@ -39,7 +40,7 @@ async function linkAt(now: string) {
     },
   })
   await flushPromises()
-  return wrapper.get('a.plan-link')
+  return wrapper
 }
 
 afterEach(() => {
@@ -49,14 +50,22 @@ afterEach(() => {
 
 describe('the Lake read’s link to the Day plan', () => {
   it('offers today’s plan during the day', async () => {
-    const link = await linkAt('2026-05-06T15:00:00.000Z') // 10:00 at the lake
+    const link = (await linkAt('2026-05-06T15:00:00.000Z')).get('a.plan-link') // 10:00 at the lake
     expect(link.text()).toBe("Today's day plan →")
     expect(link.attributes('href')).toBe('/lakes/quiet-pond/plan/2026-05-06')
   })
 
   it('offers tomorrow’s plan once dusk has passed at the lake', async () => {
-    const link = await linkAt('2026-05-07T02:30:00.000Z') // 21:30 on May 6 at the lake
+    const link = (await linkAt('2026-05-07T02:30:00.000Z')).get('a.plan-link') // 21:30 on May 6 at the lake
     expect(link.text()).toBe("Tomorrow's day plan →")
     expect(link.attributes('href')).toBe('/lakes/quiet-pond/plan/2026-05-07')
+  })
+})
+
+describe('the Lake read’s link to a watch', () => {
+  it('starts a watch on this lake', async () => {
+    const link = (await linkAt('2026-05-06T15:00:00.000Z')).get('a.watch-link')
+    expect(link.text()).toBe('Watch this lake')
+    expect(link.attributes('href')).toBe('/watches?lake=quiet-pond')
   })
 })
