@@ -123,6 +123,13 @@ describe('composeBrief and renderBrief', () => {
     expect(mail.html).toMatchSnapshot()
   })
 
+  it('keeps each number with its unit in the HTML, so a narrow mail reader never breaks "55 / °F"', () => {
+    expect(mail.html).toContain('Water 55&nbsp;°F')
+    expect(mail.html).not.toMatch(/\d (°F|mph|ft)(?!\w)/)
+    // The plain-text part is left as it is.
+    expect(mail.text).toContain('Water 55 °F')
+  })
+
   it('gives the one-line read in the subscriber units: 12.5 °C is 54.5 °F (NIST SP 811), 0.5 m is 1.6 ft', () => {
     expect(view.lakes[0]!.read).toBe(
       'Water 55 °F, warming 0.9 °F/day · Stained (1.6 ft visibility), clearing · pre-spawn phase (5-day mean 54 °F)',
@@ -282,7 +289,7 @@ describeScenario('blow', (get) => {
       /\nThe day: ✕ No-go: do not launch\. Why: Midday and afternoon to dusk: Wind \d+ mph, gusts \d+ mph/,
     )
     expect(html).toMatch(/<strong>The day: ✕ No-go: do not launch<\/strong>/)
-    expect(html).toMatch(/Why: Midday and afternoon to dusk: Wind \d+ mph, gusts \d+ mph/)
+    expect(html).toMatch(/Why: Midday and afternoon to dusk: Wind \d+&nbsp;mph, gusts \d+&nbsp;mph/)
     // The blow's 13 m/s is 29 mph, its 18 m/s gusts 40 mph (NIST SP 811): the peak, not a mean.
     const [, mph, gustMph] =
       /Why: Midday and afternoon to dusk: Wind (\d+) mph, gusts (\d+) mph/.exec(text)!

@@ -24,5 +24,12 @@ export function mailTemplate<T extends { subject: string }>(
 ): (view: T) => RenderedMail {
   const html = hbs.compile<T>(source(`${name}.html.hbs`), { strict: true })
   const text = hbs.compile<T>(source(`${name}.txt.hbs`), { strict: true, noEscape: true })
-  return (view) => ({ subject: view.subject, html: html(view), text: text(view) })
+  return (view) => ({ subject: view.subject, html: keepFigures(html(view)), text: text(view) })
 }
+
+/** A space between a number and its unit, as the shared formatter writes them. */
+const FIGURE_SPACE =
+  /(\d) (?=(?:°[FC]|mph|km\/h|kt|ft|inHg|in|hPa|mm|m|km²|km|mi²|mi|acres|ha|%)(?!\w))/g
+
+/** A number and its unit never part at a line end in a mail reader ("16 / mph"). */
+export const keepFigures = (html: string) => html.replace(FIGURE_SPACE, '$1&nbsp;')
