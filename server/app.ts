@@ -87,8 +87,8 @@ export interface AppDeps {
   /** The local SMTP stand-in's catch, listed for admins in development; absent in production. */
   mailbox?: Mailbox
   /**
-   * The database's change notices: with them, sessions, Lake reads and Day plans are answered from
-   * memory until something they were made from changes. Without them, from the database each time.
+   * The database's change notices: with them, sessions are answered from memory until their row
+   * or any user changes. Without them, from the database each time.
    */
   changes?: Changes
   /** How long an uploaded outline may take to check, in its worker thread; 20 s unless set. */
@@ -123,7 +123,7 @@ export function createApp(deps: AppDeps): express.Express {
     deps.authRateLimitPerAddress,
   )
 
-  const conditions = conditionsFor(deps.db, deps.changes)
+  const conditions = conditionsFor(deps.db)
   const settings = settingsService(settingsRepo(deps.db))
 
   app.use(requestLog(deps.logger))

@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import cookieParser from 'cookie-parser'
 import express, { Router, type Request } from 'express'
-import { LakeSlugParams, type LakeRead } from '../../shared/schemas/lake-read'
+import { LakeSlugParams } from '../../shared/schemas/lake-read'
 import { PAGE_BOOT_ID, type PageBoot } from '../../shared/schemas/page-boot'
 import { sessionOf } from '../features/auth/auth.routes'
 import type { AuthService } from '../features/auth/auth.service'
@@ -85,7 +85,7 @@ async function lakeReadFor(path: string, conditions: ConditionsService) {
   const params = LakeSlugParams.safeParse({ slug: LAKE_READ_PATH.exec(path)?.[1] })
   if (!params.success) return undefined
   try {
-    return JSON.parse((await conditions.readAnswer(params.data.slug)).body.toString()) as LakeRead
+    return await conditions.read(params.data.slug)
   } catch (err) {
     // The page then asks itself, and shows the API's answer for a lake that is not there.
     if (err instanceof HttpError && err.status === 404) return undefined

@@ -2,11 +2,14 @@ import { Router } from 'express'
 import { DayPlanParams } from '../../../shared/schemas/day-plan'
 import { LakeSlugParams } from '../../../shared/schemas/lake-read'
 import { currentUser, requireSignIn } from '../../http/access'
-import { sendPrepared } from '../../http/prepared-json'
 import { input, validate } from '../../http/validate'
 import type { ConditionsService } from './conditions.service'
 
-/** The Lake read and the Day plan, both served from the cache the ingest jobs refresh. */
+/**
+ * The Lake read and the Day plan, both served from the cache the ingest jobs refresh. Express
+ * tags each answer with a weak ETag (and answers 304 to a client that holds it); the compression
+ * middleware gzips it for a client that asks.
+ */
 export function conditionsRoutes(conditions: ConditionsService): Router {
   const router = Router()
   router.get(
@@ -14,7 +17,7 @@ export function conditionsRoutes(conditions: ConditionsService): Router {
     requireSignIn,
     validate({ params: LakeSlugParams }),
     async (req, res) => {
-      sendPrepared(res, await conditions.readAnswer(input(LakeSlugParams, req.params).slug))
+      res.json(await conditions.read(input(LakeSlugParams, req.params).slug))
     },
   )
   router.get(
@@ -23,7 +26,7 @@ export function conditionsRoutes(conditions: ConditionsService): Router {
     validate({ params: DayPlanParams }),
     async (req, res) => {
       const { slug, date } = input(DayPlanParams, req.params)
-      sendPrepared(res, await conditions.planAnswer(currentUser(req).id, slug, date))
+      res.json(await conditions.plan(currentUser(req).id, slug, date))
     },
   )
   return router
