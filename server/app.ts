@@ -20,6 +20,7 @@ import { briefRepo } from './features/brief/brief.repo'
 import { briefRoutes } from './features/brief/brief.routes'
 import { briefService, type Mailbox } from './features/brief/brief.service'
 import { conditionsRoutes } from './features/conditions/conditions.routes'
+import { conditionsAnswers } from './features/conditions/conditions.cache'
 import { conditionsFor } from './features/conditions/conditions.service'
 import { healthRoutes } from './features/health/health.routes'
 import { clientsRepo } from './features/guides/clients.repo'
@@ -87,8 +88,8 @@ export interface AppDeps {
   /** The local SMTP stand-in's catch, listed for admins in development; absent in production. */
   mailbox?: Mailbox
   /**
-   * The database's change notices: with them, sessions are answered from memory until their row
-   * or any user changes. Without them, from the database each time.
+   * The database's change notices: with them, sessions, Lake reads and Day plans are answered from
+   * memory until something they were made from changes. Without them, from the database each time.
    */
   changes?: Changes
   /** How long an uploaded outline may take to check, in its worker thread; 20 s unless set. */
@@ -123,7 +124,7 @@ export function createApp(deps: AppDeps): express.Express {
     deps.authRateLimitPerAddress,
   )
 
-  const conditions = conditionsFor(deps.db)
+  const conditions = conditionsAnswers(conditionsFor(deps.db), deps.changes)
   const settings = settingsService(settingsRepo(deps.db))
 
   app.use(requestLog(deps.logger))

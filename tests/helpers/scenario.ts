@@ -131,7 +131,7 @@ export async function startScenario(name: ScenarioName) {
     },
     /** The Lake read as the app sends it at the feed's clock. */
     async read(): Promise<LakeRead> {
-      return conditions.read(lake!.slug, feed.now())
+      return (await conditions.read(lake!.slug, feed.now())).read
     },
     /**
      * Saves a bank for the demo angler where the shore lies `bearingDeg` from the lake's centre:
@@ -152,7 +152,7 @@ export async function startScenario(name: ScenarioName) {
     },
     /** The demo angler's Day plan for a date, as the app sends it at the feed's clock. */
     async plan(day: number | string = 0): Promise<DayPlanResponse> {
-      return conditions.plan(await anglerId(), lake!.slug, dateOf(day), feed.now())
+      return (await conditions.plan(await anglerId(), lake!.slug, dateOf(day), feed.now())).plan
     },
     close: async () => {
       await feed.close()

@@ -9,6 +9,7 @@ import { localDate } from '../../shared/time'
 import { NoticedCache, watchChanges, type Changes } from '../../server/db/changes'
 import { lakes, users } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
+import { conditionsAnswers } from '../../server/features/conditions/conditions.cache'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
 import { ingestWeather } from '../../server/features/ingest/weather.ingest'
@@ -17,10 +18,9 @@ import { createTestDb } from '../helpers/db'
 import { ingestDeps, startTestFeed, type TestFeed } from '../helpers/feed'
 
 /**
- * Two app instances on one database, as behind a load balancer, each keeping sessions in memory:
- * a change made through one, or straight in the database, shows on the other as soon as its
- * notice arrives. Lake reads and Day plans are read from the database on every view, so they
- * show on the other instance at once.
+ * Two app instances on one database, as behind a load balancer, each keeping sessions, Lake reads
+ * and Day plans in memory: a change made through one, or straight in the database, shows on the
+ * other as soon as its notice arrives.
  */
 let ctx: Awaited<ReturnType<typeof createTestDb>>
 let feed: TestFeed
@@ -66,7 +66,7 @@ async function signIn(email: string) {
   return res.headers['set-cookie']![0]!.split(';')[0]!
 }
 
-describe('two instances on one database', () => {
+describe('answers kept in memory, dropped by change notices', () => {
   it('ends a session on every instance when it signs out on one, and follows a role change', async () => {
     const cookie = await signIn('notices@example.test')
     expect(
@@ -84,7 +84,7 @@ describe('two instances on one database', () => {
       .toBe(401)
   })
 
-  it('shows a bank edit and a refresh made through one instance on the other at once', async () => {
+  it("serves a lake's read and an angler's plan from memory until a refresh or a bank edit", async () => {
     const cookie = await signIn('planner@example.test')
     const today = localDate(feed.now(), 'America/Chicago')
     const read = async () =>
@@ -104,7 +104,7 @@ describe('two instances on one database', () => {
     const before = await read()
     expect((await plan()).banksSaved).toBe(0)
 
-    // A bank saved, renamed and deleted through the other instance: the very next view shows it.
+    // A bank saved, renamed and deleted through the other instance.
     const names = async () => (await plan()).plan!.windows[0]!.banks.map((b) => b.name)
     const bank = { name: 'North point', points: [ring[40], ring[43]], cover: ['rock'], depthM: 3 }
     const saved = await request(appOne)
@@ -112,25 +112,69 @@ describe('two instances on one database', () => {
       .set('Cookie', cookie)
       .send(bank)
       .expect(201)
-    expect(await names()).toEqual(['North point'])
+    await expect.poll(names).toEqual(['North point'])
     await request(appOne)
       .put(`/api/lakes/quillmere/banks/${saved.body.id}`)
       .set('Cookie', cookie)
       .send({ ...bank, name: 'North point bar' })
       .expect(200)
-    expect(await names()).toEqual(['North point bar'])
+    await expect.poll(names).toEqual(['North point bar'])
     await request(appOne)
       .delete(`/api/lakes/quillmere/banks/${saved.body.id}`)
       .set('Cookie', cookie)
       .expect(204)
-    expect((await plan()).banksSaved).toBe(0)
+    await expect.poll(async () => (await plan()).banksSaved).toBe(0)
 
-    // The next ingest's refresh, run by a job with no app of its own.
+    // The next ingest's refresh, run by a job with no cache of its own.
     const later = new Date(feed.now().getTime() + 60_000)
     await conditionsFor(ctx.db).refresh(lakeId, later)
-    expect((await plan()).computedAt).toBe(later.toISOString())
+    await expect.poll(async () => (await plan()).computedAt).toBe(later.toISOString())
     expect((await read()).asOf).toBe(later.toISOString())
     expect(before.asOf).not.toBe(later.toISOString())
+  })
+
+  it('re-judges a kept read once when one of its values turns stale, not on every view', async () => {
+    const answers = conditionsAnswers(conditionsFor(ctx.db), one)
+    const stored = LakeRead.parse((await answers.read('quillmere')).data)
+    expect(stored.waterTemp!.stale).toBe(false)
+    // Water temperature is read every 15 minutes and counts as stale after two hours.
+    const later = new Date(Date.parse(stored.waterTemp!.at) + 2 * 3_600_000 + 60_000)
+    const judged = await answers.read('quillmere', later)
+    const read = LakeRead.parse(JSON.parse(judged.answer.body.toString()))
+    expect(read.waterTemp).toEqual({ ...stored.waterTemp, stale: true })
+    // A minute on nothing else has turned: the same answer, not a new one.
+    expect(await answers.read('quillmere', new Date(later.getTime() + 60_000))).toBe(judged)
+  })
+
+  it('drops the kept answers a notice names, and only those', async () => {
+    const [angler] = await ctx.db.select().from(users).limit(1)
+    const today = localDate(feed.now(), 'America/Chicago')
+    const answers = conditionsAnswers(conditionsFor(ctx.db), one)
+    const kept = async () => ({
+      quillmere: await answers.read('quillmere'),
+      vessandra: await answers.read('vessandra'),
+      plan: await answers.plan(angler!.id, 'quillmere', today, feed.now()),
+    })
+    const notice = async (statement: ReturnType<typeof sql>) => {
+      const seen = one.version
+      await ctx.db.execute(statement)
+      await vi.waitFor(() => expect(one.version).toBeGreaterThan(seen))
+    }
+    const before = await kept()
+    // Another lake's row changed: Quillmere's read and plan stay as kept.
+    await notice(sql`update lakes set name = name where slug = 'vessandra'`)
+    const after = await kept()
+    expect(after.quillmere).toBe(before.quillmere)
+    expect(after.plan).toBe(before.plan)
+    expect(after.vessandra).not.toBe(before.vessandra)
+    // Another angler's banks: the plan stays too.
+    await notice(sql`select pg_notify('chopline_changes', 'banks:' || gen_random_uuid())`)
+    expect((await kept()).plan).toBe(before.plan)
+    // Quillmere's days: its plan goes, its read stays.
+    await notice(sql`update lake_days set day = day where lake_id = ${lakeId}`)
+    const days = await kept()
+    expect(days.quillmere).toBe(before.quillmere)
+    expect(days.plan).not.toBe(before.plan)
   })
 
   it('makes one answer for views that ask at once, and a fresh one for a view after a notice', async () => {
@@ -169,5 +213,33 @@ describe('two instances on one database', () => {
     await request(appOne).post('/api/auth/signout').set('Cookie', cookie).expect(204)
     // No notice can reach it now, and none is needed: the session row is read again.
     await request(app).get('/api/me').set('Cookie', cookie).expect(401)
+  })
+
+  it('drops everything it kept when its notices come back after a lost connection', async () => {
+    const cookie = await signIn('reconnect@example.test')
+    // A listener of its own, named so that only its connection is cut.
+    const name = 'chopline-reconnect-test'
+    const changes = watchChanges(
+      { ...ctx.db.$client.options, application_name: name },
+      pino({ level: 'silent' }),
+      50,
+    )
+    const app = testApp(ctx.db, { changes })
+    try {
+      await vi.waitFor(() => expect(changes.live).toBe(true))
+      await request(app).get('/api/me').set('Cookie', cookie).expect(200)
+      // The listening connection cut (a database restart, a proxy timeout)...
+      await ctx.db.execute(
+        sql`select pg_terminate_backend(pid) from pg_stat_activity where application_name = ${name}`,
+      )
+      await vi.waitFor(() => expect(changes.live).toBe(false))
+      // ...while the session ends elsewhere: its notice is never delivered to this instance.
+      await request(appOne).post('/api/auth/signout').set('Cookie', cookie).expect(204)
+      await vi.waitFor(() => expect(changes.live).toBe(true))
+      // Live again, it answers from the database, not from the session it kept before the cut.
+      await request(app).get('/api/me').set('Cookie', cookie).expect(401)
+    } finally {
+      await changes.close()
+    }
   })
 })

@@ -1,12 +1,15 @@
 import { eq } from 'drizzle-orm'
+import { pino } from 'pino'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { LakeDay } from '../../shared/conditions/day-plan'
 import { makeFormat } from '../../shared/format'
 import { LOG_MIN_SIMILAR, logLine } from '../../shared/journal/feedback'
 import { DayPlanResponse } from '../../shared/schemas/day-plan'
 import type { CatchConditions } from '../../shared/schemas/journal'
+import { watchChanges, type Changes } from '../../server/db/changes'
 import { catches, users } from '../../server/db/schema/index'
 import { composeBrief, renderBrief } from '../../server/features/brief/compose'
+import { conditionsAnswers } from '../../server/features/conditions/conditions.cache'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { logCatches } from '../../server/features/journal/your-log'
 import { createUser } from '../helpers/app'
@@ -14,18 +17,25 @@ import { startScenario, type ScenarioWorld } from '../helpers/scenario'
 
 /**
  * The angler's own log fed back into the day: with enough catches in the day's clarity, water band
- * and phase, the Day plan (on every instance) and the brief add a line beside
+ * and phase, the Day plan (on every instance, kept answers and all) and the brief add a line beside
  * the tackle calls; with too few, the rules' plan is left exactly as it was.
  */
 let w: ScenarioWorld
+let one: Changes
+let two: Changes
 let today: string
 
 beforeAll(async () => {
   // A calm, sunny pre-spawn morning: every window is fishable and the rules call several families.
   w = await startScenario('calm-sunny-prespawn')
   today = w.date
+  one = watchChanges(w.db.$client.options, pino({ level: 'silent' }), 50)
+  two = watchChanges(w.db.$client.options, pino({ level: 'silent' }), 50)
+  await vi.waitFor(() => expect(one.live && two.live).toBe(true))
 })
 afterAll(async () => {
+  await one.close()
+  await two.close()
   await w.feed.close()
   await w.drop()
 })
@@ -88,11 +98,15 @@ async function logFish(
 describe('the log fed back into the day', () => {
   it(`adds nothing below ${LOG_MIN_SIMILAR} similar catches, then a line that follows every new catch`, async () => {
     const id = await anAngler('feedback@journal.test')
-    // Two instances; catches go straight into the database, as the journal's routes, an import
-    // or another instance would write them.
-    const services = [conditionsFor(w.db), conditionsFor(w.db)]
+    // Two instances keeping plans in memory; catches go straight into the database, as the
+    // journal's routes, an import or another instance would write them.
+    const services = [one, two].map((c) => conditionsAnswers(conditionsFor(w.db), c))
     const plan = async (i = 1) =>
-      DayPlanResponse.parse(await services[i]!.plan(id, 'quillmere', today, w.feed.now())).plan!
+      DayPlanResponse.parse(
+        JSON.parse(
+          (await services[i]!.plan(id, 'quillmere', today, w.feed.now())).answer.body.toString(),
+        ),
+      ).plan!
     const day = await storedDay()
     const rules = await plan()
     await plan(0)

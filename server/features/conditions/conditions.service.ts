@@ -18,10 +18,11 @@ import { conditionsRepo, type ConditionsRepo } from './conditions.repo'
 export { PLAN_DAYS }
 
 /**
- * A date has a plan from when it is the last day the forecast reaches until the day after it ends,
- * in the lake's time zone (plans cover yesterday, today and the next days).
+ * When a date stops having a plan: a date has one from when it is the last day the forecast
+ * reaches until the day after it ends, in the lake's time zone (plans cover yesterday, today and
+ * the next days).
  */
-function assertPlannable(date: string, timeZone: string, now: Date) {
+function plannableUntil(date: string, timeZone: string, now: Date): Date {
   const from = zonedMidnight(addDays(date, 1 - PLAN_DAYS), timeZone)
   const until = zonedMidnight(addDays(date, 2), timeZone)
   if (now < from || now >= until) {
@@ -31,6 +32,7 @@ function assertPlannable(date: string, timeZone: string, now: Date) {
       `Plans cover yesterday, today and the next ${PLAN_DAYS - 1} days.`,
     )
   }
+  return until
 }
 
 /** What a lake's read lacks for a day plan, in words; null when nothing is missing. */
@@ -105,33 +107,28 @@ export function conditionsService(deps: {
     },
 
     /**
-     * The Lake read as last refreshed, read by the lake's slug each time (so every instance sees a
-     * refresh at once). Its stale flags hold until `flagsHoldUntil`; after that the stored values
-     * are re-judged against the clock, so a value that has turned stale says so.
+     * The Lake read as last refreshed, with its lake's id and until when its stale flags hold
+     * (null: for good). Until then the stored read is right as it is; after that its values are
+     * re-judged against the clock, so a value that has turned stale says so.
      */
-    async read(slug: string, now = new Date()): Promise<LakeRead> {
+    async read(slug: string, now = new Date()) {
       const row = await repo.read(slug)
       if (!row) throw notFound('lake')
       // A lake no ingest has reached yet is read now, and cached like any other.
-      if (!row.read) return refreshLake(await repo.lake(row.id), now)
-      return row.flagsHoldUntil && now >= row.flagsHoldUntil
-        ? withStaleFlags(row.read, now)
-        : row.read
+      const stored = row.read ?? (await refreshLake(await repo.lake(row.id), now))
+      const read =
+        row.flagsHoldUntil && now >= row.flagsHoldUntil ? withStaleFlags(stored, now) : stored
+      return { lakeId: row.id, read, holdsUntil: flagsHoldUntil(read, now) }
     },
 
     /**
      * The Day plan for an angler, lake and date: the lake's cached day with this angler's banks
-     * ranked in it, read with them in one query each time, so a bank edit shows at once.
+     * ranked in it, with the lake's id and when the date stops being plannable.
      */
-    async plan(
-      userId: string,
-      slug: string,
-      date: string,
-      now = new Date(),
-    ): Promise<DayPlanResponse> {
+    async plan(userId: string, slug: string, date: string, now = new Date()) {
       let view = await repo.planView(slug, date, userId)
       if (!view) throw notFound('lake')
-      assertPlannable(date, view.timeZone, now)
+      const until = plannableUntil(date, view.timeZone, now)
       if (!view.hasRead) {
         // A lake no ingest has reached yet is read now, and cached like any other.
         await refreshLake(await repo.lake(view.id), now)
@@ -141,7 +138,7 @@ export function conditionsService(deps: {
       const planned = view.day ? planForBanks(view.day, banks) : null
       const ranked =
         planned && deps.logOf ? withYourLog(planned, await deps.logOf(userId, planned)) : planned
-      return {
+      const plan: DayPlanResponse = {
         lake: { slug: view.slug, name: view.name, timeZone: view.timeZone },
         date,
         dates: view.dates,
@@ -150,6 +147,7 @@ export function conditionsService(deps: {
         unavailable: ranked ? null : await whyNoPlan(slug),
         plan: ranked,
       }
+      return { lakeId: view.id, plan, plannableUntil: until }
     },
   }
 }
