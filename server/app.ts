@@ -20,6 +20,7 @@ import { briefRepo } from './features/brief/brief.repo'
 import { briefRoutes } from './features/brief/brief.routes'
 import { briefService, type Mailbox } from './features/brief/brief.service'
 import { conditionsRoutes } from './features/conditions/conditions.routes'
+import { conditionsAnswers } from './features/conditions/conditions.cache'
 import { conditionsFor } from './features/conditions/conditions.service'
 import { healthRepo } from './features/health/health.repo'
 import { healthRoutes } from './features/health/health.routes'
@@ -124,7 +125,7 @@ export function createApp(deps: AppDeps): express.Express {
     deps.authRateLimitPerAddress,
   )
 
-  const conditions = conditionsFor(deps.db, deps.changes)
+  const conditions = conditionsAnswers(conditionsFor(deps.db), deps.changes)
   const settings = settingsService(settingsRepo(deps.db))
 
   app.use(requestLog(deps.logger))

@@ -113,6 +113,11 @@ export class NoticedCache<V extends object> {
     changes?.subscribe((change) => (change ? forget(change, this.kept) : this.kept.clear()))
   }
 
+  /** Drops one kept answer (one the clock has made wrong). */
+  delete(key: string) {
+    this.kept.delete(key)
+  }
+
   /**
    * The kept answer, or one load shared by every caller that asks while it runs (after a refresh
    * empties the cache, a burst of views makes one answer, not one each). A caller that asks after

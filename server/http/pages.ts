@@ -2,11 +2,11 @@ import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import cookieParser from 'cookie-parser'
 import express, { Router, type Request } from 'express'
-import { LakeSlugParams, type LakeRead } from '../../shared/schemas/lake-read'
+import { LakeSlugParams } from '../../shared/schemas/lake-read'
 import { PAGE_BOOT_ID, type PageBoot } from '../../shared/schemas/page-boot'
 import { sessionOf } from '../features/auth/auth.routes'
 import type { AuthService } from '../features/auth/auth.service'
-import type { ConditionsService } from '../features/conditions/conditions.service'
+import type { ConditionsAnswers } from '../features/conditions/conditions.cache'
 import type { SettingsService } from '../features/settings/settings.service'
 import type { Logger } from '../logger'
 import { HttpError } from './errors'
@@ -18,7 +18,7 @@ interface PageDeps {
   staticDir: string
   auth: AuthService
   settings: SettingsService
-  conditions: ConditionsService
+  conditions: ConditionsAnswers
   log: Logger
 }
 
@@ -81,11 +81,12 @@ async function bootFor(req: Request, deps: PageDeps): Promise<PageBoot> {
 }
 
 /** The Lake read a /lakes/:slug page opens on; none for other pages or a lake that is not there. */
-async function lakeReadFor(path: string, conditions: ConditionsService) {
+async function lakeReadFor(path: string, conditions: ConditionsAnswers) {
   const params = LakeSlugParams.safeParse({ slug: LAKE_READ_PATH.exec(path)?.[1] })
   if (!params.success) return undefined
   try {
-    return JSON.parse((await conditions.readAnswer(params.data.slug)).body.toString()) as LakeRead
+    // The kept read's data as it is: no round trip through its bytes.
+    return (await conditions.read(params.data.slug)).data
   } catch (err) {
     // The page then asks itself, and shows the API's answer for a lake that is not there.
     if (err instanceof HttpError && err.status === 404) return undefined

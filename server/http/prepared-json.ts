@@ -21,7 +21,7 @@ export class PreparedJson {
   }
 }
 
-export const prepareJson = (json: string) => new PreparedJson(Buffer.from(json))
+export const prepareJson = (data: unknown) => new PreparedJson(Buffer.from(JSON.stringify(data)))
 
 /**
  * Sends it, gzipped for a client that takes gzip (the compression middleware leaves an answer

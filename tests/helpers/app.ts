@@ -1,7 +1,9 @@
 import { pino } from 'pino'
 import request from 'supertest'
+import { expect, vi } from 'vitest'
 import type { Role } from '../../shared/schemas/auth'
 import { createApp, type AppDeps } from '../../server/app'
+import { watchChanges } from '../../server/db/changes'
 import type { Db } from '../../server/db/index'
 import { hashPassword } from '../../server/features/auth/passwords'
 import { smtpMailer } from '../../server/features/mail/mailer'
@@ -25,6 +27,16 @@ export function testApp(db: Db, overrides: Partial<AppDeps> = {}) {
     },
     ...overrides,
   })
+}
+
+/**
+ * Change notices as `serve()` listens for them, live before it returns: an app given them keeps
+ * sessions, Lake reads and Day plans in memory, as in production. Close it after the tests.
+ */
+export async function liveChanges(db: Db) {
+  const changes = watchChanges(db.$client.options, pino({ level: 'silent' }), 50)
+  await vi.waitFor(() => expect(changes.live).toBe(true))
+  return changes
 }
 
 type App = ReturnType<typeof testApp>

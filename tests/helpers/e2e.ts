@@ -14,7 +14,7 @@ import { destination } from '../shared/geo/fixtures'
 import { clientDir } from '../../server/index'
 import { createAppServer } from '../../server/http/server'
 import type { AppDeps } from '../../server/app'
-import { testApp } from './app'
+import { liveChanges, testApp } from './app'
 import { launchBrowser } from './browser'
 import { startTestMail } from './mail'
 import { startScenario } from './scenario'
@@ -30,9 +30,13 @@ export async function startE2e(days: number, deps: Partial<AppDeps> = {}) {
   const ctx = await startWorld(days)
   await ctx.feed.close()
   const mail = await startTestMail()
+  // Answers kept in memory and dropped by change notices, as `serve()` runs the app.
+  const changes = await liveChanges(ctx.db)
   // npm test runs vite build before the tests.
   const serve = (staticDir: string) =>
-    createAppServer(testApp(ctx.db, { staticDir, mail: mail.mail, mailbox: mail.smtp, ...deps }))
+    createAppServer(
+      testApp(ctx.db, { staticDir, mail: mail.mail, mailbox: mail.smtp, changes, ...deps }),
+    )
   let server = serve(clientDir).listen(0, '127.0.0.1')
   await new Promise((resolve) => server.once('listening', resolve))
   const browser = await launchBrowser()
@@ -60,6 +64,7 @@ export async function startE2e(days: number, deps: Partial<AppDeps> = {}) {
     close: async () => {
       await browser.close()
       if (server.listening) server.close()
+      await changes.close()
       await mail.close()
       await ctx.drop()
     },
@@ -124,8 +129,9 @@ export async function startE2eScenario(name: ScenarioName, banks: E2eBank[]) {
   await world.conditions.refreshAll(world.feed.now())
 
   const mail = await startTestMail()
+  const changes = await liveChanges(world.db)
   const server = createAppServer(
-    testApp(world.db, { staticDir: clientDir, mail: mail.mail, mailbox: mail.smtp }),
+    testApp(world.db, { staticDir: clientDir, mail: mail.mail, mailbox: mail.smtp, changes }),
   ).listen(0, '127.0.0.1')
   await new Promise((resolve) => server.once('listening', resolve))
   const browser = await launchBrowser()
@@ -157,6 +163,7 @@ export async function startE2eScenario(name: ScenarioName, banks: E2eBank[]) {
     close: async () => {
       await browser.close()
       server.close()
+      await changes.close()
       await mail.close()
       await world.close()
       vi.useRealTimers()

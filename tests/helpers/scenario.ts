@@ -131,8 +131,7 @@ export async function startScenario(name: ScenarioName) {
     },
     /** The Lake read as the app sends it at the feed's clock. */
     async read(): Promise<LakeRead> {
-      const answer = await conditions.readAnswer(lake!.slug, feed.now())
-      return JSON.parse(answer.body.toString()) as LakeRead
+      return (await conditions.read(lake!.slug, feed.now())).read
     },
     /**
      * Saves a bank for the demo angler where the shore lies `bearingDeg` from the lake's centre:
@@ -153,13 +152,7 @@ export async function startScenario(name: ScenarioName) {
     },
     /** The demo angler's Day plan for a date, as the app sends it at the feed's clock. */
     async plan(day: number | string = 0): Promise<DayPlanResponse> {
-      const answer = await conditions.planAnswer(
-        await anglerId(),
-        lake!.slug,
-        dateOf(day),
-        feed.now(),
-      )
-      return JSON.parse(answer.body.toString()) as DayPlanResponse
+      return (await conditions.plan(await anglerId(), lake!.slug, dateOf(day), feed.now())).plan
     },
     close: async () => {
       await feed.close()

@@ -297,15 +297,11 @@ describe('GET /api/lakes/:slug/plan/:date', () => {
 
   it('serves the stored read while its stale flags hold, and re-judges them after', async () => {
     const conditions = conditionsFor(ctx.db)
-    const now = LakeRead.parse(
-      JSON.parse((await conditions.readAnswer('quillmere')).body.toString()),
-    )
+    const now = LakeRead.parse((await conditions.read('quillmere')).read)
     expect(now.waterTemp!.stale).toBe(false)
     // Water temperature is read every 15 minutes and counts as stale after two hours.
     const later = new Date(Date.parse(now.waterTemp!.at) + 2 * 3_600_000 + 60_000)
-    const then = LakeRead.parse(
-      JSON.parse((await conditions.readAnswer('quillmere', later)).body.toString()),
-    )
+    const then = LakeRead.parse((await conditions.read('quillmere', later)).read)
     expect(then.waterTemp!.stale).toBe(true)
     expect(then.waterTemp!.valueC).toBe(now.waterTemp!.valueC)
   })

@@ -9,6 +9,7 @@ import { localDate } from '../../shared/time'
 import { NoticedCache, watchChanges, type Changes } from '../../server/db/changes'
 import { lakes, users } from '../../server/db/schema/index'
 import { seedDemo } from '../../server/db/seed/index'
+import { conditionsAnswers } from '../../server/features/conditions/conditions.cache'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { backfillReadings } from '../../server/features/ingest/readings.ingest'
 import { ingestWeather } from '../../server/features/ingest/weather.ingest'
@@ -133,20 +134,47 @@ describe('answers kept in memory, dropped by change notices', () => {
   })
 
   it('re-judges a kept read once when one of its values turns stale, not on every view', async () => {
-    const conditions = conditionsFor(ctx.db, one)
-    const stored = LakeRead.parse(
-      JSON.parse((await conditions.readAnswer('quillmere')).body.toString()),
-    )
+    const answers = conditionsAnswers(conditionsFor(ctx.db), one)
+    const stored = LakeRead.parse((await answers.read('quillmere')).data)
     expect(stored.waterTemp!.stale).toBe(false)
     // Water temperature is read every 15 minutes and counts as stale after two hours.
     const later = new Date(Date.parse(stored.waterTemp!.at) + 2 * 3_600_000 + 60_000)
-    const judged = await conditions.readAnswer('quillmere', later)
-    const read = LakeRead.parse(JSON.parse(judged.body.toString()))
+    const judged = await answers.read('quillmere', later)
+    const read = LakeRead.parse(JSON.parse(judged.answer.body.toString()))
     expect(read.waterTemp).toEqual({ ...stored.waterTemp, stale: true })
     // A minute on nothing else has turned: the same answer, not a new one.
-    expect(await conditions.readAnswer('quillmere', new Date(later.getTime() + 60_000))).toBe(
-      judged,
-    )
+    expect(await answers.read('quillmere', new Date(later.getTime() + 60_000))).toBe(judged)
+  })
+
+  it('drops the kept answers a notice names, and only those', async () => {
+    const [angler] = await ctx.db.select().from(users).limit(1)
+    const today = localDate(feed.now(), 'America/Chicago')
+    const answers = conditionsAnswers(conditionsFor(ctx.db), one)
+    const kept = async () => ({
+      quillmere: await answers.read('quillmere'),
+      vessandra: await answers.read('vessandra'),
+      plan: await answers.plan(angler!.id, 'quillmere', today, feed.now()),
+    })
+    const notice = async (statement: ReturnType<typeof sql>) => {
+      const seen = one.version
+      await ctx.db.execute(statement)
+      await vi.waitFor(() => expect(one.version).toBeGreaterThan(seen))
+    }
+    const before = await kept()
+    // Another lake's row changed: Quillmere's read and plan stay as kept.
+    await notice(sql`update lakes set name = name where slug = 'vessandra'`)
+    const after = await kept()
+    expect(after.quillmere).toBe(before.quillmere)
+    expect(after.plan).toBe(before.plan)
+    expect(after.vessandra).not.toBe(before.vessandra)
+    // Another angler's banks: the plan stays too.
+    await notice(sql`select pg_notify('chopline_changes', 'banks:' || gen_random_uuid())`)
+    expect((await kept()).plan).toBe(before.plan)
+    // Quillmere's days: its plan goes, its read stays.
+    await notice(sql`update lake_days set day = day where lake_id = ${lakeId}`)
+    const days = await kept()
+    expect(days.quillmere).toBe(before.quillmere)
+    expect(days.plan).not.toBe(before.plan)
   })
 
   it('makes one answer for views that ask at once, and a fresh one for a view after a notice', async () => {
@@ -185,5 +213,33 @@ describe('answers kept in memory, dropped by change notices', () => {
     await request(appOne).post('/api/auth/signout').set('Cookie', cookie).expect(204)
     // No notice can reach it now, and none is needed: the session row is read again.
     await request(app).get('/api/me').set('Cookie', cookie).expect(401)
+  })
+
+  it('drops everything it kept when its notices come back after a lost connection', async () => {
+    const cookie = await signIn('reconnect@example.test')
+    // A listener of its own, named so that only its connection is cut.
+    const name = 'chopline-reconnect-test'
+    const changes = watchChanges(
+      { ...ctx.db.$client.options, application_name: name },
+      pino({ level: 'silent' }),
+      50,
+    )
+    const app = testApp(ctx.db, { changes })
+    try {
+      await vi.waitFor(() => expect(changes.live).toBe(true))
+      await request(app).get('/api/me').set('Cookie', cookie).expect(200)
+      // The listening connection cut (a database restart, a proxy timeout)...
+      await ctx.db.execute(
+        sql`select pg_terminate_backend(pid) from pg_stat_activity where application_name = ${name}`,
+      )
+      await vi.waitFor(() => expect(changes.live).toBe(false))
+      // ...while the session ends elsewhere: its notice is never delivered to this instance.
+      await request(appOne).post('/api/auth/signout').set('Cookie', cookie).expect(204)
+      await vi.waitFor(() => expect(changes.live).toBe(true))
+      // Live again, it answers from the database, not from the session it kept before the cut.
+      await request(app).get('/api/me').set('Cookie', cookie).expect(401)
+    } finally {
+      await changes.close()
+    }
   })
 })

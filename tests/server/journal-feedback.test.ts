@@ -9,6 +9,7 @@ import type { CatchConditions } from '../../shared/schemas/journal'
 import { watchChanges, type Changes } from '../../server/db/changes'
 import { catches, users } from '../../server/db/schema/index'
 import { composeBrief, renderBrief } from '../../server/features/brief/compose'
+import { conditionsAnswers } from '../../server/features/conditions/conditions.cache'
 import { conditionsFor } from '../../server/features/conditions/conditions.service'
 import { logCatches } from '../../server/features/journal/your-log'
 import { createUser } from '../helpers/app'
@@ -99,11 +100,11 @@ describe('the log fed back into the day', () => {
     const id = await anAngler('feedback@journal.test')
     // Two instances keeping plans in memory; catches go straight into the database, as the
     // journal's routes, an import or another instance would write them.
-    const services = [conditionsFor(w.db, one), conditionsFor(w.db, two)]
+    const services = [one, two].map((c) => conditionsAnswers(conditionsFor(w.db), c))
     const plan = async (i = 1) =>
       DayPlanResponse.parse(
         JSON.parse(
-          (await services[i]!.planAnswer(id, 'quillmere', today, w.feed.now())).body.toString(),
+          (await services[i]!.plan(id, 'quillmere', today, w.feed.now())).answer.body.toString(),
         ),
       ).plan!
     const day = await storedDay()

@@ -3,45 +3,52 @@ import type { ForecastHour, LakeDay } from '../../../shared/conditions/day-plan'
 import type { Bank } from '../../../shared/conditions/ranking'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import type { Db } from '../../db/index'
-import { lakeDays, lakeReads, lakes, trips, weatherHours } from '../../db/schema/index'
+import { banks, lakeDays, lakeReads, lakes, trips, weatherHours } from '../../db/schema/index'
 
-/** The Day plan's one query: $1 slug, $2 date, $3 the angler. */
-const PLAN_VIEW = `
-  select l.id, l.slug, l.name, l.time_zone, r.lake_id is not null as has_read, d.day, d.computed_at,
-    (select coalesce(array_agg(x.date::text order by x.date), '{}') from lake_days x where x.lake_id = l.id) as dates,
-    (select coalesce(json_agg(json_build_object('id', b.id, 'name', b.name, 'points', b.points,
-              'cover', b.cover, 'depthM', b.depth_m, 'exposure', b.exposure) order by b.name), '[]')
-       from banks b where b.user_id = $3 and b.lake_id = l.id) as banks
-  from lakes l
-  left join lake_reads r on r.lake_id = l.id
-  left join lake_days d on d.lake_id = l.id and d.date = $2
-  where l.slug = $1`
-
-interface PlanViewRow {
-  id: string
-  slug: string
-  name: string
-  time_zone: string
-  has_read: boolean
-  day: LakeDay | null
-  computed_at: Date | null
-  dates: string[]
-  /** depth_m comes back as null when it was not given. */
-  banks: (Omit<Bank, 'depthM'> & { depthM: number | null })[]
-}
+/** A bank as the Day plan ranks it; depth comes back as null when it was not given. */
+type PlanBank = Omit<Bank, 'depthM'> & { depthM: number | null }
 
 export function conditionsRepo(db: Db) {
-  // The Lake read's one query, built once and planned once per pool connection.
-  const readText = db
+  // The Lake read's one query, by the lake's unique slug: planned once per pool connection.
+  const readOf = db
     .select({
       id: lakes.id,
-      text: sql<string | null>`${lakeReads.read}::text`,
-      holdUntil: lakeReads.flagsHoldUntil,
+      read: lakeReads.read,
+      computedAt: lakeReads.computedAt,
+      flagsHoldUntil: lakeReads.flagsHoldUntil,
     })
     .from(lakes)
     .leftJoin(lakeReads, eq(lakeReads.lakeId, lakes.id))
     .where(eq(lakes.slug, sql.placeholder('slug')))
-    .prepare('conditions_read_text')
+    .prepare('conditions_read')
+
+  // The Day plan's one query: the lake, its cached day for the date, the dates it has days for,
+  // and this angler's banks with their stored exposure tables. The two lists are subqueries the
+  // builder cannot say.
+  const planViewOf = db
+    .select({
+      id: lakes.id,
+      slug: lakes.slug,
+      name: lakes.name,
+      timeZone: lakes.timeZone,
+      hasRead: sql<boolean>`${lakeReads.lakeId} is not null`,
+      day: lakeDays.day,
+      computedAt: lakeDays.computedAt,
+      dates: sql<string[]>`(select coalesce(array_agg(x.date::text order by x.date), '{}')
+        from ${lakeDays} x where x.lake_id = ${lakes.id})`,
+      banks: sql<PlanBank[]>`(select coalesce(json_agg(json_build_object('id', b.id,
+          'name', b.name, 'points', b.points, 'cover', b.cover, 'depthM', b.depth_m,
+          'exposure', b.exposure) order by b.name), '[]')
+        from ${banks} b where b.user_id = ${sql.placeholder('userId')} and b.lake_id = ${lakes.id})`,
+    })
+    .from(lakes)
+    .leftJoin(lakeReads, eq(lakeReads.lakeId, lakes.id))
+    .leftJoin(
+      lakeDays,
+      and(eq(lakeDays.lakeId, lakes.id), eq(lakeDays.date, sql.placeholder('date'))),
+    )
+    .where(eq(lakes.slug, sql.placeholder('slug')))
+    .prepare('conditions_plan_view')
 
   return {
     allLakes: () => db.select().from(lakes),
@@ -52,23 +59,15 @@ export function conditionsRepo(db: Db) {
       return row
     },
 
-    /**
-     * Everything the Day plan needs in one round trip: the lake, its cached day for `date`, the
-     * dates it has days for, and this angler's banks with their stored exposure tables.
-     */
+    /** Everything the Day plan needs, in one round trip; undefined for a lake that is not there. */
     async planView(slug: string, date: string, userId: string) {
-      // A named statement: each pool connection plans it once, not on every page view.
-      const { rows } = await db.$client.query<PlanViewRow>({
-        name: 'conditions_plan_view',
-        text: PLAN_VIEW,
-        values: [slug, date, userId],
-      })
-      return rows[0]
+      const [row] = await planViewOf.execute({ slug, date, userId })
+      return row
     },
 
-    /** The lake's cached read as stored JSON text, nothing parsed; text is null before the first read. */
-    async readBySlug(slug: string) {
-      const [row] = await readText.execute({ slug })
+    /** The lake's cached read; `read` is null before the first one. */
+    async read(slug: string) {
+      const [row] = await readOf.execute({ slug })
       return row
     },
 

@@ -3,10 +3,8 @@ import { withYourLog, type LogCatch } from '../../../shared/journal/feedback'
 import type { DayPlanResponse } from '../../../shared/schemas/day-plan'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { addDays, localDate, localDayBounds, zonedMidnight } from '../../../shared/time'
-import { NoticedCache, type Changes } from '../../db/changes'
 import type { Db } from '../../db/index'
 import { HttpError, notFound } from '../../http/errors'
-import { prepareJson, type PreparedJson } from '../../http/prepared-json'
 import { lakeReadRepo, type LakeRow } from '../lakes/lake-read.repo'
 import {
   flagsHoldUntil,
@@ -20,25 +18,21 @@ import { conditionsRepo, type ConditionsRepo } from './conditions.repo'
 export { PLAN_DAYS }
 
 /**
- * The instants between which a date has a plan: from when it is the last day the forecast reaches
- * until the day after it ends, in the lake's time zone (plans cover yesterday, today and the next
- * days). Kept with a plan, so a repeat view checks two numbers, not the calendar.
+ * When a date stops having a plan: a date has one from when it is the last day the forecast
+ * reaches until the day after it ends, in the lake's time zone (plans cover yesterday, today and
+ * the next days).
  */
-function plannableFrom(date: string, timeZone: string): [number, number] {
-  return [
-    zonedMidnight(addDays(date, 1 - PLAN_DAYS), timeZone).getTime(),
-    zonedMidnight(addDays(date, 2), timeZone).getTime(),
-  ]
-}
-
-function assertPlannable([from, until]: [number, number], now: Date) {
-  if (now.getTime() < from || now.getTime() >= until) {
+function plannableUntil(date: string, timeZone: string, now: Date): Date {
+  const from = zonedMidnight(addDays(date, 1 - PLAN_DAYS), timeZone)
+  const until = zonedMidnight(addDays(date, 2), timeZone)
+  if (now < from || now >= until) {
     throw new HttpError(
       404,
       'no_plan_for_date',
       `Plans cover yesterday, today and the next ${PLAN_DAYS - 1} days.`,
     )
   }
+  return until
 }
 
 /** What a lake's read lacks for a day plan, in words; null when nothing is missing. */
@@ -54,11 +48,10 @@ function missingForPlan(read: LakeRead): string | null {
 export function conditionsService(deps: {
   repo: ConditionsRepo
   reads: LakeReadService
-  changes?: Changes
   /** The angler's catches in a day's clarity and phase, for the log's line beside the tackle. */
   logOf?: (userId: string, day: { clarity: string; phase: string }) => Promise<LogCatch[]>
 }) {
-  const { repo, reads, changes } = deps
+  const { repo, reads } = deps
 
   /** Computes a lake's read and its days from what is stored, and caches both. */
   async function refreshLake(lake: LakeRow, now: Date) {
@@ -96,65 +89,9 @@ export function conditionsService(deps: {
 
   /** Why a lake has no plan for a date: something the read lacks, or a forecast that ends sooner. */
   async function whyNoPlan(slug: string) {
-    const text = (await repo.readBySlug(slug))?.text
-    const read = text ? (JSON.parse(text) as LakeRead) : null
+    const read = (await repo.read(slug))?.read
     return (read && missingForPlan(read)) ?? 'The forecast does not reach this date yet.'
   }
-
-  /**
-   * The Day plan for an angler, lake and date, built from the cache the ingest jobs refresh, with
-   * the window in which its date can be planned.
-   */
-  async function plan(
-    userId: string,
-    slug: string,
-    date: string,
-    now: Date,
-  ): Promise<{ window: [number, number]; response: DayPlanResponse }> {
-    let view = await repo.planView(slug, date, userId)
-    if (!view) throw notFound('lake')
-    const window = plannableFrom(date, view.time_zone)
-    assertPlannable(window, now)
-    if (!view.has_read) {
-      // A lake no ingest has reached yet is read now, and cached like any other.
-      await refreshLake(await repo.lake(view.id), now)
-      view = (await repo.planView(slug, date, userId))!
-    }
-    const banks = view.banks.map((b) => ({ ...b, depthM: b.depthM ?? undefined }))
-    const planned = view.day ? planForBanks(view.day, banks) : null
-    const ranked =
-      planned && deps.logOf ? withYourLog(planned, await deps.logOf(userId, planned)) : planned
-    const response: DayPlanResponse = {
-      lake: { slug: view.slug, name: view.name, timeZone: view.time_zone },
-      date,
-      dates: view.dates,
-      computedAt: view.computed_at?.toISOString() ?? null,
-      banksSaved: banks.length,
-      unavailable: ranked ? null : await whyNoPlan(slug),
-      plan: ranked,
-    }
-    return { window, response }
-  }
-
-  // Answers as sent, dropped on a change notice about what they were made from.
-  const refreshed = new Set(['lakes', 'lake_reads', 'lake_days'])
-  const readRows = new NoticedCache<{
-    row: Awaited<ReturnType<ConditionsRepo['readBySlug']>>
-    /** The read ready to send: as stored, then as last re-judged against the clock. */
-    answer: PreparedJson | null
-    /** Until when the answer's stale flags hold; null until the next refresh. */
-    holdUntil: Date | null
-  }>(changes, { max: 1_000 }, (change, kept) => refreshed.has(change.table) && kept.clear())
-  const plans = new NoticedCache<{ window: [number, number]; answer: PreparedJson }>(
-    changes,
-    { maxSize: 32 * 2 ** 20, sizeCalculation: (kept) => kept.answer.body.length },
-    (change, kept) => {
-      if (refreshed.has(change.table)) kept.clear()
-      // Keys start with the angler's id: a bank or catch notice names its angler (the log's line).
-      else if (change.table === 'banks' || change.table === 'catches')
-        for (const key of kept.keys()) if (key.startsWith(`${change.key} `)) kept.delete(key)
-    },
-  )
 
   return {
     /** One lake's read and days recomputed, after its outline changes. */
@@ -170,60 +107,57 @@ export function conditionsService(deps: {
     },
 
     /**
-     * The Lake read, ready to send. While its stale flags still hold it goes out exactly as stored;
-     * when a value turns stale it is re-judged against the clock, and that answer is kept until
-     * the next value does.
+     * The Lake read as last refreshed, with its lake's id and until when its stale flags hold
+     * (null: for good). Until then the stored read is right as it is; after that its values are
+     * re-judged against the clock, so a value that has turned stale says so.
      */
-    async readAnswer(slug: string, now = new Date()): Promise<PreparedJson> {
-      const kept = await readRows.get(slug, async () => {
-        const found = await repo.readBySlug(slug)
-        return {
-          row: found,
-          answer: found?.text ? prepareJson(found.text) : null,
-          holdUntil: found?.holdUntil ?? null,
-        }
-      })
-      const { row } = kept
+    async read(slug: string, now = new Date()) {
+      const row = await repo.read(slug)
       if (!row) throw notFound('lake')
-      if (!kept.answer)
-        return prepareJson(JSON.stringify(await refreshLake(await repo.lake(row.id), now)))
-      if (kept.holdUntil && now >= kept.holdUntil) {
-        const read = withStaleFlags(JSON.parse(row.text!) as LakeRead, now)
-        kept.answer = prepareJson(JSON.stringify(read))
-        kept.holdUntil = flagsHoldUntil(read, now)
-      }
-      return kept.answer
+      // A lake no ingest has reached yet is read now, and cached like any other.
+      const stored = row.read ?? (await refreshLake(await repo.lake(row.id), now))
+      const read =
+        row.flagsHoldUntil && now >= row.flagsHoldUntil ? withStaleFlags(stored, now) : stored
+      return { lakeId: row.id, read, holdsUntil: flagsHoldUntil(read, now) }
     },
 
     /**
-     * The Day plan, ready to send: the lake's cached day with this angler's banks ranked in it.
-     * With change notices live it is made once per angler, lake and date, and again after an
-     * ingest refreshes the lake or the angler edits a bank.
+     * The Day plan for an angler, lake and date: the lake's cached day with this angler's banks
+     * ranked in it, with the lake's id and when the date stops being plannable.
      */
-    async planAnswer(
-      userId: string,
-      slug: string,
-      date: string,
-      now = new Date(),
-    ): Promise<PreparedJson> {
-      const kept = await plans.get(`${userId} ${slug} ${date}`, async () => {
-        const { window, response } = await plan(userId, slug, date, now)
-        return { window, answer: prepareJson(JSON.stringify(response)) }
-      })
-      // A kept plan's date may have left the window since (midnight passed).
-      assertPlannable(kept.window, now)
-      return kept.answer
+    async plan(userId: string, slug: string, date: string, now = new Date()) {
+      let view = await repo.planView(slug, date, userId)
+      if (!view) throw notFound('lake')
+      const until = plannableUntil(date, view.timeZone, now)
+      if (!view.hasRead) {
+        // A lake no ingest has reached yet is read now, and cached like any other.
+        await refreshLake(await repo.lake(view.id), now)
+        view = (await repo.planView(slug, date, userId))!
+      }
+      const banks = view.banks.map((b) => ({ ...b, depthM: b.depthM ?? undefined }))
+      const planned = view.day ? planForBanks(view.day, banks) : null
+      const ranked =
+        planned && deps.logOf ? withYourLog(planned, await deps.logOf(userId, planned)) : planned
+      const plan: DayPlanResponse = {
+        lake: { slug: view.slug, name: view.name, timeZone: view.timeZone },
+        date,
+        dates: view.dates,
+        computedAt: view.computedAt?.toISOString() ?? null,
+        banksSaved: banks.length,
+        unavailable: ranked ? null : await whyNoPlan(slug),
+        plan: ranked,
+      }
+      return { lakeId: view.id, plan, plannableUntil: until }
     },
   }
 }
 export type ConditionsService = ReturnType<typeof conditionsService>
 
 /** The service wired to its repositories: for the app and for the jobs. */
-export function conditionsFor(db: Db, changes?: Changes): ConditionsService {
+export function conditionsFor(db: Db): ConditionsService {
   return conditionsService({
     repo: conditionsRepo(db),
     reads: lakeReadService(lakeReadRepo(db)),
-    changes,
     logOf: async (userId, day) => (await logCatches(db, [userId], day)).get(userId) ?? [],
   })
 }
