@@ -237,6 +237,7 @@ describe('LakeReadView', () => {
       routes: [
         { path: '/lakes/:slug', component: LakeReadView },
         { path: '/lakes/:slug/plan/:date', name: 'day-plan', component: { render: () => null } },
+        { path: '/watches', name: 'watches', component: { render: () => null } },
       ],
     })
     await router.push('/lakes/x')
