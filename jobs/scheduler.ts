@@ -27,12 +27,15 @@ export function startScheduler(
 ): { stop: () => Promise<void> } {
   // Runs in flight, so that stopping waits for them before the pool under them ends.
   const running = new Set<Promise<void>>()
+  // Ends the waits for another instance's runs when the scheduler stops.
+  const stopping = new AbortController()
   const guarded =
     (name: string, log: Logger, run: (slot?: JobSlot) => Promise<unknown>) =>
     async (context?: TaskContext) => {
       const done = (async () => {
         try {
-          log.info({ job: name, result: await run(context && { slot: context.date }) }, 'job run')
+          const slot = context && { slot: context.date, signal: stopping.signal }
+          log.info({ job: name, slot: slot?.slot, result: await run(slot) }, 'job run')
         } catch (err) {
           log.error({ job: name, err }, 'job run failed')
         }
@@ -66,6 +69,7 @@ export function startScheduler(
   return {
     stop: async () => {
       for (const task of tasks) await task.stop()
+      stopping.abort()
       await Promise.all(running)
     },
   }

@@ -14,6 +14,8 @@ export interface JobSlot {
   waitMs?: number
   /** How often a waiting instance looks at the lock and at the run's row. */
   pollMs?: number
+  /** Stops the waiting (the scheduler stopping). */
+  signal?: AbortSignal
 }
 
 /** host:pid, written on the runs this process takes. */
@@ -110,10 +112,13 @@ export async function withJobLock<T>(
       return { skipped: true }
     }
     if (await slotFinished(db, job, slot.slot)) return { skipped: true }
+    if (slot.signal?.aborted) return { skipped: true }
     if (Date.now() > deadline) {
       log.warn({ job, slot: slot.slot }, 'another runner still holds the lock; giving up this run')
       return { skipped: true }
     }
-    await sleep(slot.pollMs ?? DEFAULT_POLL_MS)
+    await sleep(slot.pollMs ?? DEFAULT_POLL_MS, undefined, { signal: slot.signal }).catch(
+      () => undefined,
+    )
   }
 }
