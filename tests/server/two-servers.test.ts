@@ -154,6 +154,7 @@ beforeAll(async () => {
   await conditionsFor(db).refreshAll()
   shore = (quillmere!.shoreline as Polygon).coordinates[0]!
   today = localDate(new Date(), quillmere!.timeZone)
+  planDate = today
 
   env = {
     DATABASE_URL: cluster.url(),
