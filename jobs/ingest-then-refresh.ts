@@ -1,6 +1,6 @@
 import type { Db } from '../server/db/index'
 import { conditionsFor } from '../server/features/conditions/conditions.service'
-import { withJobLock } from '../server/db/job-lock'
+import { withJobLock, type JobSlot } from '../server/db/job-lock'
 import type { Logger } from '../server/logger'
 
 /**
@@ -11,10 +11,17 @@ export function ingestThenRefresh<T>(
   deps: { db: Db; log: Logger; now?: () => Date },
   job: string,
   ingest: () => Promise<T>,
+  slot?: JobSlot,
 ) {
-  return withJobLock(deps.db, job, deps.log, async () => {
-    const summary = await ingest()
-    await conditionsFor(deps.db).refreshAll(deps.now?.())
-    return summary
-  })
+  return withJobLock(
+    deps.db,
+    job,
+    deps.log,
+    async () => {
+      const summary = await ingest()
+      await conditionsFor(deps.db).refreshAll(deps.now?.())
+      return summary
+    },
+    slot,
+  )
 }

@@ -1,6 +1,6 @@
 import { tokenKey } from '../server/features/auth/auth.tokens'
 import { sendBriefs, type BriefDeps } from '../server/features/brief/send-briefs'
-import { withJobLock } from '../server/db/job-lock'
+import { withJobLock, type JobSlot } from '../server/db/job-lock'
 import { runFromCli, type JobContext } from './cli'
 
 /** Every five minutes: briefs whose local send time has passed, and retries that are due. */
@@ -9,9 +9,14 @@ export const SEND_BRIEFS_CRON = '*/5 * * * *'
 export function runSendBriefs(
   ctx: Pick<JobContext, 'db' | 'log' | 'mail' | 'sessionSecret'> &
     Pick<BriefDeps, 'now' | 'policy'>,
+  slot?: JobSlot,
 ) {
-  return withJobLock(ctx.db, 'send-briefs', ctx.log, () =>
-    sendBriefs({ ...ctx, linkKey: tokenKey(ctx.sessionSecret) }),
+  return withJobLock(
+    ctx.db,
+    'send-briefs',
+    ctx.log,
+    () => sendBriefs({ ...ctx, linkKey: tokenKey(ctx.sessionSecret) }),
+    slot,
   )
 }
 

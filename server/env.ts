@@ -1,4 +1,7 @@
+import cron from 'node-cron'
 import { z } from 'zod'
+
+const cronExpression = z.string().refine((v) => cron.validate(v), 'not a cron expression')
 
 const Env = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
@@ -57,6 +60,13 @@ const Env = z.object({
     .default('mailto:alerts@chopline.example'),
   /** Port of the local push stand-in that npm start runs. */
   PUSH_PORT: z.coerce.number().int().min(0).max(65535).default(3200),
+  /**
+   * The jobs' schedules, when not the usual (cron expressions, an optional seconds field first):
+   * gauge readings every 15 minutes, weather hourly, briefs every five minutes.
+   */
+  INGEST_READINGS_CRON: cronExpression.optional(),
+  INGEST_WEATHER_CRON: cronExpression.optional(),
+  SEND_BRIEFS_CRON: cronExpression.optional(),
   CHOPLINE_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
 })
 export type Env = z.infer<typeof Env>
@@ -98,6 +108,15 @@ export function allowedOrigins(env: Env): string[] {
   const loopback = ['127.0.0.1', 'localhost', '::1', '[::1]'].includes(env.HOST)
   const hosts = loopback ? ['127.0.0.1', 'localhost', '[::1]'] : [env.HOST]
   return hosts.map((host) => `http://${host}:${env.PORT}`)
+}
+
+/** The jobs' schedules the environment changes (`startScheduler`'s second argument). */
+export function jobSchedule(env: Env) {
+  return {
+    ingestReadings: env.INGEST_READINGS_CRON,
+    ingestWeather: env.INGEST_WEATHER_CRON,
+    sendBriefs: env.SEND_BRIEFS_CRON,
+  }
 }
 
 /** The VAPID keys from the environment, or null when push is not set up there. */

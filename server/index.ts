@@ -4,7 +4,7 @@ import { createApp, type AppDeps } from './app'
 import { watchChanges } from './db/changes'
 import { createDb } from './db/index'
 import { migrateDb } from './db/migrate'
-import { loadEnv, s3Settings, vapidFromEnv } from './env'
+import { jobSchedule, loadEnv, s3Settings, vapidFromEnv } from './env'
 import { createAppServer } from './http/server'
 import { createLogger } from './logger'
 import { smtpMailer } from './features/mail/mailer'
@@ -74,14 +74,17 @@ async function main() {
   // Watch alerts go by push only where VAPID keys are set; by mail everywhere.
   const vapid = vapidFromEnv(env)
   // Jobs run in every instance; each run takes a PostgreSQL lock, so one instance does the work.
-  const scheduler = startScheduler({
-    db,
-    feedUrl: FEED_URL,
-    log: logger,
-    mail,
-    sessionSecret: SESSION_SECRET,
-    push: vapid ? webPushSender({ db, log: logger, vapid }) : undefined,
-  })
+  const scheduler = startScheduler(
+    {
+      db,
+      feedUrl: FEED_URL,
+      log: logger,
+      mail,
+      sessionSecret: SESSION_SECRET,
+      push: vapid ? webPushSender({ db, log: logger, vapid }) : undefined,
+    },
+    jobSchedule(env),
+  )
   await serve({
     db,
     logger,

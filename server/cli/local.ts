@@ -14,7 +14,7 @@ import { startFeed } from '../fakes/feed/index'
 import { backfillReadings } from '../features/ingest/readings.ingest'
 import { ingestRepo } from '../features/ingest/ingest.repo'
 import type { Logger } from '../logger'
-import { allowedOrigins, loadEnv, publicOrigin, s3Settings, type Env } from '../env'
+import { allowedOrigins, jobSchedule, loadEnv, publicOrigin, s3Settings, type Env } from '../env'
 import { startMailServer } from '../fakes/mail/index'
 import { startS3Server } from '../fakes/s3/index'
 import { photoStore } from '../features/journal/photo-store'
@@ -67,7 +67,7 @@ async function startServicesAndJobs(env: Env, db: Db, log: Logger, sessionSecret
   const push = webPushSender({ db, log, vapid })
   const ctx = { db, feedUrl, log, mail, sessionSecret, push }
   await demoDevice(db, fakePush)
-  const scheduler = startScheduler(ctx)
+  const scheduler = startScheduler(ctx, jobSchedule(env))
   void (async () => {
     const [row] = await db.select({ n: count() }).from(readings)
     if (!row?.n) {

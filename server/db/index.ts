@@ -18,7 +18,14 @@ export interface DbOptions {
  * that connection's error would end the process.
  */
 export function createDb(url: string, { max = 10, log }: DbOptions = {}): Db {
-  const pool = new pg.Pool({ connectionString: url, max })
+  // A connection attempt that hangs (a server going down or coming up) fails after 10 s instead of
+  // holding a request and a pool slot for good; keepalive finds a connection a restart cut.
+  const pool = new pg.Pool({
+    connectionString: url,
+    max,
+    connectionTimeoutMillis: 10_000,
+    keepAlive: true,
+  })
   pool.on('error', (err) =>
     log?.warn({ err }, 'an idle database connection was closed; the pool will open another'),
   )

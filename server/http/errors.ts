@@ -75,6 +75,24 @@ export const noRoute: RequestHandler = (req, res) => {
   res.status(404).json(body('not_found', `No route for ${req.method} ${req.path}.`))
 }
 
+/**
+ * The database (or another service a route calls) out of reach for a moment (a restart, a
+ * failover, a dropped connection): PostgreSQL's connection-exception class (08) and shutdown codes
+ * (57P01-57P03), the socket's own errors, and node-postgres's words for a connection that ended
+ * under a query or could not be made in time.
+ */
+const DB_UNREACHABLE_CODES = /^(08...|57P0[123]|ECONNREFUSED|ECONNRESET|ETIMEDOUT|EPIPE|ENOTFOUND)$/
+const DB_UNREACHABLE_WORDS =
+  /^Connection terminated|is not queryable|timeout exceeded when trying to connect/
+
+function outOfReach(err: unknown): boolean {
+  for (let e = err, i = 0; isObject(e) && i < 4; e = e.cause, i++) {
+    if (typeof e.code === 'string' && DB_UNREACHABLE_CODES.test(e.code)) return true
+    if (typeof e.message === 'string' && DB_UNREACHABLE_WORDS.test(e.message)) return true
+  }
+  return false
+}
+
 /** PostgreSQL's codes for text it cannot store (NUL, a broken encoding): the request's fault. */
 const UNSTORABLE_TEXT = new Set(['22021', '22P05'])
 
@@ -160,6 +178,21 @@ export const errorHandler =
     if (UNSTORABLE_TEXT.has(pgCode(err) ?? '')) {
       logger.warn({ err: loggableError(err), requestId: req.id }, 'text the database refused')
       res.status(400).json(body('invalid_text', 'Some text holds characters we cannot store.'))
+      return
+    }
+    if (outOfReach(err)) {
+      // Said as such, so a client or a balancer tries again; a write it reports may or may not
+      // have been stored (the answer to a commit can be what was lost).
+      logger.warn(
+        { err: loggableError(err), requestId: req.id },
+        'the database or a service is out of reach',
+      )
+      res
+        .status(503)
+        .set('Retry-After', '5')
+        .json(
+          body('unavailable', 'The service is briefly unavailable. Try again in a few seconds.'),
+        )
       return
     }
     logger.error({ err: loggableError(err), requestId: req.id }, 'unexpected error')

@@ -15,7 +15,7 @@ declare module 'vitest' {
 
 export const TEMPLATE_DB = 'chopline_template'
 
-function freePort(): Promise<number> {
+export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const srv = createServer()
     srv.once('error', reject)

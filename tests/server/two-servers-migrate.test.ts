@@ -1,0 +1,49 @@
+import { sql } from 'drizzle-orm'
+import pg from 'pg'
+import { afterAll, describe, expect, inject, it } from 'vitest'
+import { createDb } from '../../server/db/index'
+import { migrateDb } from '../../server/db/migrate'
+
+const base = new URL(inject('pgTemplateUrl'))
+const name = `together_${process.pid}`
+const url = new URL(`/${name}`, base).href
+
+async function admin(query: string) {
+  const client = new pg.Client({ connectionString: new URL('/postgres', base).href })
+  await client.connect()
+  await client.query(query)
+  await client.end()
+}
+
+afterAll(async () => {
+  await admin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`)
+})
+
+describe('instances starting together', () => {
+  it('migrate an empty database at the same moment: one applies the migrations, the others wait', async () => {
+    await admin(`CREATE DATABASE "${name}" TEMPLATE template0`)
+    // Each instance has its own pool, as separate processes do.
+    const instances = [
+      createDb(url, { max: 2 }),
+      createDb(url, { max: 2 }),
+      createDb(url, { max: 2 }),
+    ]
+    try {
+      const outcomes = await Promise.allSettled(instances.map((db) => migrateDb(db)))
+      expect(outcomes.map((o) => (o.status === 'rejected' ? String(o.reason) : 'ok'))).toEqual([
+        'ok',
+        'ok',
+        'ok',
+      ])
+      const applied = await instances[0]!.execute<{ n: number }>(
+        sql`select count(*)::int as n from drizzle.__drizzle_migrations`,
+      )
+      const files = await instances[0]!.execute<{ n: number }>(
+        sql`select count(distinct hash)::int as n from drizzle.__drizzle_migrations`,
+      )
+      expect(applied.rows[0]!.n).toBe(files.rows[0]!.n)
+    } finally {
+      await Promise.all(instances.map((db) => db.$client.end()))
+    }
+  })
+})
