@@ -23,6 +23,12 @@ export interface Changes {
   readonly version: number
   /** Called with each notice, and with null when everything must go (a reconnect). */
   subscribe(listener: (change: Change | null) => void): void
+  /**
+   * Resolves once every notice of a commit made before the call has been heard. PostgreSQL sends
+   * a listening connection its pending notices before the answer to any later query on it, so a
+   * round trip there is the barrier; callers that ask while one is under way share the next.
+   */
+  heard(): Promise<void>
   close(): Promise<void>
 }
 
@@ -75,8 +81,28 @@ export function watchChanges(config: pg.ClientConfig, log: Logger, retryMs = 1_0
     setTimeout(() => void connect(), retryMs).unref()
   }
 
+  /** The barrier on the wire, and the one callers who came after it was sent will share. */
+  let sent: Promise<void> | null = null
+  let next: Promise<void> | null = null
+  const roundTrip = async () => {
+    // A connection lost meanwhile turns `live` off, and callers read the database then.
+    await client?.query('select 1').catch(() => undefined)
+  }
+  function heard(): Promise<void> {
+    if (!sent) {
+      sent = roundTrip().finally(() => (sent = null))
+      return sent
+    }
+    next ??= sent.then(() => {
+      next = null
+      return heard()
+    })
+    return next
+  }
+
   void connect()
   return {
+    heard,
     get live() {
       return live
     },
@@ -126,6 +152,10 @@ export class NoticedCache<V extends object> {
   async get(key: string, load: () => Promise<V>): Promise<V> {
     const changes = this.changes
     if (!changes?.live) return load()
+    // A change committed through another instance just before this call has been heard, so what
+    // is kept reflects it ("at once", not "a few milliseconds later").
+    await changes.heard()
+    if (!changes.live) return load()
     const kept = this.kept.get(key)
     if (kept) return kept
     const version = changes.version

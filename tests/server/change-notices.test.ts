@@ -187,7 +187,12 @@ describe('answers kept in memory, dropped by change notices', () => {
       await gate
       return { load: n }
     }
-    const [a, b] = [cache.get('quillmere', load), cache.get('quillmere', load)]
+    const a = cache.get('quillmere', load)
+    await vi.waitFor(() => expect(loads).toBe(1))
+    const b = cache.get('quillmere', load)
+    // b's barrier was sent first, so b has joined the running load once a later one is heard.
+    await one.heard()
+    expect(loads).toBe(1)
     // A notice while that load runs: it may have read the row before the change.
     const seen = one.version
     await ctx.db.execute(sql`update lakes set name = name where slug = 'vessandra'`)
@@ -200,6 +205,16 @@ describe('answers kept in memory, dropped by change notices', () => {
     // Only the load begun after the notice was kept.
     expect(await cache.get('quillmere', load)).toBe(await c)
     expect(loads).toBe(2)
+  })
+
+  it('has heard every change committed before it is asked, so the next answer reflects it', async () => {
+    // PostgreSQL NOTIFY docs: a listening session gets pending notices before a later query's result.
+    for (let i = 0; i < 20; i++) {
+      const seen = two.version
+      await ctx.db.execute(sql`update lakes set name = name where slug = 'vessandra'`)
+      await two.heard()
+      expect(two.version, `edit ${i}`).toBeGreaterThan(seen)
+    }
   })
 
   it('answers from the database while notices are down', async () => {
