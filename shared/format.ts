@@ -25,6 +25,13 @@ export function age(iso: string, now = Date.now()): string {
 /** A number to at most one decimal, without a trailing ".0": 0.6, 3, 1.5. */
 const short = (x: number) => String(Math.round(x * 10) / 10)
 
+/** A change as shown, signed by its rounded value: "+0.04 inHg", "−1.2 m", and "0.0 m", never "−0.0". */
+const signed = (x: number, digits: number, unit: string) => {
+  const shown = Number(x.toFixed(digits))
+  const sign = shown > 0 ? '+' : shown < 0 ? '−' : ''
+  return `${sign}${Math.abs(shown).toFixed(digits)} ${unit}`
+}
+
 /** "1-1.5" from two numbers, or one number alone. */
 const span = (lo: number, hi: number | undefined, each: (x: number) => string) =>
   hi === undefined ? each(lo) : `${each(lo)}-${each(hi)}`
@@ -122,8 +129,7 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     length: lengthText,
     /** A wave height to the tenth of a metre the cautions judge it at: 0.58 m reads as 2.0 ft. */
     wave: (m: number) => lengthText(Math.round(m * 10) / 10),
-    signedLength: (m: number) =>
-      `${m >= 0 ? '+' : '−'}${Math.abs(lengthOf(m)).toFixed(1)} ${s.length}`,
+    signedLength: (m: number) => signed(lengthOf(m), 1, s.length),
     /** Longer distances (fetch): miles with feet, kilometres with metres. */
     distance: (m: number) =>
       s.length === 'ft' ? `${(m / 1609.344).toFixed(1)} mi` : `${(m / 1000).toFixed(1)} km`,
@@ -131,11 +137,7 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     /** Sea-level pressure: "30.01 inHg" or "1016 hPa". */
     pressure: (hPa: number) => `${toPressure(hPa).toFixed(pressureDigits)} ${pressureUnit}`,
     /** A change of pressure: "+0.04 inHg" or "+1.2 hPa". */
-    pressureChange: (hPa: number) => {
-      const x = Number(toPressure(hPa).toFixed(imperial ? 2 : 1))
-      const sign = x > 0 ? '+' : x < 0 ? '−' : ''
-      return `${sign}${Math.abs(x).toFixed(imperial ? 2 : 1)} ${pressureUnit}`
-    },
+    pressureChange: (hPa: number) => signed(toPressure(hPa), imperial ? 2 : 1, pressureUnit),
     /** A caution's headline, message and source in these units. */
     caution: (c: Parameters<typeof cautionWords>[0]) => cautionWords(c, cautionUnits),
     /** The verdict of some cautions, its reasons in these units. */

@@ -21,6 +21,10 @@ describe('makeFormat', () => {
     })
     expect(f.temp(20)).toBe('20.0 °C')
     expect(f.signedLength(-0.25)).toBe('−0.3 m')
+    // A level a hair under its median is at it: no sign on a zero as shown.
+    expect(f.signedLength(-0.02)).toBe('0.0 m')
+    expect(f.signedLength(0.04)).toBe('0.0 m')
+    expect(f.signedLength(0.06)).toBe('+0.1 m')
     expect(f.speed((1852 / 3600) * 10)).toBe('10 kt')
     expect(f.time('2026-04-10T18:30:00Z', 'America/Chicago')).toBe('13:30')
   })
