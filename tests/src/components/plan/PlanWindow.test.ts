@@ -37,6 +37,8 @@ describe('PlanWindow', () => {
     })
     expect(wrapper.find('.verdict-no-go').text()).toContain('No-go: do not launch')
     expect(wrapper.text()).toContain('Wind 29 mph, gusts 40 mph')
+    // The window's mean wind, and the strongest hour its cautions were judged on.
+    expect(wrapper.find('.weather').text()).toMatch(/^\d+ mph, up to 29 mph from W/)
     expect(wrapper.text()).toContain('Do not launch in this window')
     expect(wrapper.find('.banks').exists()).toBe(false)
     expect(wrapper.text()).not.toContain('East rocks')
@@ -51,6 +53,8 @@ describe('PlanWindow', () => {
     expect(wrapper.find('.verdict-caution').text()).toContain('Go with caution')
     expect(wrapper.find('.verdict-caution').text()).toContain('Water 49.8 °F')
     expect(wrapper.find('.banks').text()).toContain('East rocks')
+    // A steady window has one wind to say.
+    expect(wrapper.find('.weather').text()).not.toContain('up to')
   })
 
   it('says a cold front has passed, with the pressure in the reader’s units (NIST SP 811: 1 inHg = 33.8638 hPa)', () => {
