@@ -4,6 +4,7 @@ import type { BriefDelivery, BriefUnits } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { isoOrNull } from '../../../shared/time'
 import type { Db } from '../../db/index'
+import { failedTry } from '../../lib/backoff'
 import { RANKED_BANK } from '../banks/banks.repo'
 import { UNIT_COLUMNS, unitsOrDefault } from '../settings/settings.repo'
 import { banks, briefSends, briefSettings, userSettings, users } from '../../db/schema/index'
@@ -179,13 +180,7 @@ export function briefSendsRepo(db: Db) {
     async markFailed(claim: Claim, error: string, at: Date, retryAt: Date | null) {
       await db
         .update(briefSends)
-        .set({
-          status: retryAt ? 'retry' : 'failed',
-          nextAttemptAt: retryAt,
-          lastError: error,
-          leaseUntil: null,
-          updatedAt: at,
-        })
+        .set(failedTry(error, at, retryAt))
         .where(of(claim))
     },
 

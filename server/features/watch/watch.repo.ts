@@ -3,6 +3,7 @@ import type { ExposureTable } from '../../../shared/conditions/exposure'
 import type { BriefUnits } from '../../../shared/schemas/brief'
 import type { SentAlert, Watch, WatchConditions } from '../../../shared/schemas/watch'
 import type { Db } from '../../db/index'
+import { failedTry } from '../../lib/backoff'
 import { UNIT_COLUMNS, unitsOrDefault } from '../settings/settings.repo'
 import {
   banks,
@@ -395,13 +396,7 @@ export function watchRepo(db: Db) {
     markFailed: (key: AlertKey, error: string, at: Date, retryAt: Date | null) =>
       db
         .update(watchAlerts)
-        .set({
-          status: retryAt ? 'retry' : 'failed',
-          nextAttemptAt: retryAt,
-          lastError: error,
-          leaseUntil: null,
-          updatedAt: at,
-        })
+        .set(failedTry(error, at, retryAt))
         .where(isKey(key)),
 
     /** The latest alerts, for admins beside the caught mail. */
