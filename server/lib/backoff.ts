@@ -9,3 +9,12 @@ export function backoffMs(policy: Backoff, attempt: number): number {
   const ceiling = Math.min(policy.maxDelayMs, policy.baseDelayMs * 2 ** attempt)
   return ceiling / 2 + (Math.random() * ceiling) / 2
 }
+
+/** What a failed delivery try writes on its outbox row (briefs, watch alerts): `retryAt` schedules another, null gives up. */
+export const failedTry = (error: string, at: Date, retryAt: Date | null) => ({
+  status: retryAt ? ('retry' as const) : ('failed' as const),
+  nextAttemptAt: retryAt,
+  lastError: error,
+  leaseUntil: null,
+  updatedAt: at,
+})

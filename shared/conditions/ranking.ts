@@ -11,6 +11,7 @@ import {
 import { WAVE_M, WIND_MS } from './safety'
 import { PHASE_LABELS, type SeasonalPhase } from './season'
 import { COVER_LABELS, type Cover, type Sky } from './tackle-rules'
+import { wordList } from '../words'
 
 export interface Bank {
   id: string
@@ -146,7 +147,7 @@ function coverInWords(covers: Cover[]): string {
   const words = covers.map((cover, i) =>
     i === 0 ? COVER_LABELS[cover] : COVER_LABELS[cover].toLowerCase(),
   )
-  return words.length > 1 ? `${words.slice(0, -1).join(', ')} and ${words.at(-1)}` : words[0]!
+  return wordList(words)
 }
 
 function depthPoints(bank: Bank, c: RankConditions): ScoreComponent {

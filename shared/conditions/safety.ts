@@ -1,6 +1,7 @@
 import { assertFinite } from '../errors'
 import { cToF, fToC, M_PER_FT, msToKmh, msToKnots, mToFt } from '../units'
 import { heatIndexC, windChillC } from './weather'
+import { wordList } from '../words'
 
 export type CautionLevel = 'info' | 'caution' | 'warning' | 'danger'
 export type CautionKind =
@@ -392,7 +393,7 @@ export function verdictOf(list: Pick<Caution, 'kind' | 'level' | 'headline'>[]):
 function whenText(labels: string[], of: number): string {
   if (labels.length === of && of > 1) return 'All day'
   const lower = labels.map((l, i) => (i ? l.toLowerCase() : l))
-  return lower.length > 1 ? `${lower.slice(0, -1).join(', ')} and ${lower.at(-1)}` : lower[0]!
+  return wordList(lower)
 }
 
 /**

@@ -1,10 +1,10 @@
 import { z } from 'zod'
 import { CLARITY_CLASSES } from '../conditions/clarity'
 import { SEASONAL_PHASES } from '../conditions/season'
+import { SPEED_UNITS } from './settings'
 
 export const WATCH_WINDOWS = ['dawn', 'midday', 'afternoon'] as const
 export const WATCH_CHANNELS = ['email', 'push'] as const
-export const WATCH_SPEED_UNITS = ['mph', 'kmh', 'knots'] as const
 
 /** Wind in a speed range, in the unit the angler typed it in; `onto` asks it to blow onto the bank. */
 export const WatchWind = z
@@ -12,7 +12,7 @@ export const WatchWind = z
     onto: z.boolean().default(false),
     min: z.number().min(0, 'At least 0.').max(150, 'At most 150.'),
     max: z.number().min(0, 'At least 0.').max(150, 'At most 150.'),
-    unit: z.enum(WATCH_SPEED_UNITS),
+    unit: z.enum(SPEED_UNITS),
   })
   .refine((w) => w.min <= w.max, {
     path: ['max'],

@@ -12,12 +12,10 @@ import { apiRequest } from './http'
 const ADMIN = ['admin'] as const
 export const briefKeys = {
   settings: ['brief'] as const,
-  /** The admin's Mail page: undelivered briefs, caught mail, and the watch alerts sent. */
+  /** The admin's Mail page: undelivered briefs and caught mail (watch alerts: `watchKeys`). */
   deliveries: (status: MaybeRef<string>) => [...ADMIN, 'brief-deliveries', status] as const,
   mailbox: [...ADMIN, 'mailbox'] as const,
   mail: (id: MaybeRef<number | null>) => [...ADMIN, 'mailbox', id] as const,
-  alerts: [...ADMIN, 'alerts'] as const,
-  pushbox: [...ADMIN, 'pushbox'] as const,
 }
 
 type SentTo = { sentTo: string }

@@ -2,6 +2,13 @@ import type { CaughtPush } from '@shared/schemas/push'
 import type { SentAlert, Watch, WatchInput, WatchList, WatchPatch } from '@shared/schemas/watch'
 import { apiCommand, apiRequest } from './http'
 
+/** The watches domain's query keys: an angler's watches; for admins, alerts sent and pushes caught. */
+export const watchKeys = {
+  list: ['watches'] as const,
+  alerts: ['admin', 'alerts'] as const,
+  pushbox: ['admin', 'pushbox'] as const,
+}
+
 export const watchesApi = {
   list: () => apiRequest<WatchList>('/watches'),
   create: (body: WatchInput) => apiRequest<Watch>('/watches', { method: 'POST', body }),
@@ -17,4 +24,4 @@ export const watchesApi = {
   stop: (token: string) => apiCommand('/watch/unsubscribe', { query: { token } }),
 }
 
-export const watchesQuery = { queryKey: ['watches'], queryFn: watchesApi.list }
+export const watchesQuery = { queryKey: watchKeys.list, queryFn: watchesApi.list }

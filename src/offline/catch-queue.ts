@@ -36,7 +36,7 @@ async function load(userId: string) {
 }
 
 /** Keeps a catch on the phone to be sent when the network is back. */
-export async function keepCatch(
+async function keepCatch(
   userId: string,
   input: CatchInput & { clientId: string },
   photo: File | null,
@@ -111,7 +111,7 @@ let sending: Promise<void> | null = null
  * server error stops the round (the next one comes with the network); a refusal is kept with its
  * message.
  */
-export function sendQueuedCatches(userId: string): Promise<void> {
+function sendQueuedCatches(userId: string): Promise<void> {
   sending ??= (async () => {
     try {
       const waiting = (await values<QueuedCatch>(store()))

@@ -1,14 +1,14 @@
 import { readFileSync } from 'node:fs'
 import { and, count, eq } from 'drizzle-orm'
 import exifr from 'exifr'
-import type { BrowserContext, Page } from 'playwright-core'
+import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Position } from '../../shared/geo/types'
 import { addDays, localDate } from '../../shared/time'
 import { catches, catchPhotos, lakes, users } from '../../server/db/schema/index'
 import { expectAccessible } from '../helpers/axe'
 import { cameraPhoto } from '../helpers/camera-photo'
-import { apiSession, startE2e, type E2e } from '../helpers/e2e'
+import { apiSession, KEPT_URLS, startE2e, type E2e } from '../helpers/e2e'
 import { startTestS3, type TestS3 } from '../helpers/s3'
 
 let e2e: E2e
@@ -55,23 +55,9 @@ async function controlled(page: Page) {
     })
     .toBe(true)
   await page.reload()
-  const kept = `(async () => {
-    const urls = []
-    for (const name of await caches.keys())
-      for (const req of await (await caches.open(name)).keys()) urls.push(req.url)
-    return urls
-  })()`
   await expect
-    .poll(() => page.evaluate<string[]>(kept), { timeout: 10_000 })
+    .poll(() => page.evaluate<string[]>(KEPT_URLS), { timeout: 10_000 })
     .toEqual(expect.arrayContaining([`${base}/api/me`, `${base}/api/me/settings`]))
-}
-async function offline(context: BrowserContext) {
-  await context.setOffline(true)
-  await e2e.network.down()
-}
-async function online(context: BrowserContext) {
-  await e2e.network.up()
-  await context.setOffline(false)
 }
 
 /** The parts of a wall-clock time at the lake, as a camera would write and a form would show. */
@@ -223,7 +209,7 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     await page.getByLabel('Note').fill('Logged at the ramp with no signal')
 
     // The signal drops before the catch is sent: the form says where it goes.
-    await offline(context)
+    await e2e.offline(context)
     await page
       .getByText("Saved on this phone; will send when you're back online.")
       .first()
@@ -241,7 +227,7 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     expect(await anglersCatches()).toBe(before)
 
     // The network returns: it is sent, once, and listed as logged.
-    await online(context)
+    await e2e.online(context)
     await waiting.waitFor({ state: 'detached' })
     await expect.poll(anglersCatches).toBe(before + 1)
     const sent = await e2e.db

@@ -2,9 +2,9 @@ import { execFileSync } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import type { BrowserContext, Page } from 'playwright-core'
+import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { startE2e, type E2e } from '../helpers/e2e'
+import { KEPT_URLS, startE2e, type E2e } from '../helpers/e2e'
 import { signInAs } from '../helpers/signin'
 
 let e2e: E2e
@@ -26,26 +26,8 @@ async function controlled(page: Page) {
     .toBe(true)
 }
 
-/** Every URL the service worker's caches hold (a string: no DOM library here). */
-const KEPT_URLS = `(async () => {
-  const urls = []
-  for (const name of await caches.keys())
-    for (const req of await (await caches.open(name)).keys()) urls.push(req.url)
-  return urls
-})()`
-
 /** The names of the service worker's API caches (one per build). */
 const API_CACHES = `caches.keys().then((names) => names.filter((n) => n.startsWith('chopline-api-')))`
-
-/** The browser's offline mode for the page and the server gone for the worker's own requests. */
-async function offline(context: BrowserContext) {
-  await context.setOffline(true)
-  await e2e.network.down()
-}
-async function online(context: BrowserContext) {
-  await e2e.network.up()
-  await context.setOffline(false)
-}
 
 describe('at the ramp with no network, in Chromium', () => {
   it('reads the Lake read and the Day plan saved on the device, marked, and refreshes when the network returns', async () => {
@@ -79,7 +61,7 @@ describe('at the ramp with no network, in Chromium', () => {
     const mark = page.getByRole('status').filter({ hasText: /^Saved at .*, offline/ })
     expect(await mark.count()).toBe(0)
 
-    await offline(context)
+    await e2e.offline(context)
     await page.reload()
     await heading.waitFor()
     await mark.waitFor()
@@ -107,7 +89,7 @@ describe('at the ramp with no network, in Chromium', () => {
     const refreshed = page.waitForResponse(
       (r) => r.url().includes('/api/lakes/quillmere/plan/') && r.status() === 200,
     )
-    await online(context)
+    await e2e.online(context)
     await refreshed
     await mark.waitFor({ state: 'detached' })
     expect(await page.locator('section.plan-window').count()).toBe(windows)

@@ -41,25 +41,35 @@ export async function startE2e(days: number, deps: Partial<AppDeps> = {}) {
   await new Promise((resolve) => server.once('listening', resolve))
   const browser = await launchBrowser()
   const port = (server.address() as AddressInfo).port
+  /**
+   * The server's side of going offline: Chromium's offline mode (`context.setOffline`) does not
+   * reach a service worker's own requests, so the server stops listening, and starts again on
+   * the same port, serving the client built in `staticDir` (another build: a new version).
+   */
+  const network = {
+    down: async () => {
+      server.closeAllConnections()
+      await new Promise((resolve) => server.close(resolve))
+    },
+    up: async (staticDir = clientDir) => {
+      server = serve(staticDir).listen(port, '127.0.0.1')
+      await new Promise((resolve) => server.once('listening', resolve))
+    },
+  }
   return {
     db: ctx.db,
     base: `http://127.0.0.1:${port}`,
     browser,
     mail,
-    /**
-     * The server's side of going offline: Chromium's offline mode (`context.setOffline`) does not
-     * reach a service worker's own requests, so the server stops listening, and starts again on
-     * the same port, serving the client built in `staticDir` (another build: a new version).
-     */
-    network: {
-      down: async () => {
-        server.closeAllConnections()
-        await new Promise((resolve) => server.close(resolve))
-      },
-      up: async (staticDir = clientDir) => {
-        server = serve(staticDir).listen(port, '127.0.0.1')
-        await new Promise((resolve) => server.once('listening', resolve))
-      },
+    network,
+    /** The browser's offline mode for the page and the server gone for the worker's own requests. */
+    offline: async (context: BrowserContext) => {
+      await context.setOffline(true)
+      await network.down()
+    },
+    online: async (context: BrowserContext) => {
+      await network.up()
+      await context.setOffline(false)
     },
     close: async () => {
       await browser.close()
@@ -71,6 +81,14 @@ export async function startE2e(days: number, deps: Partial<AppDeps> = {}) {
   }
 }
 export type E2e = Awaited<ReturnType<typeof startE2e>>
+
+/** Every URL the service worker's caches hold, for `page.evaluate` (a string: no DOM library here). */
+export const KEPT_URLS = `(async () => {
+  const urls = []
+  for (const name of await caches.keys())
+    for (const req of await (await caches.open(name)).keys()) urls.push(req.url)
+  return urls
+})()`
 
 /** A bank of the scenario's lake for a demo user: where the shore lies `bearingDeg` from the centre. */
 export interface E2eBank {

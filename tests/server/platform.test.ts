@@ -2,35 +2,27 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { sql } from 'drizzle-orm'
-import pg from 'pg'
 import request from 'supertest'
-import { afterAll, describe, expect, inject, it, vi } from 'vitest'
+import { afterAll, describe, expect, it, vi } from 'vitest'
 import { createDb } from '../../server/db/index'
 import { migrateDb } from '../../server/db/migrate'
+import { emptyTestDb } from '../helpers/db'
 import { seedDemo } from '../../server/db/seed/index'
 import { lakes, users } from '../../server/db/schema/index'
 import { testApp } from '../helpers/app'
 
-const base = new URL(inject('pgTemplateUrl'))
-const name = `empty_${process.pid}`
-const url = new URL(`/${name}`, base).href
+const empty = emptyTestDb('empty')
+const url = empty.url
 const db = createDb(url, { max: 2 })
-
-async function admin(query: string) {
-  const client = new pg.Client({ connectionString: new URL('/postgres', base).href })
-  await client.connect()
-  await client.query(query)
-  await client.end()
-}
 
 afterAll(async () => {
   await db.$client.end()
-  await admin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`)
+  await empty.drop()
 })
 
 describe('database platform', () => {
   it('applies the migrations to an empty database, twice without harm, then seeds idempotently', async () => {
-    await admin(`CREATE DATABASE "${name}" TEMPLATE template0`)
+    await empty.create()
     await migrateDb(db)
     await migrateDb(db)
     const tables = await db.execute<{ table_name: string }>(

@@ -1,27 +1,19 @@
 import { sql } from 'drizzle-orm'
-import pg from 'pg'
-import { afterAll, describe, expect, inject, it } from 'vitest'
+import { afterAll, describe, expect, it } from 'vitest'
 import { createDb } from '../../server/db/index'
 import { migrateDb } from '../../server/db/migrate'
+import { emptyTestDb } from '../helpers/db'
 
-const base = new URL(inject('pgTemplateUrl'))
-const name = `together_${process.pid}`
-const url = new URL(`/${name}`, base).href
-
-async function admin(query: string) {
-  const client = new pg.Client({ connectionString: new URL('/postgres', base).href })
-  await client.connect()
-  await client.query(query)
-  await client.end()
-}
+const empty = emptyTestDb('together')
+const url = empty.url
 
 afterAll(async () => {
-  await admin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`)
+  await empty.drop()
 })
 
 describe('instances starting together', () => {
   it('migrate an empty database at the same moment: one applies the migrations, the others wait', async () => {
-    await admin(`CREATE DATABASE "${name}" TEMPLATE template0`)
+    await empty.create()
     // Each instance has its own pool, as separate processes do.
     const instances = [
       createDb(url, { max: 2 }),

@@ -2,7 +2,7 @@ import { rmSync } from 'node:fs'
 import { createServer, type Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import { fileURLToPath } from 'node:url'
-import { and, eq, inArray, sql } from 'drizzle-orm'
+import { and, eq, gt, inArray, isNotNull, isNull, sql, type SQL } from 'drizzle-orm'
 import type { Polygon, Position } from 'geojson'
 import { pino } from 'pino'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -68,6 +68,14 @@ let today: string
 let planDate: string
 
 const [a, b] = [() => servers[0]!, () => servers[1]!]
+
+/** The `job_runs` rows that meet every condition, oldest slot first. */
+const runsWhere = (...where: SQL[]) =>
+  db
+    .select()
+    .from(jobRuns)
+    .where(and(...where))
+    .orderBy(jobRuns.slot)
 
 /** A point a few metres off a shoreline vertex toward the lake's centre. */
 function nearShore(i: number, centre: Position): Position {
@@ -288,11 +296,7 @@ describe('two servers on one database', () => {
     }
 
     // The feed saw one listing of its stations per readings run, none from a second runner.
-    const rows = await db
-      .select()
-      .from(jobRuns)
-      .where(and(eq(jobRuns.job, 'ingest-readings'), sql`${jobRuns.slot} > ${since}`))
-      .orderBy(jobRuns.slot)
+    const rows = await runsWhere(eq(jobRuns.job, 'ingest-readings'), gt(jobRuns.slot, since))
     const done = rows.filter((r) => r.finishedAt)
     expect(done.length).toBeGreaterThanOrEqual(3)
     for (const r of done) expect(r.attempts).toBe(1)
@@ -317,16 +321,11 @@ describe('two servers on one database', () => {
         'a readings run in flight',
         async () =>
           (
-            await db
-              .select()
-              .from(jobRuns)
-              .where(
-                and(
-                  eq(jobRuns.job, 'ingest-readings'),
-                  sql`${jobRuns.slot} > ${since}`,
-                  sql`${jobRuns.finishedAt} is null`,
-                ),
-              )
+            await runsWhere(
+              eq(jobRuns.job, 'ingest-readings'),
+              gt(jobRuns.slot, since),
+              isNull(jobRuns.finishedAt),
+            )
           )[0],
         { timeoutMs: 20_000, everyMs: 50 },
       )
@@ -338,16 +337,11 @@ describe('two servers on one database', () => {
         'the other server to finish the run',
         async () =>
           (
-            await db
-              .select()
-              .from(jobRuns)
-              .where(
-                and(
-                  eq(jobRuns.job, running.job),
-                  eq(jobRuns.slot, running.slot),
-                  sql`${jobRuns.finishedAt} is not null`,
-                ),
-              )
+            await runsWhere(
+              eq(jobRuns.job, running.job),
+              eq(jobRuns.slot, running.slot),
+              isNotNull(jobRuns.finishedAt),
+            )
           )[0],
         { timeoutMs: 30_000, everyMs: 200 },
       )

@@ -1,6 +1,6 @@
 import express, { type Request, type Response } from 'express'
 import { PARAMETERS, type Parameter } from '../../../shared/readings'
-import { M_PER_FT } from '../../../shared/units'
+import { cToF, M_PER_FT, mToFt } from '../../../shared/units'
 import { FaultInjector, type FaultPlan, type ItemFault } from './faults'
 import { LakeWorld, type FeedLake } from './model'
 import { isScenarioName, SCENARIOS, ScriptedDays, type ScenarioName } from './scenarios'
@@ -79,7 +79,7 @@ function published(world: LakeWorld, parameter: Parameter, unit: string, t: numb
           : parameter === 'dissolved_oxygen'
             ? world.oxygenMgL(t)
             : world.secchiM(t)
-  const value = unit === '°F' ? (si * 9) / 5 + 32 : unit === 'ft' ? si / M_PER_FT : si
+  const value = unit === '°F' ? cToF(si) : unit === 'ft' ? mToFt(si) : si
   return Math.round(value * 100) / 100
 }
 

@@ -6,7 +6,7 @@ import type {
   User,
 } from '../../../shared/schemas/auth'
 import { NoticedCache, type Changes } from '../../db/changes'
-import { HttpError, invalid, loggableError } from '../../http/errors'
+import { conflict, HttpError, invalid, loggableError } from '../../http/errors'
 import type { Logger } from '../../logger'
 import type { MailContext } from '../mail/mailer'
 import { mailTemplate } from '../mail/render'
@@ -130,8 +130,7 @@ export function authService(
         )
       const row = await repo.insertUser(pending.email, pending.passwordHash, new Date())
       if (!row)
-        throw new HttpError(
-          409,
+        throw conflict(
           'already_confirmed',
           'This address already has an account: sign in with its password.',
         )

@@ -1,11 +1,12 @@
 import { and, desc, eq, inArray, lt, lte, ne, or, sql, type SQL } from 'drizzle-orm'
-import { DEFAULT_SETTINGS } from '../../../shared/format'
 import type { LakeDay } from '../../../shared/conditions/day-plan'
 import type { BriefDelivery, BriefUnits } from '../../../shared/schemas/brief'
 import type { LakeRead } from '../../../shared/schemas/lake-read'
 import { isoOrNull } from '../../../shared/time'
 import type { Db } from '../../db/index'
+import { failedTry } from '../../lib/backoff'
 import { RANKED_BANK } from '../banks/banks.repo'
+import { UNIT_COLUMNS, unitsOrDefault } from '../settings/settings.repo'
 import { banks, briefSends, briefSettings, userSettings, users } from '../../db/schema/index'
 
 /** A claimed brief: this subscriber's brief for this local date is ours to send. */
@@ -128,10 +129,7 @@ export function briefSendsRepo(db: Db) {
         .select({
           userId: users.id,
           email: users.email,
-          temperature: userSettings.temperature,
-          length: userSettings.length,
-          speed: userSettings.speed,
-          clock: userSettings.clock,
+          units: UNIT_COLUMNS,
           lakeIds: sql<string[]>`coalesce((select array_agg(s.lake_id order by l.name)
             from subscriptions s join lakes l on l.id = s.lake_id
             where s.user_id = ${users.id} and s.in_brief), '{}')`,
@@ -140,15 +138,7 @@ export function briefSendsRepo(db: Db) {
         .innerJoin(briefSettings, eq(briefSettings.userId, users.id))
         .leftJoin(userSettings, eq(userSettings.userId, users.id))
         .where(inArray(users.id, userIds))
-      return found.map(({ temperature, length, speed, clock, ...r }) => ({
-        ...r,
-        units: {
-          temperature: temperature ?? DEFAULT_SETTINGS.temperature,
-          length: length ?? DEFAULT_SETTINGS.length,
-          speed: speed ?? DEFAULT_SETTINGS.speed,
-          clock: clock ?? DEFAULT_SETTINGS.clock,
-        },
-      }))
+      return found.map((r) => ({ ...r, units: unitsOrDefault(r.units) }))
     },
 
     /**
@@ -190,13 +180,7 @@ export function briefSendsRepo(db: Db) {
     async markFailed(claim: Claim, error: string, at: Date, retryAt: Date | null) {
       await db
         .update(briefSends)
-        .set({
-          status: retryAt ? 'retry' : 'failed',
-          nextAttemptAt: retryAt,
-          lastError: error,
-          leaseUntil: null,
-          updatedAt: at,
-        })
+        .set(failedTry(error, at, retryAt))
         .where(of(claim))
     },
 

@@ -2,9 +2,7 @@ import { and, count, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-or
 import type { Db } from '../../db/index'
 import { banks, catches, catchPhotos, lakes, trips } from '../../db/schema/index'
 
-export type CatchRow = typeof catches.$inferSelect
 export type CatchValues = Omit<typeof catches.$inferInsert, 'id' | 'userId'>
-export type PhotoRow = typeof catchPhotos.$inferSelect
 
 /** The catch journal's queries; every one names the angler, so another's catch is never found. */
 export function journalRepo(db: Db) {

@@ -26,7 +26,15 @@ import {
 } from '../../../shared/schemas/journal'
 import { processPhoto, takenInstant } from './photo-process'
 import type { PhotoStore } from './photo-store'
-import { fieldMessages, HttpError, invalid, notFound } from '../../http/errors'
+import {
+  badCsv,
+  fieldMessages,
+  HttpError,
+  invalid,
+  missingColumns,
+  notFound,
+  unavailable,
+} from '../../http/errors'
 import type { CatchListRow, CatchValues, JournalRepo } from './journal.repo'
 import type { LakeRow } from '../lakes/lake-read.repo'
 import type { CsvImportReport } from '../../../shared/schemas/csv-import'
@@ -167,7 +175,7 @@ export function journalService(deps: JournalDeps) {
 
   function store(): PhotoStore {
     if (!deps.photos)
-      throw new HttpError(503, 'photos_unavailable', 'Photos cannot be stored here just now.')
+      throw unavailable('photos_unavailable', 'Photos cannot be stored here just now.')
     return deps.photos
   }
   const noPhoto = () => notFound('photo')
@@ -218,16 +226,11 @@ export function journalService(deps: JournalDeps) {
       })
       const columns = parsed.meta.fields ?? []
       const missing = CATCH_CSV_REQUIRED.filter((c) => !columns.includes(c))
-      if (missing.length)
-        throw new HttpError(400, 'bad_csv', `The header row needs ${missing.join(', ')}.`, {
-          file: `The first row must name the columns: ${CATCH_CSV_COLUMNS.join(', ')}.`,
-        })
+      if (missing.length) throw missingColumns(missing, CATCH_CSV_COLUMNS)
       if (parsed.data.length > MAX_CATCH_IMPORT_ROWS)
-        throw new HttpError(
-          400,
-          'bad_csv',
+        throw badCsv(
           `Import at most ${MAX_CATCH_IMPORT_ROWS} catches at a time.`,
-          { file: `Split the file: at most ${MAX_CATCH_IMPORT_ROWS} rows.` },
+          `Split the file: at most ${MAX_CATCH_IMPORT_ROWS} rows.`,
         )
       const banks = await repo.banks(user.id)
       const known = new Set(

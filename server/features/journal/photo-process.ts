@@ -2,7 +2,7 @@ import exifr from 'exifr'
 import sharp from 'sharp'
 import type { Position } from '../../../shared/geo/types'
 import { zoneOffsetMs } from '../../../shared/time'
-import { HttpError } from '../../http/errors'
+import { badFile, HttpError } from '../../http/errors'
 
 /** The long side of the copy an entry shows, and of its thumbnail, in pixels. */
 export const DISPLAY_PX = 1600
@@ -19,9 +19,12 @@ export interface ProcessedPhoto {
 }
 
 const notImage = () =>
-  new HttpError(415, 'not_an_image', 'That file is not a photo we can read (JPEG, PNG or WebP).', {
-    file: 'Choose a JPEG, PNG or WebP photo.',
-  })
+  badFile(
+    'not_an_image',
+    'That file is not a photo we can read (JPEG, PNG or WebP).',
+    'Choose a JPEG, PNG or WebP photo.',
+    415,
+  )
 
 /** EXIF's "YYYY:MM:DD HH:MM:SS" as an ISO local time, or null when it is not one. */
 function exifLocal(value: unknown): string | null {

@@ -1,7 +1,10 @@
 import { and, asc, desc, eq, gt, inArray, sql } from 'drizzle-orm'
 import type { ExposureTable } from '../../../shared/conditions/exposure'
+import type { BriefUnits } from '../../../shared/schemas/brief'
 import type { SentAlert, Watch, WatchConditions } from '../../../shared/schemas/watch'
 import type { Db } from '../../db/index'
+import { failedTry } from '../../lib/backoff'
+import { UNIT_COLUMNS, unitsOrDefault } from '../settings/settings.repo'
 import {
   banks,
   lakeDays,
@@ -50,12 +53,7 @@ export interface AlertToSend extends AlertKey {
   userId: string
   email: string
   verified: boolean
-  units: {
-    temperature: 'F' | 'C'
-    length: 'ft' | 'm'
-    speed: 'mph' | 'kmh' | 'knots'
-    clock: '12h' | '24h'
-  }
+  units: BriefUnits
   kind: 'angler' | 'trip'
   watchName: string
   channels: Channel[]
@@ -355,10 +353,7 @@ export function watchRepo(db: Db) {
           userId: users.id,
           email: users.email,
           verifiedAt: users.emailVerifiedAt,
-          temperature: userSettings.temperature,
-          length: userSettings.length,
-          speed: userSettings.speed,
-          clock: userSettings.clock,
+          units: UNIT_COLUMNS,
           kind: watches.kind,
           watchName: watches.name,
           channels: watches.channels,
@@ -378,16 +373,11 @@ export function watchRepo(db: Db) {
           sql`(${watchAlerts.watchId}, ${watchAlerts.date}, ${watchAlerts.windowId}, ${watchAlerts.episode})
             in (select * from unnest(${k.watchIds}::uuid[], ${k.dates}::date[], ${k.windowIds}::text[], ${k.episodes}::int[]))`,
         )
-      return found.map(({ verifiedAt, temperature, length, speed, clock, ...a }) => ({
+      return found.map(({ verifiedAt, units, ...a }) => ({
         ...a,
         match: a.match as Record<string, unknown>,
         verified: verifiedAt !== null,
-        units: {
-          temperature: temperature ?? 'F',
-          length: length ?? 'ft',
-          speed: speed ?? 'mph',
-          clock: clock ?? '12h',
-        },
+        units: unitsOrDefault(units),
       }))
     },
 
@@ -406,13 +396,7 @@ export function watchRepo(db: Db) {
     markFailed: (key: AlertKey, error: string, at: Date, retryAt: Date | null) =>
       db
         .update(watchAlerts)
-        .set({
-          status: retryAt ? 'retry' : 'failed',
-          nextAttemptAt: retryAt,
-          lastError: error,
-          leaseUntil: null,
-          updatedAt: at,
-        })
+        .set(failedTry(error, at, retryAt))
         .where(isKey(key)),
 
     /** The latest alerts, for admins beside the caught mail. */

@@ -3,6 +3,7 @@ import { WINDOW_LABELS } from '@shared/conditions/day-plan'
 import { PHASE_LABELS } from '@shared/conditions/season'
 import { DEFAULT_SETTINGS, makeFormat } from '@shared/format'
 import type { WatchConditions, WatchWind } from '@shared/schemas/watch'
+import { wordList } from '@shared/words'
 
 export const CHANNEL_LABELS = { email: 'E-mail', push: 'Push on my devices' } as const
 
@@ -10,8 +11,7 @@ export const CHANNEL_LABELS = { email: 'E-mail', push: 'Push on my devices' } as
 export const speedUnitLabel = (unit: WatchWind['unit']) =>
   makeFormat({ ...DEFAULT_SETTINGS, speed: unit }).speedUnit
 
-const either = (words: string[]) =>
-  words.length < 2 ? words.join('') : `${words.slice(0, -1).join(', ')} or ${words.at(-1)}`
+const either = (words: string[]) => wordList(words, 'or')
 
 /** What a watch waits for, in words: "wind 8 to 20 mph onto the bank · stained water · …". */
 export function conditionWords(c: WatchConditions): string[] {

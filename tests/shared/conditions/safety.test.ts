@@ -187,6 +187,9 @@ describe('wind as shown', () => {
     }
   }
   const levelOf = (c: ReturnType<typeof cautions>) => find(c, 'wind')?.level ?? null
+  /** The level a figure reaches against the danger, warning and caution limits. */
+  const levelAt = (x: number, [danger, warning, caution]: [number, number, number]) =>
+    x >= danger ? 'danger' : x >= warning ? 'warning' : x >= caution ? 'caution' : null
 
   it('never prints a speed just below a limit as the figure of one at it: 7.9 m/s is 17.7 mph, 8.0 m/s 18 mph (WMO Beaufort force 5 from 8.0 m/s; NIST SP 811: 1 mph = 0.44704 m/s)', () => {
     const mph = reader('mph')
@@ -216,29 +219,14 @@ describe('wind as shown', () => {
       const l = limits(f)
       for (let cms = 500; cms <= 2000; cms += 1) {
         const ms = cms / 100
-        // Sustained wind, gusts no stronger: the wind limits decide.
         const shown = figure(f.speed(ms))
-        const byFigure =
-          shown >= l.force6
-            ? 'danger'
-            : shown >= l.force5
-              ? 'warning'
-              : shown >= l.caution
-                ? 'caution'
-                : null
-        expect(levelOf(cautions({ windMs: ms })), `${ms} m/s shown as ${shown}`).toBe(byFigure)
+        // Sustained wind, gusts no stronger: the wind limits decide.
+        expect(levelOf(cautions({ windMs: ms })), `${ms} m/s shown as ${shown}`).toBe(
+          levelAt(shown, [l.force6, l.force5, l.caution]),
+        )
         // A light wind with a gust: the gust limits (force 6, force 7, gale) decide.
-        const gust = figure(f.speed(ms))
-        const byGust =
-          gust >= l.gale
-            ? 'danger'
-            : gust >= l.force7
-              ? 'warning'
-              : gust >= l.force6
-                ? 'caution'
-                : null
-        expect(levelOf(cautions({ windMs: 3, gustMs: ms })), `gust ${ms} m/s as ${gust}`).toBe(
-          byGust,
+        expect(levelOf(cautions({ windMs: 3, gustMs: ms })), `gust ${ms} m/s as ${shown}`).toBe(
+          levelAt(shown, [l.gale, l.force7, l.force6]),
         )
       }
     },
