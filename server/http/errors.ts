@@ -34,6 +34,9 @@ export const conflict = (code: string, message: string, field?: string) =>
 
 /** 410: what a link named is gone for good (withdrawn, expired). */
 export const gone = (code: string, message: string) => new HttpError(410, code, message)
+/** A signed link (sign-up, address, unsubscribe) that is forged, changed or past its time. */
+export const invalidLink = (fix: string) =>
+  new HttpError(400, 'invalid_link', `This link is not valid or has expired. ${fix}`)
 
 /** 503: the server cannot do this just now (a service down, too busy); the message says what to do. */
 export const unavailable = (code: string, message: string, fields?: Record<string, string>) =>

@@ -141,7 +141,7 @@ describe('sign-up, sign-in, sign-out', () => {
       .post('/api/auth/signup/confirm')
       .send({ token: `${token.slice(0, -6)}AAAAAA` })
       .expect(400)
-    expect(forged.body.error.code).toBe('link_invalid')
+    expect(forged.body.error.code).toBe('invalid_link')
   })
 
   it('rejects a forged token', async () => {

@@ -6,7 +6,7 @@ import type {
   User,
 } from '../../../shared/schemas/auth'
 import { NoticedCache, type Changes } from '../../db/changes'
-import { conflict, HttpError, invalid, loggableError } from '../../http/errors'
+import { conflict, HttpError, invalid, invalidLink, loggableError } from '../../http/errors'
 import type { Logger } from '../../logger'
 import type { MailContext } from '../mail/mailer'
 import { mailTemplate } from '../mail/render'
@@ -122,12 +122,7 @@ export function authService(
     /** Opens a sign-up link: the account is made, its address confirmed, and a session begins. */
     async confirmSignUp(token: string): Promise<IssuedSession> {
       const pending = await openSignUp(key, token)
-      if (!pending)
-        throw new HttpError(
-          400,
-          'link_invalid',
-          'This link is not valid or has expired. Sign up again for a new one.',
-        )
+      if (!pending) throw invalidLink('Sign up again for a new one.')
       const row = await repo.insertUser(pending.email, pending.passwordHash, new Date())
       if (!row)
         throw conflict(

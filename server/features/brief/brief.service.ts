@@ -5,7 +5,7 @@ import type {
   CaughtMail,
 } from '../../../shared/schemas/brief'
 import { HOUR_MS } from '../../../shared/time'
-import { conflict, HttpError, invalid, unauthenticated, unavailable } from '../../http/errors'
+import { conflict, invalid, invalidLink, unauthenticated, unavailable } from '../../http/errors'
 import { signLinkToken, verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
 import type { MailContext } from '../mail/mailer'
 import type { BriefSendsRepo } from './brief-sends.repo'
@@ -25,13 +25,6 @@ const renderVerification = mailTemplate<{
   url: string
   hours: number
 }>('verify')
-
-const badLink = (what: string) =>
-  new HttpError(
-    400,
-    'invalid_link',
-    `This ${what} link is not valid: it may have expired or been changed. Ask for a new one.`,
-  )
 
 export function briefService(deps: {
   repo: BriefRepo
@@ -97,15 +90,17 @@ export function briefService(deps: {
     async verify(token: string): Promise<{ email: string }> {
       const link = await verifyLinkToken(linkKey, 'verify-email', token)
       const email = link?.claims.email
-      if (!link || typeof email !== 'string') throw badLink('confirmation')
-      if (!(await repo.markVerified(link.subject, email, now()))) throw badLink('confirmation')
+      if (!link || typeof email !== 'string')
+        throw invalidLink('Ask for a new confirmation link from Settings.')
+      if (!(await repo.markVerified(link.subject, email, now())))
+        throw invalidLink('Ask for a new confirmation link from Settings.')
       return { email }
     },
 
     /** One-click unsubscribe: turns the brief off; the followed lakes stay followed. */
     async unsubscribe(token: string): Promise<void> {
       const link = await verifyLinkToken(linkKey, 'brief-unsubscribe', token)
-      if (!link) throw badLink('unsubscribe')
+      if (!link) throw invalidLink('Turn the brief off from Settings instead.')
       await repo.disable(link.subject)
     },
 

@@ -1,6 +1,6 @@
 import type { Watch, WatchInput, WatchPatch } from '../../../shared/schemas/watch'
 import { verifyLinkToken, type TokenKey } from '../auth/auth.tokens'
-import { conflict, HttpError, invalid, notFound as noSuch } from '../../http/errors'
+import { conflict, invalid, invalidLink, notFound as noSuch } from '../../http/errors'
 import type { WatchRepo, WatchValues } from './watch.repo'
 
 const notFound = () => noSuch('watch')
@@ -67,8 +67,7 @@ export function watchService(deps: { repo: WatchRepo; linkKey: TokenKey }) {
     /** A link from an alert pauses its watch; following it twice changes nothing. */
     async unsubscribe(token: string) {
       const link = await verifyLinkToken(deps.linkKey, 'watch-unsubscribe', token)
-      if (!link)
-        throw new HttpError(400, 'invalid_token', 'This link is not valid (or has expired).')
+      if (!link) throw invalidLink('Pause or delete the watch from the Watches screen.')
       await repo.pause(link.subject)
     },
   }

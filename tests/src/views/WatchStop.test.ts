@@ -44,7 +44,7 @@ describe('the stop link of a watch alert', () => {
   it("shows the server's reason when the link cannot be used, and where to go instead", async () => {
     const { wrapper } = await openStopLink('old.token', () =>
       Response.json(
-        { error: { code: 'invalid_token', message: 'This link has expired.' } },
+        { error: { code: 'invalid_link', message: 'This link has expired.' } },
         { status: 400 },
       ),
     )
