@@ -4,6 +4,18 @@ export interface Backoff {
   maxDelayMs: number
 }
 
+/** How an outbox (briefs, watch alerts) is worked through: tries, backoff, leases and batches. */
+export interface OutboxPolicy extends Backoff {
+  /** Tries per message before it is recorded as failed. */
+  maxAttempts: number
+  /** How long a claimed message is left to its runner before another run takes it over. */
+  leaseMs: number
+  /** Messages claimed per round trip. */
+  batchSize: number
+  /** Sends in flight at once. */
+  concurrency: number
+}
+
 /** Exponential backoff with "equal jitter": half the delay fixed, half random. */
 export function backoffMs(policy: Backoff, attempt: number): number {
   const ceiling = Math.min(policy.maxDelayMs, policy.baseDelayMs * 2 ** attempt)

@@ -21,7 +21,8 @@ import {
   userSettings,
 } from '../../server/db/schema/index'
 import { signLinkToken, tokenKey } from '../../server/features/auth/auth.tokens'
-import { sendBriefs, type BriefPolicy } from '../../server/features/brief/send-briefs'
+import { sendBriefs } from '../../server/features/brief/send-briefs'
+import type { OutboxPolicy } from '../../server/lib/backoff'
 import { runSendBriefs } from '../../jobs/send-briefs'
 import { signedInAgent, TEST_SECRET, testApp } from '../helpers/app'
 import { startWorld, type World } from '../helpers/world'
@@ -34,7 +35,7 @@ let mail: TestMail
 const log = pino({ level: 'silent' })
 const linkKey = tokenKey(TEST_SECRET)
 /** Retries a minute apart, so a test can step past them. */
-const FAST: Partial<BriefPolicy> = { baseDelayMs: 60_000, maxDelayMs: 60_000, maxAttempts: 3 }
+const FAST: Partial<OutboxPolicy> = { baseDelayMs: 60_000, maxDelayMs: 60_000, maxAttempts: 3 }
 
 const SETTINGS: BriefSettings = {
   enabled: true,
@@ -44,7 +45,7 @@ const SETTINGS: BriefSettings = {
 }
 
 const app = () => testApp(ctx.db, { mail: mail.mail, mailbox: mail.smtp })
-const run = (now: Date, policy: Partial<BriefPolicy> = FAST) =>
+const run = (now: Date, policy: Partial<OutboxPolicy> = FAST) =>
   sendBriefs({ db: ctx.db, log, mail: mail.mail, linkKey, now: () => now, policy })
 
 /** A subscriber straight in the database: verified, following `lakeSlugs`, with these settings. */

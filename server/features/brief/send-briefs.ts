@@ -5,26 +5,13 @@ import { DAY_MS } from '../../../shared/time'
 import type { Db } from '../../db/index'
 import type { Logger } from '../../logger'
 import { signLinkToken, type TokenKey } from '../auth/auth.tokens'
-import { backoffMs } from '../../lib/backoff'
+import { backoffMs, type OutboxPolicy } from '../../lib/backoff'
 import { logCatches } from '../journal/your-log'
 import { isPermanentMailError, type MailContext } from '../mail/mailer'
 import { briefSendsRepo, type CachedLake, type Claim, type Recipient } from './brief-sends.repo'
 import { composeBrief, renderBrief } from './compose'
 
-export interface BriefPolicy {
-  /** Tries per brief before it is recorded as failed. */
-  maxAttempts: number
-  baseDelayMs: number
-  maxDelayMs: number
-  /** How long a claimed brief is left to its runner before another run takes it over. */
-  leaseMs: number
-  /** Subscribers claimed per round trip. */
-  batchSize: number
-  /** SMTP sends in flight at once. */
-  concurrency: number
-}
-
-export const BRIEF_POLICY: BriefPolicy = {
+export const BRIEF_POLICY: OutboxPolicy = {
   maxAttempts: 5,
   baseDelayMs: 2 * 60_000,
   maxDelayMs: 60 * 60_000,
@@ -40,7 +27,7 @@ export interface BriefDeps {
   /** The key that signs unsubscribe links. */
   linkKey: TokenKey
   now?: () => Date
-  policy?: Partial<BriefPolicy>
+  policy?: Partial<OutboxPolicy>
 }
 
 /** Unsubscribe links keep working long after the brief is read. */

@@ -3,25 +3,13 @@ import { DAY_MS } from '../../../shared/time'
 import type { Db } from '../../db/index'
 import type { Logger } from '../../logger'
 import { signLinkToken, type TokenKey } from '../auth/auth.tokens'
-import { backoffMs } from '../../lib/backoff'
+import { backoffMs, type OutboxPolicy } from '../../lib/backoff'
 import { isPermanentMailError, type MailContext } from '../mail/mailer'
 import { composeAlert, renderAlert, type AlertView } from './compose-alert'
 import { matchWatches } from './watch-check'
 import { watchRepo, type AlertKey, type AlertToSend, type Channel } from './watch.repo'
 
-export interface AlertPolicy {
-  maxAttempts: number
-  baseDelayMs: number
-  maxDelayMs: number
-  /** How long a claimed alert is left to its runner before another run takes it over. */
-  leaseMs: number
-  /** Alerts claimed again per round trip. */
-  batchSize: number
-  /** Sends in flight at once. */
-  concurrency: number
-}
-
-export const ALERT_POLICY: AlertPolicy = {
+export const ALERT_POLICY: OutboxPolicy = {
   maxAttempts: 5,
   baseDelayMs: 60_000,
   maxDelayMs: 30 * 60_000,
@@ -52,7 +40,7 @@ export interface AlertDeps {
   /** Web Push; without it (no keys configured) alerts go by mail only. */
   push?: ChannelSender
   now?: () => Date
-  policy?: Partial<AlertPolicy>
+  policy?: Partial<OutboxPolicy>
 }
 
 /** Links that stop a watch keep working for a year. */
