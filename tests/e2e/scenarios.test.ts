@@ -12,6 +12,7 @@ import type { DayPlanResponse } from '../../shared/schemas/day-plan'
 import type { ShareView, SharedTrip } from '../../shared/schemas/guides'
 import type { LakeRead } from '../../shared/schemas/lake-read'
 import type { Settings } from '../../shared/schemas/settings'
+import { METRIC } from '../helpers/units'
 import { TEST_SECRET } from '../helpers/app'
 import { expectAccessible } from '../helpers/axe'
 import { artifactsDir } from '../helpers/browser'
@@ -26,13 +27,6 @@ import { apiSession, startE2eScenario, type E2eBank, type E2eScenario } from '..
  * API answers, worded by `makeFormat(settings)` as the screens word it.
  */
 
-const METRIC: Settings = {
-  temperature: 'C',
-  length: 'm',
-  speed: 'kmh',
-  clock: '24h',
-  homeLakeSlug: null,
-}
 const SIZES = { phone: { width: 390, height: 844 }, desktop: { width: 1366, height: 900 } }
 
 /** Three banks round the lake: the blow's lee shore, its windward point, and a side shore. */

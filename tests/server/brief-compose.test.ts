@@ -11,6 +11,7 @@ import type { Bank } from '../../shared/conditions/ranking'
 import type { Polygon, Position } from '../../shared/geo/types'
 import type { BriefUnits } from '../../shared/schemas/brief'
 import { composeBrief, renderBrief, type BriefLake } from '../../server/features/brief/compose'
+import { METRIC } from '../helpers/units'
 import { sampleRead } from '../helpers/lake-read-fixture'
 import { describeScenario } from '../helpers/scenario'
 import { box, densified } from '../shared/geo/fixtures'
@@ -134,7 +135,7 @@ describe('composeBrief and renderBrief', () => {
     expect(view.lakes[0]!.read).toBe(
       'Water 55 °F, warming 0.9 °F/day · Stained (1.6 ft visibility), clearing · pre-spawn phase (5-day mean 54 °F)',
     )
-    const metric = compose([lake()], { temperature: 'C', length: 'm', speed: 'kmh', clock: '24h' })
+    const metric = compose([lake()], METRIC)
     expect(metric.lakes[0]!.read).toMatch(
       /^Water 12\.5 °C, warming 0\.5 °C\/day · Stained \(0\.5 m/,
     )
@@ -188,7 +189,7 @@ describe('composeBrief and renderBrief', () => {
     expect(mail.text).toContain(`Tie on: ${tackle.call}`)
     // The rule of thumb's 2 ft is 0.6 m for a metric reader (NIST SP 811).
     expect(tackle.why).toContain('About 2 ft of visibility or less')
-    const metric = compose([lake()], { temperature: 'C', length: 'm', speed: 'kmh', clock: '24h' })
+    const metric = compose([lake()], METRIC)
     expect(metric.lakes[0]!.windows[0]!.tackle!.why).toContain('About 0.6 m of visibility or less')
     expect(renderBrief(metric).text).not.toMatch(/\d ft\b|°F|mph/)
   })
@@ -241,8 +242,6 @@ describe('composeBrief and renderBrief', () => {
     expect(mail.text).toContain('Unsubscribe: https://chopline.example/unsubscribe?token=t0ken')
   })
 })
-
-const METRIC: BriefUnits = { temperature: 'C', length: 'm', speed: 'kmh', clock: '24h' }
 
 /** The text between one heading line and the next blank line of a brief's plain-text part. */
 function windowText(text: string, label: string): string {

@@ -4,6 +4,7 @@ import type { Caution } from '../../shared/conditions/safety'
 import { makeFormat } from '../../shared/format'
 import type { DayPlanResponse } from '../../shared/schemas/day-plan'
 import { cToF } from '../../shared/units'
+import { IMPERIAL, METRIC } from '../helpers/units'
 import { describeScenario } from '../helpers/scenario'
 
 /**
@@ -15,20 +16,8 @@ type Plan = NonNullable<DayPlanResponse['plan']>
 const windowOf = (plan: Plan, id: 'dawn' | 'midday' | 'afternoon') =>
   plan.windows.find((w) => w.id === id)!
 const kindsOf = (cautions: Pick<Caution, 'kind'>[]) => cautions.map((c) => c.kind)
-const imperial = makeFormat({
-  temperature: 'F',
-  length: 'ft',
-  speed: 'mph',
-  clock: '12h',
-  homeLakeSlug: null,
-})
-const metric = makeFormat({
-  temperature: 'C',
-  length: 'm',
-  speed: 'kmh',
-  clock: '24h',
-  homeLakeSlug: null,
-})
+const imperial = makeFormat(IMPERIAL)
+const metric = makeFormat(METRIC)
 
 /** Banks rank safe first: no rough or dangerous bank above a sheltered one (common practice). */
 function expectSafeBanksFirst(plan: Plan) {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { TACKLE_RULES } from '../../shared/conditions/tackle-rules'
 import { DEFAULT_SETTINGS, makeFormat } from '../../shared/format'
+import { METRIC } from '../helpers/units'
 
 describe('makeFormat', () => {
   it('shows SI values in the default US units (NIST SP 811 factors)', () => {
@@ -29,13 +30,7 @@ describe('makeFormat', () => {
     expect(f.time('2026-04-10T18:30:00Z', 'America/Chicago')).toBe('13:30')
   })
 
-  const metric = makeFormat({
-    temperature: 'C',
-    length: 'm',
-    speed: 'kmh',
-    clock: '24h',
-    homeLakeSlug: null,
-  })
+  const metric = makeFormat(METRIC)
 
   it('gives rain, area and chart hours in the reader’s units (NIST SP 811: 1 in = 25.4 mm, 1 sq mi = 2.589988 km²)', () => {
     const f = makeFormat()

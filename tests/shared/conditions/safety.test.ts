@@ -9,6 +9,7 @@ import {
 import { heatIndexC } from '../../../shared/conditions/weather'
 import { DEFAULT_SETTINGS, makeFormat } from '../../../shared/format'
 import { cToF, fToC, MS_PER_KNOT } from '../../../shared/units'
+import { METRIC } from '../../helpers/units'
 
 const kinds = (c: ReturnType<typeof cautions>) => c.map((x) => `${x.kind}:${x.level}`)
 const find = (c: ReturnType<typeof cautions>, kind: string) => c.find((x) => x.kind === kind)
@@ -234,7 +235,7 @@ describe('wind as shown', () => {
 })
 
 describe('a caution’s source in the reader’s units', () => {
-  const metric = makeFormat({ ...DEFAULT_SETTINGS, temperature: 'C', length: 'm', speed: 'kmh' })
+  const metric = makeFormat(METRIC)
   const imperial = makeFormat(DEFAULT_SETTINGS)
   const all = cautions({
     windMs: 9,

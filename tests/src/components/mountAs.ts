@@ -3,20 +3,11 @@ import { mount } from '@vue/test-utils'
 import { createPinia } from 'pinia'
 import type { Component } from 'vue'
 import { settingsQuery } from '@/api/settings'
-import { DEFAULT_SETTINGS } from '@shared/format'
 import type { Role } from '@shared/schemas/auth'
 import type { Settings } from '@shared/schemas/settings'
 import { useAuthStore } from '@/stores/auth'
 
-/** Metric units and a 24-hour clock: the other way round from the defaults (°F, ft, mph, 12 h). */
-export const METRIC: Settings = {
-  temperature: 'C',
-  length: 'm',
-  speed: 'kmh',
-  clock: '24h',
-  homeLakeSlug: null,
-}
-export const IMPERIAL: Settings = DEFAULT_SETTINGS
+export { IMPERIAL, METRIC } from '../../helpers/units'
 
 /**
  * Mounts a component for a signed-in user with these settings, as the app has them: the user in
