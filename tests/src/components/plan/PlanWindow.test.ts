@@ -39,6 +39,8 @@ describe('PlanWindow', () => {
     expect(wrapper.text()).toContain('Wind 29 mph, gusts 40 mph')
     // The window's mean wind, and the strongest hour its cautions were judged on.
     expect(wrapper.find('.weather').text()).toMatch(/^\d+ mph, up to 29 mph from W/)
+    // The arrow and the words are the line's only flex items: no gap opens inside the words.
+    expect(wrapper.find('.weather').element.children).toHaveLength(2)
     expect(wrapper.text()).toContain('Do not launch in this window')
     expect(wrapper.find('.banks').exists()).toBe(false)
     expect(wrapper.text()).not.toContain('East rocks')
