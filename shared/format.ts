@@ -7,7 +7,10 @@ import {
   fToC,
   ftToM,
   HPA_PER_INHG,
+  KM2_PER_SQ_MI,
   M_PER_FT,
+  M_PER_MI,
+  MM_PER_IN,
   mToFt,
   msToKmh,
   msToKnots,
@@ -49,10 +52,10 @@ function unitsInText(text: string, s: Settings): string {
       const hi = b === undefined ? undefined : Number(b)
       if (imperial && unit === 'm') return `${span(lo, hi, (m) => short(Math.round(mToFt(m))))} ft`
       if (imperial && unit === 'mm')
-        return `${span(lo, hi, (mm) => short(Math.round((mm / 25.4) * 2) / 2))} in`
+        return `${span(lo, hi, (mm) => short(Math.round((mm / MM_PER_IN) * 2) / 2))} in`
       if (!imperial && unit === 'ft') return `${span(lo, hi, (ft) => short(ft * M_PER_FT))} m`
       if (!imperial && unit === 'in')
-        return `${span(lo, hi, (i) => String(Math.round((i * 25.4) / 5) * 5))} mm`
+        return `${span(lo, hi, (i) => String(Math.round((i * MM_PER_IN) / 5) * 5))} mm`
       return all
     })
     .replace(/\b(\d+(?:\.\d+)?) hPa\b/g, (all, n) =>
@@ -132,7 +135,7 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     signedLength: (m: number) => signed(lengthOf(m), 1, s.length),
     /** Longer distances (fetch): miles with feet, kilometres with metres. */
     distance: (m: number) =>
-      s.length === 'ft' ? `${(m / 1609.344).toFixed(1)} mi` : `${(m / 1000).toFixed(1)} km`,
+      s.length === 'ft' ? `${(m / M_PER_MI).toFixed(1)} mi` : `${(m / 1000).toFixed(1)} km`,
     speed: speedText,
     /** Sea-level pressure: "30.01 inHg" or "1016 hPa". */
     pressure: (hPa: number) => `${toPressure(hPa).toFixed(pressureDigits)} ${pressureUnit}`,
@@ -146,12 +149,12 @@ export function makeFormat(s: Settings = DEFAULT_SETTINGS) {
     from: (deg: number) => `from ${compassName(deg)}`,
     /** A lake's area: square miles or square kilometres. */
     area: (km2: number) =>
-      s.length === 'ft' ? `${(km2 / 2.589988).toFixed(1)} sq mi` : `${km2.toFixed(1)} km²`,
+      s.length === 'ft' ? `${(km2 / KM2_PER_SQ_MI).toFixed(1)} sq mi` : `${km2.toFixed(1)} km²`,
     /** Rain: inches to the hundredth, or millimetres. */
     rain: (mm: number) =>
-      s.length === 'ft' ? `${(mm / 25.4).toFixed(2)} in` : `${Math.round(mm)} mm`,
+      s.length === 'ft' ? `${(mm / MM_PER_IN).toFixed(2)} in` : `${Math.round(mm)} mm`,
     rainUnit: s.length === 'ft' ? 'in' : 'mm',
-    toRain: (mm: number) => (s.length === 'ft' ? mm / 25.4 : mm),
+    toRain: (mm: number) => (s.length === 'ft' ? mm / MM_PER_IN : mm),
     /** Measurements inside the engine's words, restated in these units. */
     prose: (text: string) => unitsInText(text, s),
     hourCycle: s.clock === '24h' ? ('h23' as const) : ('h12' as const),

@@ -1,5 +1,9 @@
 /** Exact conversion factors (NIST SP 811). SI inside shared/; these are for the edges. */
 export const M_PER_FT = 0.3048
+export const MM_PER_IN = 25.4
+export const M_PER_MI = 1609.344
+export const KM2_PER_SQ_MI = 2.589988
+export const KG_PER_LB = 0.45359237
 export const MS_PER_MPH = 0.44704
 export const MS_PER_KNOT = 1852 / 3600
 export const MS_PER_KMH = 1 / 3.6

@@ -1,7 +1,7 @@
 import type { Settings } from '../schemas/settings'
+import { KG_PER_LB, MM_PER_IN } from '../units'
 
-const M_PER_IN = 0.0254
-const KG_PER_LB = 0.45359237
+const M_PER_IN = MM_PER_IN / 1000
 
 /**
  * A fish's length and weight in a person's units: inches and pounds for those who read feet,
