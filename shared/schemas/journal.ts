@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { CLARITY_CLASSES } from '../conditions/clarity'
+import { WINDOW_LABELS } from '../conditions/day-plan'
 import { SEASONAL_PHASES } from '../conditions/season'
 import { BLADES } from '../conditions/tackle-lists'
 import { PlainText } from './text'
@@ -88,6 +89,11 @@ export const CatchInput = z
 export type CatchInput = z.infer<typeof CatchInput>
 
 /** The conditions at a catch's time and place, computed by the server from stored readings. */
+/** When in the day a fish came: a Day plan window, or the night outside them. */
+export const TIMES_OF_DAY = ['night', 'dawn', 'midday', 'afternoon'] as const
+export type TimeOfDay = (typeof TIMES_OF_DAY)[number]
+export const TIME_OF_DAY_LABELS: Record<TimeOfDay, string> = { night: 'Night', ...WINDOW_LABELS }
+
 export const CatchConditions = z.object({
   waterC: z.number().nullable(),
   clarity: z
@@ -107,7 +113,7 @@ export const CatchConditions = z.object({
   pressure: z.object({ hPa: z.number(), changeHpa3h: z.number(), label: z.string() }).nullable(),
   /** The day's verdict at the lake (its Day plan's), or the read's for the 12 h from the catch. */
   verdict: z.enum(['go', 'caution', 'no-go']).nullable(),
-  timeOfDay: z.enum(['night', 'dawn', 'midday', 'afternoon']),
+  timeOfDay: z.enum(TIMES_OF_DAY),
   /** The local date at the lake, and the season of the year it falls in. */
   localDate: z.iso.date(),
   computedAt: z.iso.datetime(),

@@ -1,12 +1,17 @@
 import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
 import { and, count, eq } from 'drizzle-orm'
 import exifr from 'exifr'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Position } from '../../shared/geo/types'
 import { addDays, localDate } from '../../shared/time'
+import { SKY_LABELS } from '../../shared/conditions/tackle-rules'
+import { TIME_OF_DAY_LABELS } from '../../shared/schemas/journal'
 import { catches, catchPhotos, lakes, users } from '../../server/db/schema/index'
 import { expectAccessible } from '../helpers/axe'
+import { artifactsDir } from '../helpers/browser'
+import { IMPERIAL, METRIC } from '../helpers/units'
 import { cameraPhoto } from '../helpers/camera-photo'
 import { apiSession, KEPT_URLS, startE2e, type E2e } from '../helpers/e2e'
 import { startTestS3, type TestS3 } from '../helpers/s3'
@@ -166,10 +171,48 @@ describe('the catch journal on a phone (390 × 844) in Chromium', () => {
     expect(
       await conditions.locator('dt', { hasText: 'Clarity' }).locator('+ dd').innerText(),
     ).not.toBe('not measured')
+    expect(entry).toContain('17.5 in')
+    await page.screenshot({
+      path: join(artifactsDir, 'journal-entry-imperial-phone.png'),
+      fullPage: true,
+    })
+
+    // The same entry for a metric reader: 17.5 in is 44 cm (NIST SP 811: 1 in = 2.54 cm), water
+    // in °C, wind in km/h, and nothing in the other system's units.
+    const settings = await apiSession(base, ANGLER)
+    await settings('PUT', '/api/me/settings', METRIC)
+    try {
+      await page.reload()
+      await conditions.waitFor()
+      const metricEntry = await page.locator('section.catch-entry').innerText()
+      expect(metricEntry).toContain('44 cm')
+      expect(
+        await conditions.locator('dt', { hasText: 'Water' }).locator('+ dd').innerText(),
+      ).toMatch(/^\d+(\.\d)? °C$/)
+      expect(metricEntry).not.toMatch(/°F|mph|inHg|\d in\b/)
+      await page.screenshot({
+        path: join(artifactsDir, 'journal-entry-metric-phone.png'),
+        fullPage: true,
+      })
+    } finally {
+      await settings('PUT', '/api/me/settings', IMPERIAL)
+    }
 
     await page.goto(`${base}/journal/insights`)
     await totalLine.waitFor()
     await expect.poll(totalOf).toBe(before + 1)
+    // Each group is named in words, as the Day plan names its windows and skies.
+    for (const [title, words] of [
+      ['Time of day', Object.values(TIME_OF_DAY_LABELS)],
+      ['Sky', Object.values(SKY_LABELS)],
+    ] as const) {
+      const groups = await page
+        .locator('figure.insight', { has: page.locator('figcaption', { hasText: title }) })
+        .locator('tbody th')
+        .allInnerTexts()
+      expect(groups.length, title).toBeGreaterThan(0)
+      for (const label of groups) expect(words, title).toContain(label)
+    }
 
     await page.goto(`${base}/journal`)
     const download = page.waitForEvent('download')

@@ -38,6 +38,8 @@ describe("a catch entry's conditions", () => {
     expect(text).toContain('pre-spawn')
     expect(text).toContain('10 mph from SW — windward on the bank')
     expect(text).toContain('overcast')
+    // The day's verdict and time of day in words (VERDICT_LABELS, the Day plan's window names).
+    expect(text).toContain('Go · Dawn to mid-morning')
   })
   it('says what was not measured rather than showing a number', () => {
     const text = mount(CatchConditionsList, {
