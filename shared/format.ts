@@ -74,6 +74,13 @@ function unitsInText(text: string, s: Settings): string {
 }
 
 /** What a user sees before choosing (and while signed out). */
+/**
+ * A number (or range) and its unit as `makeFormat` writes them: "32.2 °C", "17.9 mph", "1-1.5 ft".
+ * The edges keep them on one line: a no-wrap span on screens, a no-break space in mail.
+ */
+export const FIGURE =
+  /(-?\d+(?:\.\d+)?(?:-\d+(?:\.\d+)?)? (?:°[CF]|mph|km\/h|kt|ft|m|in|mm|hPa|inHg|%|oz|mi|km|km²|sq mi)(?![\w²]))/
+
 export const DEFAULT_SETTINGS: Settings = {
   temperature: 'F',
   length: 'ft',

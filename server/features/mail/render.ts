@@ -1,5 +1,6 @@
 import { readFileSync } from 'node:fs'
 import Handlebars from 'handlebars'
+import { FIGURE } from '../../../shared/format'
 
 /**
  * E-mail templates (Handlebars, compiled once) in `templates/`: `<name>.html.hbs` inside the shared
@@ -27,9 +28,8 @@ export function mailTemplate<T extends { subject: string }>(
   return (view) => ({ subject: view.subject, html: keepFigures(html(view)), text: text(view) })
 }
 
-/** A space between a number and its unit, as the shared formatter writes them. */
-const FIGURE_SPACE =
-  /(\d) (?=(?:°[FC]|mph|km\/h|kt|ft|inHg|in|hPa|mm|m|km²|km|mi²|mi|acres|ha|%)(?!\w))/g
+const FIGURES = new RegExp(FIGURE.source, 'g')
 
 /** A number and its unit never part at a line end in a mail reader ("16 / mph"). */
-export const keepFigures = (html: string) => html.replace(FIGURE_SPACE, '$1&nbsp;')
+export const keepFigures = (html: string) =>
+  html.replace(FIGURES, (figure) => figure.replace(' ', '&nbsp;'))
