@@ -11,7 +11,8 @@ describe('LakeSelect', () => {
     let answer!: (r: Response) => void
     vi.stubGlobal('fetch', () => new Promise<Response>((resolve) => (answer = resolve)))
     const wrapper = mountAs(IMPERIAL, LakeSelect, { props: { value: null } })
-    expect(wrapper.find('input').attributes('aria-label')).toBe('Lake')
+    // Named on the field, and below on its search box where it has one (`filterable`).
+    expect(wrapper.attributes('aria-label')).toBe('Lake')
     expect(wrapper.findComponent(NSelect).props('loading')).toBe(true)
     answer(Response.json({ items: [{ slug: 'quiet-pond', name: 'Quiet Pond' }] }))
     await flushPromises()
@@ -19,6 +20,8 @@ describe('LakeSelect', () => {
     expect(wrapper.text()).toContain('Choose a lake')
     await wrapper.setProps({ value: 'quiet-pond' })
     expect(wrapper.text()).toContain('Quiet Pond')
+    const searchable = mountAs(IMPERIAL, LakeSelect, { props: { value: null, filterable: true } })
+    expect(searchable.find('input').attributes('aria-label')).toBe('Lake')
   })
 
   it('says in the field when the lakes could not be loaded', async () => {
